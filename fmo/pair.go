@@ -1,0 +1,98 @@
+// Package fmo analyses thermal cycloaddition partners with frontier-orbital perturbation
+// theory on top of Hückel orbitals from package huckel: which frontier gap controls a pair
+// (normal or inverse electron demand), which regio-orientation and which reacting sites are
+// preferred and by what margin, the secondary-orbital (endo) term, whether the supra–supra
+// thermal pairing is symmetry-allowed, how activation of the dienophile changes the picture, and
+// whether side channels compete. It knows nothing of terminals or output formats.
+package fmo
+
+// Energy is a quantity in units of |β| and in eV (through the calibration named in the Pair).
+type Energy struct {
+	Beta float64 `json:"beta"`
+	EV   float64 `json:"ev"`
+}
+
+// Frontier describes one frontier level of a partner.
+type Frontier struct {
+	Index      int     `json:"index"`      // index into the partner's levels (bonding first)
+	X          float64 `json:"x"`          // E = α + xβ
+	EV         float64 `json:"ev"`         // calibrated orbital energy
+	Degenerate bool    `json:"degenerate"` // part of a degenerate set
+}
+
+// Orientation is one way the two reacting units can join: which sites, which regio-orientation,
+// the product and the scores. Bonds are the two new σ bonds, diene (4π partner) atom first,
+// as 0-based atom indices in each partner's own SMILES.
+type Orientation struct {
+	Site            string    `json:"site"`             // human description of the reacting units, e.g. "C1=C2-C3=C4 + C6=C7"
+	DieneAtoms      []int     `json:"diene_atoms"`      // reacting unit of the 4π partner, terminus first (4 atoms, or 3 for a dipole)
+	DienophileAtoms []int     `json:"dienophile_atoms"` // reacting 2π unit (2 atoms), in bond order: DieneAtoms[0] bonds to DienophileAtoms[0]
+	Bonds           [2][2]int `json:"bonds"`            // [[diene atom, dienophile atom], [diene atom, dienophile atom]]
+	Product         string    `json:"product"`          // SMILES of the cycloadduct built from the unactivated partners
+	Stabilization   float64   `json:"stabilization"`    // total perturbation energy, units of |β|, larger is better
+	FrontierTerm    float64   `json:"frontier_term"`    // orbital (Klopman–Salem second- or first-order) part, |β|
+	ChargeTerm      float64   `json:"charge_term"`      // Coulomb part, |β| (0 when switched off)
+	Localization    float64   `json:"localization"`     // π energy both partners lose on forming the adduct, |β| (a cost)
+	Method          string    `json:"method"`           // "second-order" or "first-order" (near-degenerate frontier levels)
+	Label           string    `json:"label"`            // "ortho" | "meta" | "para" | ""
+	EndoOverlap     float64   `json:"endo_overlap"`     // secondary-orbital term, |β|
+	Preferred       bool      `json:"preferred"`
+}
+
+// SideChannel is a competing reaction the pair analysis checked.
+type SideChannel struct {
+	Kind     string  `json:"kind"`   // "diene_dimerisation" | "product_as_dienophile"
+	Gap      Energy  `json:"gap"`    // controlling frontier gap of the side reaction
+	Margin   float64 `json:"margin"` // side-channel gap minus the pair's controlling gap, |β| (small or negative = competes)
+	Competes bool    `json:"competes"`
+	Note     string  `json:"note"`
+}
+
+// ActivationEffect summarises what activating the dienophile changed, relative to the free
+// (unactivated) dienophile.
+type ActivationEffect struct {
+	LUMOLowering      Energy  `json:"lumo_lowering"`       // LUMO(free) − LUMO(activated) in energy terms: positive = lowered
+	BetaAsymmetry     float64 `json:"beta_asymmetry"`      // c²(β-C) − c²(α-C) of the LUMO in the activated dienophile
+	BetaAsymmetryFree float64 `json:"beta_asymmetry_free"` // same for the free dienophile
+	EndoChange        float64 `json:"endo_change"`         // endo term (activated) − endo term (free), |β|
+}
+
+// Pair is the analysis of one 4π partner ("diene": diene, hetero-diene or 1,3-dipole) with one
+// 2π partner ("dienophile") under one activation. Field names in JSON are a contract that other
+// tools parse (../shared/DESIGN.md): keep them stable.
+type Pair struct {
+	DieneName           string `json:"diene_name,omitempty"`
+	DienophileName      string `json:"dienophile_name,omitempty"`
+	Diene               string `json:"diene"`      // SMILES as given
+	Dienophile          string `json:"dienophile"` // SMILES as given (unactivated)
+	Activation          string `json:"activation"` // "none" | "proton" | "lewis" | "iminium"
+	ActivatedDienophile string `json:"activated_dienophile,omitempty"`
+
+	Demand          string  `json:"demand"`           // "normal" | "inverse" | "neutral"
+	SustmannType    string  `json:"sustmann_type"`    // "I" | "II" | "III"
+	DemandThreshold float64 `json:"demand_threshold"` // |gap_normal − gap_inverse| below this (|β|) is "neutral"/type II
+	GapNormal       Energy  `json:"gap_normal"`       // LUMO(dienophile) − HOMO(diene), positive
+	GapInverse      Energy  `json:"gap_inverse"`      // LUMO(diene) − HOMO(dienophile), positive
+
+	DieneHOMO      Frontier `json:"diene_homo"`
+	DieneLUMO      Frontier `json:"diene_lumo"`
+	DienophileHOMO Frontier `json:"dienophile_homo"`
+	DienophileLUMO Frontier `json:"dienophile_lumo"`
+
+	Orientations    []Orientation `json:"orientations"`     // best first
+	RegioMargin     float64       `json:"regio_margin"`     // stabilization(best) − stabilization(best of the other regio-orientation at the same sites), |β|
+	SiteMargin      float64       `json:"site_margin"`      // stabilization(best) − best at another site combination, |β| (0 if only one)
+	RegioConfidence string        `json:"regio_confidence"` // "clear" | "slight" | "no preference"
+	Endo            string        `json:"endo"`             // "yes" | "weak" | "no": endo favoured by secondary overlap
+
+	Allowed       bool   `json:"allowed"`        // supra–supra thermal pairing symmetry-allowed
+	AllowedReason string `json:"allowed_reason"` // from the frontier phases at the termini
+
+	Activated    *ActivationEffect `json:"activation_effect,omitempty"`
+	SideChannels []SideChannel     `json:"side_channels"`
+
+	Params      string   `json:"params"`       // parameter set name
+	Calibration string   `json:"calibration"`  // calibration name used for every eV figure
+	FormingBeta float64  `json:"forming_beta"` // resonance integral assumed for each forming σ bond, units of β
+	Warnings    []string `json:"warnings"`
+}

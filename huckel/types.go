@@ -1,0 +1,88 @@
+package huckel
+
+import "cyclopair/huckel/molecule"
+
+// CentreType names the kind of π centre an atom is, chosen from the Kekulé structure,
+// formal charge and neighbours. Parameter sets give h (Coulomb) values per CentreType and
+// k (resonance) values per pair of CentreTypes. The string values appear in parameter files
+// and in JSON output: keep them stable.
+type CentreType string
+
+// The π centre types the perception step can assign. Electrons is the number of π
+// electrons the centre contributes.
+const (
+	CSp2      CentreType = "C"       // neutral sp2 carbon, 1 e
+	CCation   CentreType = "C+"      // carbocation, 0 e
+	CAnion    CentreType = "C-"      // carbanion, 2 e
+	CSp       CentreType = "C#"      // sp carbon, one π set in conjugation, 1 e
+	NPyridine CentreType = "N="      // pyridine/imine/azo-type N, 1 e
+	NPyrrole  CentreType = "N:"      // amine/pyrrole/amide-type N, 2 e
+	NIminium  CentreType = "N+="     // iminium or pyridinium N+, 1 e
+	NNitro    CentreType = "N+nitro" // nitro N+, 1 e
+	NNitrile  CentreType = "N#"      // nitrile N (and other sp N), 1 e
+	NAmmonioA CentreType = "N+:"     // N+ with a lone-pair-like π pair (e.g. azide/diazo middle N written with charge), 2 e — used only where the Kekulé form demands it
+	OCarbonyl CentreType = "O="      // carbonyl O, 1 e
+	OEther    CentreType = "O:"      // ether/ester/hydroxyl/furan O, 2 e
+	OOxonium  CentreType = "O+="     // protonated carbonyl or pyrylium-type O+, 1 e
+	OLewis    CentreType = "O=LA"    // carbonyl O bound to a Lewis acid, 1 e
+	OAnion    CentreType = "O-"      // O−, 2 e
+	SThio     CentreType = "S:"      // thioether/thiophene S, 2 e
+	SThione   CentreType = "S="      // thione S, 1 e
+	Fluoro    CentreType = "F"       // 2 e
+	Chloro    CentreType = "Cl"      // 2 e
+	Bromo     CentreType = "Br"      // 2 e
+	Iodo      CentreType = "I"       // 2 e
+	Boron     CentreType = "B"       // trigonal boron, 0 e
+	Alkyl     CentreType = "Me"      // sp3 carbon treated by the hyperconjugative heteroatom model, 2 e
+)
+
+// Centre is one π centre.
+type Centre struct {
+	Atom      int        // 0-based atom index in the input molecule
+	Element   string     // element symbol of that atom
+	Type      CentreType // centre type
+	H         float64    // Coulomb parameter h: α_X = α + h·β
+	Electrons int        // π electrons contributed (0, 1 or 2)
+	Fragment  int        // which separate π system (0-based) the centre belongs to
+}
+
+// PiBond is a resonance integral between two π centres: β_XY = k·β.
+type PiBond struct {
+	I, J int     // centre indices (I < J)
+	K    float64 // resonance parameter k
+	Bond int     // index of the molecular bond it stands for
+}
+
+// PiSystem is the perceived π system of a molecule, in the form the solver needs.
+type PiSystem struct {
+	Mol        *molecule.Molecule
+	Params     *Params
+	Centres    []Centre
+	Bonds      []PiBond
+	AtomCentre []int    // atom index -> centre index, -1 for atoms outside every π system
+	Fragments  [][]int  // centre indices of each separate π system, in centre order
+	Warnings   []string // e.g. "312 π centres: dense diagonalisation is O(n³)"
+}
+
+// Level is one molecular orbital, E = α + X·β (β < 0, so bonding levels have X > 0).
+type Level struct {
+	X          float64   // energy in units of β relative to α
+	Occupancy  float64   // electrons in this level (0, 1 or 2; fractional in a partly filled degenerate shell)
+	Coeffs     []float64 // one coefficient per π centre (zero outside the level's fragment)
+	Fragment   int       // the separate π system this level belongs to
+	Degenerate int       // number of levels in its degenerate set (1 when not degenerate)
+}
+
+// Orbitals is the solved π system.
+type Orbitals struct {
+	Pi         *PiSystem
+	Levels     []Level   // sorted by X descending: most bonding first
+	HOMO       int       // index into Levels of the highest occupied level, -1 if none
+	LUMO       int       // index into Levels of the lowest unoccupied level, -1 if none
+	SOMO       int       // index of a singly occupied level for odd electron counts, -1 otherwise
+	Electrons  int       // total π electrons
+	Charges    []float64 // π charge per centre: electrons contributed minus π population
+	BondOrders []float64 // Coulson π bond orders, n×n row-major over centres
+	PiEnergy   float64   // total π energy Σ n_j·X_j, in units of β (E_π = Nα + PiEnergy·β)
+	Warnings   []string
+}
