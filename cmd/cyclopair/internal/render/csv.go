@@ -1,0 +1,56 @@
+package render
+
+import (
+	"encoding/csv"
+	"io"
+	"strconv"
+	"strings"
+)
+
+// csvHeader is the first CSV record. Energies are in units of |β| (…_beta) and eV (…_ev).
+var csvHeader = []string{
+	"rank", "diene_name", "diene", "dienophile_name", "dienophile", "activation",
+	"demand", "sustmann_type", "gap_beta", "gap_ev", "gap_normal_beta", "gap_normal_ev",
+	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
+	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
+	"params", "calibration", "caution",
+}
+
+type csvWriter struct {
+	w   *csv.Writer
+	rep Report
+}
+
+func newCSV(w io.Writer, rep Report) (*csvWriter, error) {
+	c := &csvWriter{w: csv.NewWriter(w), rep: rep}
+	if err := c.w.Write(csvHeader); err != nil {
+		return nil, err
+	}
+	return c, nil
+}
+
+func (c *csvWriter) WriteRow(r Row) error {
+	p := r.Pair
+	g := Controlling(p)
+	label, product, stab := "", "", ""
+	if o := best(p); o != nil {
+		label, product, stab = o.Label, o.Product, f3(o.Stabilization)
+	}
+	rec := []string{
+		strconv.Itoa(r.Rank), p.DieneName, p.Diene, p.DienophileName, p.Dienophile,
+		p.Activation, p.Demand, p.SustmannType, f3(g.Beta), f2(g.EV),
+		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
+		label, product, stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
+		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
+		strings.Join(p.Warnings, " | "), p.Params, p.Calibration, Caution,
+	}
+	if err := c.w.Write(rec); err != nil {
+		return err
+	}
+	return nil
+}
+
+func (c *csvWriter) Close(Summary) error {
+	c.w.Flush()
+	return c.w.Error()
+}
