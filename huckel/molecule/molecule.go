@@ -82,7 +82,21 @@ func (m *Molecule) ensureAdj() {
 // Reindex rebuilds the adjacency lists from Bonds. Call it after editing Atoms or Bonds
 // directly (for example after deleting bonds from the slice).
 func (m *Molecule) Reindex() {
+	// One backing array for all lists (three allocations in all); each list is capped at its
+	// length so a later AddBond appends into a fresh array instead of a neighbour's list.
 	m.adj = make([][]Edge, len(m.Atoms))
+	deg := make([]int, len(m.Atoms)+1)
+	for _, b := range m.Bonds {
+		deg[b.A+1]++
+		deg[b.B+1]++
+	}
+	for i := 1; i < len(deg); i++ {
+		deg[i] += deg[i-1]
+	}
+	all := make([]Edge, 2*len(m.Bonds))
+	for i := range m.adj {
+		m.adj[i] = all[deg[i]:deg[i]:deg[i+1]]
+	}
 	for i, b := range m.Bonds {
 		m.adj[b.A] = append(m.adj[b.A], Edge{To: b.B, Bond: i})
 		m.adj[b.B] = append(m.adj[b.B], Edge{To: b.A, Bond: i})
