@@ -1,0 +1,473 @@
+package fmo
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"runtime"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"sync/atomic"
+)
+
+// This file holds the batch machinery of Screen, independent of the chemistry: a pair space
+// enumerated in a fixed order, sharding, a worker pool that scores chunks of the space, a
+// bounded top-K selection with deterministic tie-breaking and an in-order streamer. The
+// chemistry (QuickScore, Analyze) is plugged in through screenJob (screen.go).
+//
+// Determinism: every pair has a fixed index in the pair space; ranking compares (key, index)
+// pairs, a strict total order, so the selected rows and their order do not depend on how the
+// space was split between workers. The unranked stream emits chunks strictly in index order.
+
+// PairSpace enumerates diene × dienophile × activation triples. Index k stands for
+// diene k / (Dienophiles·Activations), dienophile (k / Activations) mod Dienophiles and
+// activation k mod Activations: dienes vary slowest, activations fastest.
+type PairSpace struct {
+	Dienes, Dienophiles, Activations int
+}
+
+// Len is the number of triples.
+func (s PairSpace) Len() int64 {
+	return int64(s.Dienes) * int64(s.Dienophiles) * int64(s.Activations)
+}
+
+// Split returns the diene, dienophile and activation indices of pair k.
+func (s PairSpace) Split(k int64) (diene, dienophile, activation int) {
+	a := int(k % int64(s.Activations))
+	k /= int64(s.Activations)
+	return int(k / int64(s.Dienophiles)), int(k % int64(s.Dienophiles)), a
+}
+
+// Shard selects a deterministic slice of the pair space: shard Index of Count (1-based).
+// The zero value (and 1/1) is the whole space. Shards are contiguous index ranges, so the
+// unranked outputs of shards 1..Count concatenate to the unsharded unranked output.
+type Shard struct {
+	Index, Count int
+}
+
+// ErrBadShard is wrapped by ParseShard and Range for an impossible shard.
+var ErrBadShard = errors.New("bad shard")
+
+// ParseShard reads "i/n" with 1 ≤ i ≤ n.
+func ParseShard(s string) (Shard, error) {
+	a, b, ok := strings.Cut(strings.TrimSpace(s), "/")
+	i, err1 := strconv.Atoi(a)
+	n, err2 := strconv.Atoi(b)
+	if !ok || err1 != nil || err2 != nil {
+		return Shard{}, fmt.Errorf("%w %q (write i/n, e.g. 2/8 for the second of eight shards)", ErrBadShard, s)
+	}
+	if n < 1 || i < 1 || i > n {
+		return Shard{}, fmt.Errorf("%w %q (need 1 ≤ i ≤ n)", ErrBadShard, s)
+	}
+	return Shard{Index: i, Count: n}, nil
+}
+
+// String is "i/n", or "" for the whole space.
+func (sh Shard) String() string {
+	if sh.Count <= 1 {
+		return ""
+	}
+	return fmt.Sprintf("%d/%d", sh.Index, sh.Count)
+}
+
+// Range returns the half-open index range [lo, hi) of the shard within n pairs.
+func (sh Shard) Range(n int64) (lo, hi int64) {
+	if sh.Count <= 1 {
+		return 0, n
+	}
+	if sh.Index < 1 || sh.Index > sh.Count {
+		panic(fmt.Sprintf("fmo: shard %d/%d out of range", sh.Index, sh.Count))
+	}
+	c := int64(sh.Count)
+	i := int64(sh.Index)
+	// n·i/c without overflow for any realistic n (n < 2^62/c).
+	return n/c*(i-1) + n%c*(i-1)/c, n/c*i + n%c*i/c
+}
+
+// scored is the ranking record of one pair: lower key is better (keys that rank
+// "largest first" are negated when they are made), ties go to the lower index.
+type scored struct {
+	key float64
+	k   int64
+}
+
+// better is the strict total order of the ranking. NaN keys rank last.
+func better(a, b scored) bool {
+	an, bn := math.IsNaN(a.key), math.IsNaN(b.key)
+	switch {
+	case an != bn:
+		return bn
+	case !an && a.key != b.key:
+		return a.key < b.key
+	}
+	return a.k < b.k
+}
+
+func compareScored(a, b scored) int {
+	if better(a, b) {
+		return -1
+	}
+	if better(b, a) {
+		return 1
+	}
+	return 0
+}
+
+// topK keeps the K best records seen so far in a binary max-heap (the worst kept record at
+// the root), so each offer costs O(log K) and memory is O(K) whatever the number of pairs.
+type topK struct {
+	k int
+	h []scored
+}
+
+func (t *topK) offer(s scored) {
+	if len(t.h) < t.k {
+		t.h = append(t.h, s)
+		// sift up
+		i := len(t.h) - 1
+		for i > 0 {
+			p := (i - 1) / 2
+			if !better(t.h[p], t.h[i]) { // parent is not better = parent worse or equal
+				break
+			}
+			t.h[p], t.h[i] = t.h[i], t.h[p]
+			i = p
+		}
+		return
+	}
+	if t.k == 0 || !better(s, t.h[0]) {
+		return
+	}
+	t.h[0] = s
+	// sift down: keep the worst at the root
+	i := 0
+	for {
+		l, r, w := 2*i+1, 2*i+2, i
+		if l < len(t.h) && better(t.h[w], t.h[l]) {
+			w = l
+		}
+		if r < len(t.h) && better(t.h[w], t.h[r]) {
+			w = r
+		}
+		if w == i {
+			break
+		}
+		t.h[w], t.h[i] = t.h[i], t.h[w]
+		i = w
+	}
+}
+
+// screenJob is the chemistry a screen run needs. Both methods must be safe for concurrent
+// use on different pairs; the worker argument identifies the calling worker (0..workers-1)
+// so implementations can keep per-worker workspaces.
+type screenJob interface {
+	// score returns the ranking key of pair k (lower is better), whether the pair passes
+	// the filters, and ok=false when the pair does not exist (activation not applicable).
+	score(worker int, k int64) (key float64, pass, ok bool)
+	// analyze runs the full analysis of pair k.
+	analyze(worker int, k int64) (*Pair, error)
+}
+
+// engineConfig drives one engine run.
+type engineConfig struct {
+	Workers int
+	Ranked  bool  // rank by key; otherwise stream in pair order
+	Top     int   // keep at most Top rows (0 = all)
+	Lo, Hi  int64 // pair index range
+	Chunk   int   // pairs per work unit (default 1024)
+	// Progress, if not nil, is called from worker goroutines with the number of pairs just
+	// scored; it must be safe for concurrent use.
+	Progress func(n int64)
+}
+
+// engineStats counts what a run did.
+type engineStats struct {
+	Scored   int64 // pairs that exist and were scored
+	Missing  int64 // pairs that do not exist (activation not applicable)
+	Passed   int64 // scored pairs that passed the filters
+	Emitted  int64 // rows handed to emit
+	Failed   int64 // pairs whose full analysis failed
+	Canceled bool
+}
+
+// pairFailure is a pair whose full analysis failed.
+type pairFailure struct {
+	K   int64
+	Err error
+}
+
+// engineRun scores pairs [Lo, Hi) and calls emit (from the calling goroutine, in output
+// order) with each output row: rank is the 1-based position in the ranking, or k+1 (the
+// pair's number in the whole space) when unranked. emit returning an error stops the run.
+// Failures of the full analysis are passed to fail (from the calling goroutine) and the run
+// goes on. When ctx is canceled the run stops taking new work; the unranked stream still
+// emits, in order, the rows of chunks already finished before the first gap, and the run
+// returns ctx.Err() with Canceled set.
+func engineRun(ctx context.Context, job screenJob, cfg engineConfig,
+	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	if cfg.Workers <= 0 {
+		cfg.Workers = runtime.GOMAXPROCS(0)
+	}
+	if cfg.Chunk <= 0 {
+		cfg.Chunk = 1024
+	}
+	if cfg.Hi < cfg.Lo {
+		panic("fmo: engineRun with Hi < Lo")
+	}
+	if cfg.Ranked {
+		return engineRanked(ctx, job, cfg, emit, fail)
+	}
+	return engineStream(ctx, job, cfg, emit, fail)
+}
+
+// chunkOf returns the index range of chunk c.
+func (cfg *engineConfig) chunkOf(c int64) (lo, hi int64) {
+	lo = cfg.Lo + c*int64(cfg.Chunk)
+	return lo, min(lo+int64(cfg.Chunk), cfg.Hi)
+}
+
+func (cfg *engineConfig) chunks() int64 {
+	return (cfg.Hi - cfg.Lo + int64(cfg.Chunk) - 1) / int64(cfg.Chunk)
+}
+
+// engineRanked: phase 1 scores every pair with per-worker selections (a top-K heap, or all
+// passing records when Top is 0), phase 2 merges them and runs the full analysis of the
+// selected rows in parallel, emitting in rank order.
+func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
+	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	var st engineStats
+	nChunks := cfg.chunks()
+	var next atomic.Int64
+	type local struct {
+		heap                    topK
+		all                     []scored
+		scoredN, missing, passN int64
+	}
+	locals := make([]local, cfg.Workers)
+	var wg sync.WaitGroup
+	for w := range cfg.Workers {
+		locals[w].heap.k = cfg.Top
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			loc := &locals[w]
+			for {
+				c := next.Add(1) - 1
+				if c >= nChunks || ctx.Err() != nil {
+					return
+				}
+				lo, hi := cfg.chunkOf(c)
+				for k := lo; k < hi; k++ {
+					key, pass, ok := job.score(w, k)
+					if !ok {
+						loc.missing++
+						continue
+					}
+					loc.scoredN++
+					if !pass {
+						continue
+					}
+					loc.passN++
+					if cfg.Top > 0 {
+						loc.heap.offer(scored{key, k})
+					} else {
+						loc.all = append(loc.all, scored{key, k})
+					}
+				}
+				if cfg.Progress != nil {
+					cfg.Progress(hi - lo)
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	var sel []scored
+	for i := range locals {
+		st.Scored += locals[i].scoredN
+		st.Missing += locals[i].missing
+		st.Passed += locals[i].passN
+		sel = append(sel, locals[i].heap.h...)
+		sel = append(sel, locals[i].all...)
+		locals[i] = local{}
+	}
+	if err := ctx.Err(); err != nil {
+		st.Canceled = true
+		return st, err
+	}
+	slices.SortFunc(sel, compareScored)
+	if cfg.Top > 0 && len(sel) > cfg.Top {
+		sel = sel[:cfg.Top]
+	}
+	// Phase 2: full analysis of the selected rows, in windows so memory stays bounded.
+	window := max(cfg.Workers*64, 256)
+	rank := int64(0)
+	out := make([]*Pair, window)
+	errs := make([]error, window)
+	for start := 0; start < len(sel); start += window {
+		if err := ctx.Err(); err != nil {
+			st.Canceled = true
+			return st, err
+		}
+		part := sel[start:min(start+window, len(sel))]
+		var nextIdx atomic.Int64
+		var wg sync.WaitGroup
+		for w := range min(cfg.Workers, len(part)) {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for {
+					i := int(nextIdx.Add(1) - 1)
+					if i >= len(part) {
+						return
+					}
+					out[i], errs[i] = job.analyze(w, part[i].k)
+				}
+			}()
+		}
+		wg.Wait()
+		for i, s := range part {
+			if errs[i] != nil {
+				st.Failed++
+				fail(pairFailure{K: s.k, Err: errs[i]})
+				continue
+			}
+			rank++
+			st.Emitted++
+			if err := emit(rank, s.k, out[i]); err != nil {
+				return st, err
+			}
+			out[i], errs[i] = nil, nil
+		}
+	}
+	return st, nil
+}
+
+// chunkResult is one scored chunk of the unranked stream.
+type chunkResult struct {
+	c       int64
+	ks      []int64
+	pairs   []*Pair
+	errs    []error
+	scoredN int64
+	missing int64
+	passN   int64
+}
+
+// engineStream scores and fully analyses chunks in parallel and emits them strictly in index
+// order. At most 2·Workers chunks are in flight, so memory is bounded by the chunk size, not
+// by the number of pairs.
+func engineStream(ctx context.Context, job screenJob, cfg engineConfig,
+	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	var st engineStats
+	nChunks := cfg.chunks()
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	inFlight := make(chan struct{}, 2*cfg.Workers) // tokens: a worker takes one per chunk
+	results := make(chan *chunkResult, 2*cfg.Workers)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := range cfg.Workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				select {
+				case inFlight <- struct{}{}:
+				case <-ctx.Done():
+					return
+				}
+				c := next.Add(1) - 1
+				if c >= nChunks {
+					<-inFlight
+					return
+				}
+				lo, hi := cfg.chunkOf(c)
+				r := &chunkResult{c: c}
+				for k := lo; k < hi; k++ {
+					_, pass, ok := job.score(w, k)
+					if !ok {
+						r.missing++
+						continue
+					}
+					r.scoredN++
+					if !pass {
+						continue
+					}
+					r.passN++
+					p, err := job.analyze(w, k)
+					r.ks = append(r.ks, k)
+					r.pairs = append(r.pairs, p)
+					r.errs = append(r.errs, err)
+				}
+				if cfg.Progress != nil {
+					cfg.Progress(hi - lo)
+				}
+				select {
+				case results <- r:
+				case <-ctx.Done():
+					<-inFlight
+					return
+				}
+			}
+		}()
+	}
+	go func() { wg.Wait(); close(results) }()
+
+	pending := map[int64]*chunkResult{}
+	want := int64(0)
+	var runErr error
+	emitted := int64(0)
+	for r := range results {
+		pending[r.c] = r
+		for runErr == nil {
+			cr, ok := pending[want]
+			if !ok {
+				break
+			}
+			delete(pending, want)
+			want++
+			st.Scored += cr.scoredN
+			st.Missing += cr.missing
+			st.Passed += cr.passN
+			for i, k := range cr.ks {
+				if cr.errs[i] != nil {
+					st.Failed++
+					fail(pairFailure{K: k, Err: cr.errs[i]})
+					continue
+				}
+				if cfg.Top > 0 && emitted >= int64(cfg.Top) {
+					continue
+				}
+				emitted++
+				st.Emitted++
+				if err := emit(k+1, k, cr.pairs[i]); err != nil {
+					runErr = err
+					cancel()
+					break
+				}
+			}
+			<-inFlight
+			if cfg.Top > 0 && emitted >= int64(cfg.Top) && runErr == nil {
+				// Enough rows: stop scoring (the counts then cover the pairs looked at).
+				cancel()
+			}
+		}
+	}
+	if runErr != nil {
+		return st, runErr
+	}
+	if cfg.Top > 0 && emitted >= int64(cfg.Top) {
+		return st, nil
+	}
+	if err := ctx.Err(); err != nil || want < nChunks {
+		st.Canceled = true
+		if err == nil {
+			err = context.Canceled
+		}
+		return st, err
+	}
+	return st, nil
+}
