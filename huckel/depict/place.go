@@ -1,0 +1,785 @@
+package depict
+
+import (
+	"math"
+	"slices"
+
+	"cyclopair/huckel/molecule"
+)
+
+// layouter holds the state of one Layout call.
+type layouter struct {
+	g      *graph
+	m      *molecule.Molecule
+	pos    []Point
+	placed []bool
+	turn   []int8 // zig-zag turn sign used when leaving an atom (+1 left, −1 right, 0 unset)
+	rings  [][]int
+
+	systems  []*ringSystem
+	systemOf []int // atom → ring system index, −1 for chain atoms
+}
+
+// ringSystem is a set of rings connected through shared atoms, laid out as one rigid block.
+type ringSystem struct {
+	atoms []int         // sorted
+	rings [][]int       // SSSR rings of the system
+	local map[int]Point // block coordinates (only looked up, never iterated)
+}
+
+func (l *layouter) buildSystems() {
+	n := l.g.n
+	l.systemOf = make([]int, n)
+	for i := range l.systemOf {
+		l.systemOf[i] = -1
+	}
+	// union-find over rings sharing an atom
+	parent := make([]int, len(l.rings))
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	owner := make([]int, n)
+	for i := range owner {
+		owner[i] = -1
+	}
+	for ri, r := range l.rings {
+		for _, a := range r {
+			if owner[a] >= 0 {
+				x, y := find(owner[a]), find(ri)
+				if x != y {
+					if x < y {
+						parent[y] = x
+					} else {
+						parent[x] = y
+					}
+				}
+			} else {
+				owner[a] = ri
+			}
+		}
+	}
+	sysIndex := map[int]int{} // root ring → system; looked up only
+	for ri := range l.rings {
+		root := find(ri)
+		si, ok := sysIndex[root]
+		if !ok {
+			si = len(l.systems)
+			sysIndex[root] = si
+			l.systems = append(l.systems, &ringSystem{})
+		}
+		s := l.systems[si]
+		s.rings = append(s.rings, l.rings[ri])
+		for _, a := range l.rings[ri] {
+			if l.systemOf[a] < 0 {
+				l.systemOf[a] = si
+				s.atoms = append(s.atoms, a)
+			}
+		}
+	}
+	for _, s := range l.systems {
+		slices.Sort(s.atoms)
+		s.local = l.layoutSystem(s)
+	}
+}
+
+// layoutComponent places every atom of one connected component.
+func (l *layouter) layoutComponent(comp []int) {
+	// Root: the largest ring system in the component, else one end of the longest chain.
+	root := -1
+	best := 0
+	for _, a := range comp {
+		if si := l.systemOf[a]; si >= 0 && len(l.systems[si].atoms) > best {
+			best = len(l.systems[si].atoms)
+			root = a
+		}
+	}
+	var queue []int
+	if root >= 0 {
+		s := l.systems[l.systemOf[root]]
+		for _, a := range s.atoms {
+			l.pos[a] = s.local[a]
+			l.placed[a] = true
+			queue = append(queue, a)
+		}
+	} else {
+		start := l.chainEnd(comp)
+		l.pos[start] = Point{}
+		l.placed[start] = true
+		l.turn[start] = -1
+		queue = append(queue, start)
+	}
+	for len(queue) > 0 {
+		v := queue[0]
+		queue = queue[1:]
+		queue = append(queue, l.expand(v)...)
+	}
+}
+
+// chainEnd returns one end of a longest shortest path in a ring-free component (two BFS).
+func (l *layouter) chainEnd(comp []int) int {
+	far := func(s int) int {
+		dist := map[int]int{s: 0} // looked up only
+		q := []int{s}
+		last := s
+		for len(q) > 0 {
+			v := q[0]
+			q = q[1:]
+			if dist[v] > dist[last] || (dist[v] == dist[last] && v < last) {
+				last = v
+			}
+			for _, w := range l.g.adj[v] {
+				if _, ok := dist[w]; !ok {
+					dist[w] = dist[v] + 1
+					q = append(q, w)
+				}
+			}
+		}
+		return last
+	}
+	a := far(comp[0])
+	b := far(a)
+	return min(a, b)
+}
+
+// isLinear reports whether atom v should have its two bonds collinear: a triple bond or two
+// cumulated double bonds (allene, ketene, azide, CO2).
+func (l *layouter) isLinear(v int) bool {
+	doubles := 0
+	for k := range l.g.adj[v] {
+		switch l.g.order[l.g.bondOf[v][k]] {
+		case 3:
+			return true
+		case 2:
+			doubles++
+		}
+	}
+	return doubles >= 2 && len(l.g.adj[v]) == 2
+}
+
+// expand places the unplaced neighbours of placed atom v and returns the atoms newly placed.
+func (l *layouter) expand(v int) []int {
+	var placedDirs []Point
+	var todo []int
+	for _, w := range l.g.adj[v] {
+		if l.placed[w] {
+			placedDirs = append(placedDirs, l.pos[w].sub(l.pos[v]).unit())
+		} else {
+			todo = append(todo, w)
+		}
+	}
+	if len(todo) == 0 {
+		return nil
+	}
+	// heaviest branch first: it takes the zig-zag continuation
+	size := make([]int, len(todo))
+	for i, w := range todo {
+		size[i] = l.branchSize(v, w)
+	}
+	idx := make([]int, len(todo))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(a, b int) int { return size[b] - size[a] })
+	ordered := make([]int, len(todo))
+	for i, k := range idx {
+		ordered[i] = todo[k]
+	}
+	todo = ordered
+
+	dirs := l.directions(v, placedDirs, len(todo))
+	var out []int
+	for i, w := range todo {
+		d := dirs[i]
+		out = append(out, l.attach(v, w, d)...)
+	}
+	return out
+}
+
+// directions chooses len = k unit vectors for new bonds from v, given the unit vectors to the
+// neighbours already placed.
+func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
+	out := make([]Point, 0, k)
+	switch len(placedDirs) {
+	case 0:
+		base := Point{1, 0}.rotDeg(30)
+		if k == 1 {
+			return []Point{base}
+		}
+		for i := 0; i < k; i++ {
+			out = append(out, base.rotDeg(360*float64(i)/float64(k)))
+		}
+		return out
+	case 1:
+		in := placedDirs[0].scale(-1) // direction of travel into v
+		if k == 1 {
+			if l.isLinear(v) {
+				return []Point{in}
+			}
+			p := l.parentOf(v)
+			s := int8(1)
+			if p >= 0 && l.turn[p] != 0 {
+				s = -l.turn[p]
+			}
+			cand := in.rotDeg(60 * float64(s))
+			alt := in.rotDeg(-60 * float64(s))
+			if l.crowding(l.pos[v].add(cand)) > l.crowding(l.pos[v].add(alt))+1e-9 {
+				cand, s = alt, -s
+			}
+			l.turn[v] = s
+			return []Point{cand}
+		}
+		for i := 0; i < k; i++ {
+			ang := -180 + 360*float64(i+1)/float64(k+1)
+			out = append(out, in.rotDeg(ang))
+		}
+		return out
+	}
+	// two or more placed: spread the new bonds evenly in the widest free angular gap
+	angs := make([]float64, len(placedDirs))
+	for i, d := range placedDirs {
+		angs[i] = math.Atan2(d.Y, d.X)
+	}
+	slices.Sort(angs)
+	bestGap, bestStart := -1.0, 0.0
+	for i := range angs {
+		a, b := angs[i], angs[(i+1)%len(angs)]
+		gap := b - a
+		if i == len(angs)-1 {
+			gap += 2 * math.Pi
+		}
+		if gap > bestGap+1e-9 {
+			bestGap, bestStart = gap, a
+		}
+	}
+	for i := 0; i < k; i++ {
+		a := bestStart + bestGap*float64(i+1)/float64(k+1)
+		out = append(out, Point{math.Cos(a), math.Sin(a)})
+	}
+	return out
+}
+
+// parentOf returns a placed neighbour of v (the one it was reached from in chains).
+func (l *layouter) parentOf(v int) int {
+	for _, w := range l.g.adj[v] {
+		if l.placed[w] {
+			return w
+		}
+	}
+	return -1
+}
+
+// crowding is a clash score of a trial position against every placed atom.
+func (l *layouter) crowding(p Point) float64 {
+	s := 0.0
+	for i, ok := range l.placed {
+		if !ok {
+			continue
+		}
+		if d := p.dist(l.pos[i]); d < 1.2 {
+			s += (1.2 - d) * (1.2 - d)
+		}
+	}
+	return s
+}
+
+// branchSize counts the atoms reachable from w without passing through v.
+func (l *layouter) branchSize(v, w int) int {
+	seen := map[int]bool{v: true, w: true} // looked up only
+	q := []int{w}
+	n := 0
+	for len(q) > 0 {
+		x := q[0]
+		q = q[1:]
+		n++
+		for _, y := range l.g.adj[x] {
+			if !seen[y] && !l.placed[y] {
+				seen[y] = true
+				q = append(q, y)
+			}
+		}
+	}
+	return n
+}
+
+// attach places w bonded to v in direction d; a ring atom brings its whole ring system.
+func (l *layouter) attach(v, w int, d Point) []int {
+	si := l.systemOf[w]
+	if si < 0 {
+		l.pos[w] = l.pos[v].add(d)
+		l.placed[w] = true
+		return []int{w}
+	}
+	s := l.systems[si]
+	// In block coordinates, w's outward direction points away from its ring neighbours; turn
+	// the block so that direction points back at v.
+	var in Point
+	for _, x := range l.g.adj[w] {
+		if l.systemOf[x] == si {
+			in = in.add(s.local[x].sub(s.local[w]).unit())
+		}
+	}
+	out := in.scale(-1).unit()
+	if in.norm() < 1e-9 {
+		out = Point{1, 0}
+	}
+	target := d.scale(-1)
+	ang := math.Atan2(target.Y, target.X) - math.Atan2(out.Y, out.X)
+	co, sn := math.Cos(ang), math.Sin(ang)
+	anchor := l.pos[v].add(d)
+	try := func(mirror bool) map[int]Point {
+		t := make(map[int]Point, len(s.atoms))
+		for _, a := range s.atoms {
+			p := s.local[a].sub(s.local[w]).rot(co, sn) // w at origin, outward along target
+			if mirror {                                 // reflect across the axis through w along d
+				u := d
+				proj := u.scale(p.dot(u))
+				p = proj.scale(2).sub(p)
+			}
+			t[a] = anchor.add(p)
+		}
+		return t
+	}
+	a0, a1 := try(false), try(true)
+	score := func(t map[int]Point) float64 {
+		sc := 0.0
+		for _, a := range s.atoms {
+			sc += l.crowding(t[a])
+		}
+		return sc
+	}
+	chosen := a0
+	if score(a1) < score(a0)-1e-9 {
+		chosen = a1
+	}
+	placedNow := []int{w}
+	for _, a := range s.atoms {
+		l.pos[a] = chosen[a]
+		l.placed[a] = true
+		if a != w {
+			placedNow = append(placedNow, a)
+		}
+	}
+	return placedNow
+}
+
+// layoutSystem lays out one ring system in its own frame. For bridged systems several ring
+// orders are tried and the one with the fewest clashes and bond distortions is kept.
+func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
+	rings := s.rings
+	bridged := false
+	for i := range rings {
+		for j := i + 1; j < len(rings); j++ {
+			if sharedCount(rings[i], rings[j]) > 2 {
+				bridged = true
+			}
+		}
+	}
+	if !bridged {
+		pos, sc := l.placeRings(s, rings, 0)
+		if sc < 1e-9 {
+			return pos
+		}
+		// fused polygons that collide (a cage such as cubane, or a helicene) go on below
+	}
+	// add envelopes (symmetric differences of ring pairs that form a simple cycle): the
+	// outer ring of a bicyclo[2.2.1] system drawn as a hexagon with a bridge across it
+	all := slices.Clone(rings)
+	for i := range rings {
+		for j := i + 1; j < len(rings); j++ {
+			if sharedCount(rings[i], rings[j]) >= 2 {
+				if env := l.envelope(rings[i], rings[j]); env != nil {
+					all = append(all, env)
+				}
+			}
+		}
+	}
+	var bestPos map[int]Point
+	bestScore := math.Inf(1)
+	limit := min(len(all), 16)
+	var starts []map[int]Point
+	for start := 0; start < limit; start++ {
+		pos, sc := l.placeRings(s, all, start)
+		starts = append(starts, pos)
+		if sc < bestScore-1e-9 {
+			bestPos, bestScore = pos, sc
+		}
+	}
+	if bestScore < 1e-9 || len(s.atoms) > maxRelaxAtoms {
+		return bestPos
+	}
+	// No construction drew the cage cleanly (bicyclo[2.2.2], adamantane, cubane): relax each
+	// start with springs and keep the best result.
+	for _, pos := range starts {
+		l.relaxBlock(s, pos)
+		if sc := l.blockScore(s, pos); sc < bestScore-1e-9 {
+			bestPos, bestScore = pos, sc
+		}
+	}
+	return bestPos
+}
+
+// maxRelaxAtoms bounds the ring systems that get the spring relaxation (quadratic per step).
+const maxRelaxAtoms = 40
+
+// relaxBlock moves the atoms of a bridged ring system by gradient descent on an energy with
+// unit-length bond springs and a short-range repulsion between non-bonded atoms. Start points
+// that coincide are pulled apart by fixed, index-dependent offsets (no randomness).
+func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point) {
+	at := s.atoms
+	n := len(at)
+	p := make([]Point, n)
+	for i, a := range at {
+		p[i] = pos[a]
+	}
+	for i := range p {
+		for j := 0; j < i; j++ {
+			if p[i].dist(p[j]) < 1e-3 {
+				p[i] = p[i].add(Point{0.11 * float64(1+i%3), -0.07 * float64(1+i%2)})
+			}
+		}
+	}
+	bonded := make([]bool, n*n)
+	for i, a := range at {
+		for j, b := range at {
+			bonded[i*n+j] = l.g.bondIndex(a, b) >= 0
+		}
+	}
+	f := make([]Point, n)
+	const step = 0.05
+	for it := 0; it < 4000; it++ {
+		clear(f)
+		for i := 0; i < n; i++ {
+			for j := i + 1; j < n; j++ {
+				d := p[j].sub(p[i])
+				r := d.norm()
+				if r < 1e-9 {
+					d, r = Point{1e-3, 1e-3 * float64(j-i)}, 1e-3
+				}
+				u := d.scale(1 / r)
+				var g float64 // force along u on j (negative pulls together)
+				if bonded[i*n+j] {
+					g = -6 * (r - 1)
+				} else if r < 1.0 {
+					g = 1.0 * (1.0 - r)
+				}
+				f[j] = f[j].add(u.scale(g))
+				f[i] = f[i].sub(u.scale(g))
+			}
+		}
+		for i := range p {
+			p[i] = p[i].add(f[i].scale(step))
+		}
+	}
+	for i, a := range at {
+		pos[a] = p[i]
+	}
+}
+
+func sharedCount(a, b []int) int {
+	n := 0
+	for _, x := range a {
+		if slices.Contains(b, x) {
+			n++
+		}
+	}
+	return n
+}
+
+// envelope returns the cycle formed by the bonds in exactly one of rings a and b, or nil if
+// that set is not one simple cycle.
+func (l *layouter) envelope(a, b []int) []int {
+	type e struct{ x, y int }
+	edges := func(r []int) []e {
+		var out []e
+		for i, x := range r {
+			y := r[(i+1)%len(r)]
+			out = append(out, e{min(x, y), max(x, y)})
+		}
+		return out
+	}
+	ea, eb := edges(a), edges(b)
+	var sym []e
+	for _, x := range ea {
+		if !slices.Contains(eb, x) {
+			sym = append(sym, x)
+		}
+	}
+	for _, x := range eb {
+		if !slices.Contains(ea, x) {
+			sym = append(sym, x)
+		}
+	}
+	if len(sym) < 3 {
+		return nil
+	}
+	// walk the cycle
+	nb := func(v int) []int {
+		var out []int
+		for _, x := range sym {
+			if x.x == v {
+				out = append(out, x.y)
+			} else if x.y == v {
+				out = append(out, x.x)
+			}
+		}
+		return out
+	}
+	start := sym[0].x
+	cyc := []int{start}
+	prev, cur := -1, start
+	for {
+		ns := nb(cur)
+		if len(ns) != 2 {
+			return nil
+		}
+		next := ns[0]
+		if next == prev {
+			next = ns[1]
+		}
+		if next == start {
+			break
+		}
+		if slices.Contains(cyc, next) {
+			return nil
+		}
+		cyc = append(cyc, next)
+		prev, cur = cur, next
+	}
+	if len(cyc) != len(sym) {
+		return nil
+	}
+	return canonicalRing(cyc)
+}
+
+// placeRings places the rings of a system starting from rings[start] and returns the block
+// coordinates and a badness score (clashes and bond-length errors).
+func (l *layouter) placeRings(s *ringSystem, rings [][]int, start int) (map[int]Point, float64) {
+	pos := make(map[int]Point, len(s.atoms)) // looked up only; iteration below is over s.atoms
+	has := func(a int) bool { _, ok := pos[a]; return ok }
+	// first ring: a regular polygon with a flat bottom edge
+	r0 := rings[start]
+	n := len(r0)
+	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
+	for k, a := range r0 {
+		ang := -math.Pi/2 - math.Pi/float64(n) + 2*math.Pi*float64(k)/float64(n)
+		pos[a] = Point{rad * math.Cos(ang), rad * math.Sin(ang)}
+	}
+	done := make([]bool, len(rings))
+	done[start] = true
+	for {
+		// next ring: most placed atoms first (fused and bridged before spiro), then size, index
+		pick, pickPlaced := -1, 0
+		for i, r := range rings {
+			if done[i] {
+				continue
+			}
+			np := 0
+			for _, a := range r {
+				if has(a) {
+					np++
+				}
+			}
+			if np == len(r) {
+				done[i] = true
+				continue
+			}
+			if np == 0 {
+				continue
+			}
+			better := pick < 0 || np >= 2 && pickPlaced < 2 ||
+				(np >= 2) == (pickPlaced >= 2) && len(r) < len(rings[pick])
+			if better {
+				pick, pickPlaced = i, np
+			}
+		}
+		if pick < 0 {
+			break
+		}
+		r := rings[pick]
+		done[pick] = true
+		if pickPlaced == 1 {
+			l.placeSpiro(pos, r)
+			continue
+		}
+		// place every maximal run of unplaced atoms between two placed atoms on an arc
+		nr := len(r)
+		for k := 0; k < nr; k++ {
+			if !has(r[k]) || has(r[(k+1)%nr]) {
+				continue
+			}
+			var run []int
+			j := (k + 1) % nr
+			for !has(r[j]) {
+				run = append(run, r[j])
+				j = (j + 1) % nr
+			}
+			placeArc(pos, s.atoms, r[k], r[j], run)
+		}
+	}
+	// atoms of the system not reached (cannot happen for a connected system) get a fallback
+	for _, a := range s.atoms {
+		if !has(a) {
+			pos[a] = Point{float64(a), 3}
+		}
+	}
+	return pos, l.blockScore(s, pos)
+}
+
+// placeSpiro places ring r, of which exactly one atom is placed, as a regular polygon on the
+// far side of that atom.
+func (l *layouter) placeSpiro(pos map[int]Point, r []int) {
+	k0 := 0
+	for k, a := range r {
+		if _, ok := pos[a]; ok {
+			k0 = k
+		}
+	}
+	a := r[k0]
+	var in Point
+	for _, w := range l.g.adj[a] {
+		if p, ok := pos[w]; ok {
+			in = in.add(p.sub(pos[a]).unit())
+		}
+	}
+	out := in.scale(-1).unit()
+	n := len(r)
+	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
+	c := pos[a].add(out.scale(rad))
+	base := math.Atan2(-out.Y, -out.X) // angle of a seen from the centre
+	for i := 1; i < n; i++ {
+		ang := base + 2*math.Pi*float64(i)/float64(n)
+		pos[r[(k0+i)%n]] = c.add(Point{rad * math.Cos(ang), rad * math.Sin(ang)})
+	}
+}
+
+// placeArc puts the atoms of run (bonded in sequence a–run[0]–…–run[m−1]–b) on a circular arc
+// through a and b with every bond of length 1, bulging to the side with fewer clashes. When a
+// and b are too far apart for the run, the atoms go on the straight line (bonds stretched).
+func placeArc(pos map[int]Point, atoms []int, a, b int, run []int) {
+	pa, pb := pos[a], pos[b]
+	m := len(run)
+	segs := float64(m + 1)
+	d := pa.dist(pb)
+	u := pb.sub(pa).unit()
+	nrm := Point{-u.Y, u.X}
+	mid := pa.add(pb).scale(0.5)
+	var sides [2][]Point
+	for si, sgn := range []float64{1, -1} {
+		pts := make([]Point, m)
+		if d >= segs-1e-9 || d < 1e-9 {
+			for i := range pts {
+				t := float64(i+1) / segs
+				pts[i] = pa.add(pb.sub(pa).scale(t))
+				if d < 1e-9 {
+					pts[i] = pa.add(nrm.scale(sgn * float64(i+1)))
+				}
+			}
+			sides[si] = pts
+			continue
+		}
+		// total angle Φ with sin(Φ/2)/sin(Φ/(2(m+1))) = d: the left side decreases on (0, 2π)
+		lo, hi := 1e-9, 2*math.Pi-1e-9
+		f := func(phi float64) float64 { return math.Sin(phi/2)/math.Sin(phi/(2*segs)) - d }
+		for it := 0; it < 100; it++ {
+			midPhi := (lo + hi) / 2
+			if f(midPhi) > 0 {
+				lo = midPhi
+			} else {
+				hi = midPhi
+			}
+		}
+		phi := (lo + hi) / 2
+		R := 1 / (2 * math.Sin(phi/(2*segs)))
+		w := nrm.scale(sgn)
+		centre := mid.sub(w.scale(R * math.Cos(phi/2)))
+		step := phi / segs
+		// rotate a about the centre towards the bulge side
+		va := pa.sub(centre)
+		dirSign := 1.0
+		apex := mid.add(w.scale(R - R*math.Cos(phi/2)))
+		if va.rot(math.Cos(phi/2), math.Sin(phi/2)).add(centre).dist(apex) >
+			va.rot(math.Cos(-phi/2), math.Sin(-phi/2)).add(centre).dist(apex) {
+			dirSign = -1
+		}
+		for i := range pts {
+			t := dirSign * step * float64(i+1)
+			pts[i] = va.rot(math.Cos(t), math.Sin(t)).add(centre)
+		}
+		sides[si] = pts
+	}
+	score := func(pts []Point) float64 {
+		s := 0.0
+		for _, p := range pts {
+			for _, x := range atoms {
+				if q, ok := pos[x]; ok {
+					if dd := p.dist(q); dd < 1.2 {
+						s += (1.2 - dd) * (1.2 - dd)
+					}
+				}
+			}
+		}
+		return s
+	}
+	choice := sides[0]
+	s0, s1 := score(sides[0]), score(sides[1])
+	if s1 < s0-1e-9 {
+		choice = sides[1]
+	} else if math.Abs(s1-s0) <= 1e-9 {
+		// tie: away from the centroid of what is placed
+		var c Point
+		k := 0
+		for _, x := range atoms {
+			if q, ok := pos[x]; ok {
+				c = c.add(q)
+				k++
+			}
+		}
+		c = c.scale(1 / float64(k))
+		if len(sides[1]) > 0 && meanDist(sides[1], c) > meanDist(sides[0], c)+1e-9 {
+			choice = sides[1]
+		}
+	}
+	for i, x := range run {
+		pos[x] = choice[i]
+	}
+}
+
+func meanDist(pts []Point, c Point) float64 {
+	s := 0.0
+	for _, p := range pts {
+		s += p.dist(c)
+	}
+	return s / float64(len(pts))
+}
+
+// blockScore is the badness of a ring-system layout: close contacts plus bond-length errors.
+func (l *layouter) blockScore(s *ringSystem, pos map[int]Point) float64 {
+	sc := 0.0
+	for i, a := range s.atoms {
+		for _, b := range s.atoms[i+1:] {
+			if l.g.bondIndex(a, b) >= 0 {
+				dev := math.Abs(pos[a].dist(pos[b]) - 1)
+				sc += 10 * dev * dev
+				if dev > 0.1 {
+					sc += 5
+				}
+				continue
+			}
+			if d := pos[a].dist(pos[b]); d < 0.8 {
+				sc += (0.8 - d) * (0.8 - d) * 10
+				if d < 0.5 {
+					sc += 5
+				}
+			}
+		}
+	}
+	return sc
+}
