@@ -29,6 +29,15 @@ func Write(m *molecule.Molecule) string {
 	return w.write()
 }
 
+// writeOrder is Write that also returns the atoms in the order they were written, so
+// order[k] is the index in m of the k-th atom of the output.
+func writeOrder(m *molecule.Molecule) (string, []int) {
+	w := newWriter(m)
+	w.order = make([]int, 0, len(m.Atoms))
+	s := w.write()
+	return s, w.order
+}
+
 type writer struct {
 	m        *molecule.Molecule
 	b        strings.Builder
@@ -37,7 +46,7 @@ type writer struct {
 	rings    [][]int           // ring-closure bonds at each atom, in discovery order
 	digit    []int             // digit of each ring-closure bond while open, 0 otherwise
 	inUse    []bool            // ring numbers in use (index = number)
-	nbuf     []molecule.Edge
+	order    []int // atoms in output order, when asked for
 }
 
 func newWriter(m *molecule.Molecule) *writer {
@@ -112,6 +121,9 @@ func (w *writer) emit(v, from, inBond int) {
 		w.bondSymbol(inBond, from)
 	}
 	w.atom(v)
+	if w.order != nil {
+		w.order = append(w.order, v)
+	}
 	// closures first (their numbers were given out at the opening atom), then openings
 	var closed [8]int
 	freed := closed[:0]
