@@ -46,7 +46,7 @@ type writer struct {
 	rings    [][]int           // ring-closure bonds at each atom, in discovery order
 	digit    []int             // digit of each ring-closure bond while open, 0 otherwise
 	inUse    []bool            // ring numbers in use (index = number)
-	order    []int // atoms in output order, when asked for
+	order    []int             // atoms in output order, when asked for
 }
 
 func newWriter(m *molecule.Molecule) *writer {
