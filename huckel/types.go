@@ -34,7 +34,80 @@ const (
 	Iodo      CentreType = "I"       // 2 e
 	Boron     CentreType = "B"       // trigonal boron, 0 e
 	Alkyl     CentreType = "Me"      // sp3 carbon treated by the hyperconjugative heteroatom model, 2 e
+
+	// Added by the perception step (see perceive.go for the rules).
+	NSpCation CentreType = "N+#"    // sp N+: azide/diazo middle N, nitrile-oxide/diazonium N+, 1 e
+	NAnion    CentreType = "N-"     // N− lone pair, 2 e (azide/diazo terminal N, amide anions)
+	ONitro    CentreType = "Onitro" // nitro-group O (both O share one h; 1 e for =O, 2 e for O−)
 )
+
+// AllCentreTypes lists every CentreType in a fixed order (the order of parameter tables).
+var AllCentreTypes = []CentreType{
+	CSp2, CCation, CAnion, CSp, NPyridine, NPyrrole, NIminium, NNitro, NNitrile, NAmmonioA,
+	NSpCation, NAnion, OCarbonyl, OEther, OOxonium, OLewis, OAnion, ONitro, SThio, SThione,
+	Fluoro, Chloro, Bromo, Iodo, Boron, Alkyl,
+}
+
+// typeIndex maps a CentreType to its position in AllCentreTypes, -1 if unknown.
+func typeIndex(t CentreType) int {
+	switch t {
+	case CSp2:
+		return 0
+	case CCation:
+		return 1
+	case CAnion:
+		return 2
+	case CSp:
+		return 3
+	case NPyridine:
+		return 4
+	case NPyrrole:
+		return 5
+	case NIminium:
+		return 6
+	case NNitro:
+		return 7
+	case NNitrile:
+		return 8
+	case NAmmonioA:
+		return 9
+	case NSpCation:
+		return 10
+	case NAnion:
+		return 11
+	case OCarbonyl:
+		return 12
+	case OEther:
+		return 13
+	case OOxonium:
+		return 14
+	case OLewis:
+		return 15
+	case OAnion:
+		return 16
+	case ONitro:
+		return 17
+	case SThio:
+		return 18
+	case SThione:
+		return 19
+	case Fluoro:
+		return 20
+	case Chloro:
+		return 21
+	case Bromo:
+		return 22
+	case Iodo:
+		return 23
+	case Boron:
+		return 24
+	case Alkyl:
+		return 25
+	}
+	return -1
+}
+
+const numTypes = 26
 
 // Centre is one π centre.
 type Centre struct {
@@ -44,6 +117,11 @@ type Centre struct {
 	H         float64    // Coulomb parameter h: α_X = α + h·β
 	Electrons int        // π electrons contributed (0, 1 or 2)
 	Fragment  int        // which separate π system (0-based) the centre belongs to
+	// FormalCharge is the atom's formal charge in the input. π charges are computed as
+	// Electrons + FormalCharge − π population: the net charge of the centre over its σ
+	// framework, so that the Kekulé form chosen does not matter (both nitro oxygens, both
+	// ends of an allyl cation get the same charge).
+	FormalCharge int
 }
 
 // PiBond is a resonance integral between two π centres: β_XY = k·β.
@@ -62,6 +140,9 @@ type PiSystem struct {
 	AtomCentre []int    // atom index -> centre index, -1 for atoms outside every π system
 	Fragments  [][]int  // centre indices of each separate π system, in centre order
 	Warnings   []string // e.g. "312 π centres: dense diagonalisation is O(n³)"
+	// Omega is the ω-technique constant used by Solve (0 = off); Perceive copies it from
+	// Params.Omega. With ω ≠ 0 Solve iterates h_i = h_i⁰ + ω·q_i to self-consistency.
+	Omega float64
 }
 
 // Level is one molecular orbital, E = α + X·β (β < 0, so bonding levels have X > 0).
@@ -81,8 +162,18 @@ type Orbitals struct {
 	LUMO       int       // index into Levels of the lowest unoccupied level, -1 if none
 	SOMO       int       // index of a singly occupied level for odd electron counts, -1 otherwise
 	Electrons  int       // total π electrons
-	Charges    []float64 // π charge per centre: electrons contributed minus π population
+	Charges    []float64 // π charge per centre: Electrons + FormalCharge − π population
 	BondOrders []float64 // Coulson π bond orders, n×n row-major over centres
 	PiEnergy   float64   // total π energy Σ n_j·X_j, in units of β (E_π = Nα + PiEnergy·β)
 	Warnings   []string
+	// Partial is true when a frontier shell is partly filled: an odd electron count (SOMO)
+	// or a degenerate set holding fewer than 2·d electrons (equal fractional occupancy).
+	Partial bool
+	// H holds the Coulomb parameters actually used, one per centre: the perceived h, or
+	// the self-consistent values when the ω-technique is on.
+	H []float64
+	// Iterations is the number of ω-technique cycles (0 when ω is off).
+	Iterations int
+
+	coef []float64 // backing store of Levels[*].Coeffs, reused by Solver
 }

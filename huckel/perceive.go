@@ -1,0 +1,603 @@
+package huckel
+
+import (
+	"errors"
+	"fmt"
+	"slices"
+
+	"cyclopair/huckel/molecule"
+)
+
+// Errors returned by Perceive (wrapped in a *PerceiveError that names the atom).
+var (
+	// ErrNoParameter: an atom was typed, but the parameter set has no h for its type or
+	// no k for one of its π bonds.
+	ErrNoParameter = errors.New("missing Hückel parameter")
+	// ErrUnsupported: an atom in or next to the π system has a bonding situation the
+	// perception rules do not cover (carbene, unusual charge or valence).
+	ErrUnsupported = errors.New("unsupported π centre")
+)
+
+// PerceiveError names the atom (0-based index in the input) at fault.
+type PerceiveError struct {
+	Atom  int    // atom index
+	Label string // element with formal charge, e.g. "N+"
+	Msg   string // what is wrong, with a hint
+	Err   error  // ErrNoParameter or ErrUnsupported
+}
+
+func (e *PerceiveError) Error() string {
+	return fmt.Sprintf("atom %d (%s): %s", e.Atom, e.Label, e.Msg)
+}
+
+func (e *PerceiveError) Unwrap() error { return e.Err }
+
+// LargeSystemWarn is the π-centre count above which Perceive warns: gonum has no subset or
+// sparse eigensolver, so every solve is a dense O(n³) diagonalisation (about 6 s with
+// vectors at n = 1000 on the project's 2-core machine).
+const LargeSystemWarn = 300
+
+// atom roles during perception
+const (
+	roleNone     = iota
+	roleCore     // has a π (multiple) bond in the kept π set
+	roleAcceptor // empty or singly filled p orbital without a π bond: C+, B, carbon radical
+	roleDonor    // lone pair (or C−) that joins the π system only next to a core/acceptor
+	roleAlkyl    // sp3 carbon, hyperconjugative pseudo-heteroatom
+)
+
+// Perceive finds the π system of the Kekulé graph m and types its centres with p.
+//
+// Rules (a centre's electrons in brackets):
+//   - Core centres have a multiple bond: C (1), C# for sp carbon — a triple bond or two
+//     cumulated double bonds (1), N= (1), N# (1), N+= iminium/pyridinium (1), N+nitro (1),
+//     N+# sp N+ of azides, diazo compounds, nitrile oxides, diazonium ions (1), O= (1),
+//     O+= oxonium/protonated carbonyl (1), O=LA an O+ double-bonded to C and single-bonded
+//     to a Lewis acid (B−, Al, a metal) (1), S= thione (1).
+//   - Acceptors are centres on their own: C+ (0), trigonal B (0), a neutral trivalent
+//     carbon radical (C, 1).
+//   - Lone-pair donors join only when bonded to a core or acceptor atom: N: amine/pyrrole/
+//     amide N (2), N− (2), O: (2), O− (2), S: (2), F, Cl, Br, I (2), C− carbanion (2).
+//   - With p.Alkyl, an sp3 carbon bonded to a core or acceptor atom becomes an Alkyl (Me)
+//     pseudo-heteroatom (2), the heteroatom model of hyperconjugation (Streitwieser 1961).
+//   - One π set per sp atom: a triple bond contributes one π bond. An atom with two
+//     cumulated double bonds (allene, ketene, isocyanate, azide, diazo middle atom) keeps
+//     the double bond to its partner of higher degree (ties: lower atom index), the set
+//     that conjugates with the substituents; the partner across the dropped bond leaves
+//     the π system unless it is a terminal N, O or S, which then joins as a lone-pair
+//     donor in that plane (azide and diazo terminal N−, ketene and isocyanate O).
+//   - Nitro groups: both oxygens get type Onitro (one h); =O brings 1 e and O− 2 e, and
+//     with FormalCharge both have a core of 1, so their π charges are equal.
+//   - π bonds join centres that share a molecular bond, except two donor/alkyl centres.
+//     k comes from p.K(type, type, Kekulé order).
+//   - Atoms of elements without π types (P, Si, Se, metals …) and hypervalent or charged
+//     sulfur stay outside; their multiple bonds are dropped with a warning.
+//   - Separate π systems get separate Fragment numbers, in order of their lowest atom.
+//
+// Errors are *PerceiveError wrapping ErrNoParameter or ErrUnsupported. Warnings (odd
+// electron count, more than LargeSystemWarn centres, dropped multiple bonds) are in
+// PiSystem.Warnings.
+func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
+	n := len(m.Atoms)
+	ps := &PiSystem{Mol: m, Params: p, Omega: p.Omega}
+	role := make([]uint8, n)
+	typ := make([]CentreType, n)
+	elec := make([]int8, n)
+	dropped := make([]bool, len(m.Bonds)) // bond takes no part in the π system
+	excluded := make([]bool, n)
+
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		switch a.Element {
+		case "C", "N", "O", "F", "Cl", "Br", "I", "B", "H":
+		case "S":
+			if a.Charge != 0 && !(a.Charge == -1 && m.Valence(i) == 1) || m.Valence(i) > 2 {
+				excluded[i] = true
+			}
+		default:
+			excluded[i] = true
+		}
+		if excluded[i] {
+			for _, e := range m.Neighbors(i) {
+				if m.Bonds[e.Bond].Order > 1 {
+					dropped[e.Bond] = true
+					ps.Warnings = append(ps.Warnings, fmt.Sprintf(
+						"atom %d (%s): no π parameters for this atom; its multiple bond to atom %d is left out of the π system",
+						i, atomLabel(a), e.To))
+				}
+			}
+		}
+	}
+	// Cumulated double bonds: keep one π set per sp atom.
+	farDonor := make([]bool, n)
+	for i := range m.Atoms {
+		if excluded[i] {
+			continue
+		}
+		best, nd := -1, 0
+		for _, e := range m.Neighbors(i) {
+			if m.Bonds[e.Bond].Order != 2 || dropped[e.Bond] {
+				continue
+			}
+			nd++
+			if best < 0 || m.Degree(e.To) > m.Degree(otherEnd(m.Bonds[best], i)) ||
+				(m.Degree(e.To) == m.Degree(otherEnd(m.Bonds[best], i)) && e.To < otherEnd(m.Bonds[best], i)) {
+				best = e.Bond
+			}
+		}
+		if nd < 2 {
+			continue
+		}
+		for _, e := range m.Neighbors(i) {
+			if e.Bond == best || m.Bonds[e.Bond].Order != 2 || dropped[e.Bond] {
+				continue
+			}
+			dropped[e.Bond] = true
+			if m.Degree(e.To) == 1 {
+				switch m.Atoms[e.To].Element {
+				case "N", "O", "S":
+					farDonor[e.To] = true
+				}
+			}
+		}
+	}
+
+	// Type every atom.
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		if excluded[i] || a.Element == "H" {
+			continue
+		}
+		np, maxOrder, cumulated := 0, 0, false
+		nd := 0
+		for _, e := range m.Neighbors(i) {
+			o := m.Bonds[e.Bond].Order
+			if o == 2 && !excluded[e.To] {
+				nd++
+			}
+			if o > 1 && !dropped[e.Bond] {
+				np++
+				maxOrder = max(maxOrder, o)
+			}
+		}
+		cumulated = nd >= 2
+		val := m.Valence(i)
+		set := func(r uint8, t CentreType, e int8) { role[i], typ[i], elec[i] = r, t, e }
+		unsupported := func(what string) error {
+			return &PerceiveError{Atom: i, Label: atomLabel(a), Err: ErrUnsupported,
+				Msg: what + " (write the neutral closed-shell form, or a charged form with a formal charge on this atom)"}
+		}
+		if np == 0 && farDonor[i] {
+			switch {
+			case a.Element == "O" && a.Charge == 0:
+				set(roleDonor, OEther, 2)
+			case a.Element == "S" && a.Charge == 0:
+				set(roleDonor, SThio, 2)
+			case a.Element == "N" && a.Charge == -1:
+				set(roleDonor, NAnion, 2)
+			case a.Element == "N" && a.Charge == 0:
+				set(roleDonor, NPyrrole, 2)
+			}
+			continue
+		}
+		switch a.Element {
+		case "C":
+			switch {
+			case np > 0 && a.Charge == 0:
+				if maxOrder == 3 || cumulated {
+					set(roleCore, CSp, 1)
+				} else {
+					set(roleCore, CSp2, 1)
+				}
+			case np > 0 && a.Charge == 1:
+				set(roleCore, CSp, 1) // vinyl cation: the empty orbital lies in the σ plane
+			case np > 0 && a.Charge == -1:
+				set(roleCore, CSp2, 1) // vinyl anion: the lone pair lies in the σ plane
+			case np > 0:
+				return nil, unsupported(fmt.Sprintf("carbon with charge %+d and a multiple bond is not supported", a.Charge))
+			case a.Charge == 1 && val == 3:
+				set(roleAcceptor, CCation, 0)
+			case a.Charge == -1 && val == 3:
+				set(roleDonor, CAnion, 2)
+			case a.Charge == 0 && val == 3:
+				set(roleAcceptor, CSp2, 1) // carbon radical
+			case a.Charge == 0 && val == 4:
+				if p.Alkyl {
+					set(roleAlkyl, Alkyl, 2)
+				}
+			default:
+				if touchesMultiple(m, i, dropped) {
+					return nil, unsupported(fmt.Sprintf("carbon with charge %+d and valence %d (carbene or similar) is not supported", a.Charge, val))
+				}
+			}
+		case "N":
+			switch {
+			case np > 0 && a.Charge == 0:
+				if maxOrder == 3 {
+					set(roleCore, NNitrile, 1)
+				} else if val == 3 && !cumulated {
+					set(roleCore, NPyridine, 1)
+				} else {
+					return nil, unsupported(fmt.Sprintf("neutral nitrogen with valence %d and a multiple bond is not supported", val))
+				}
+			case np > 0 && a.Charge == 1:
+				if maxOrder == 3 || cumulated {
+					set(roleCore, NSpCation, 1)
+				} else if isNitroN(m, i, dropped) {
+					set(roleCore, NNitro, 1)
+				} else {
+					set(roleCore, NIminium, 1)
+				}
+			case np > 0 && a.Charge == -1:
+				set(roleCore, NPyridine, 1)
+			case np > 0:
+				return nil, unsupported(fmt.Sprintf("nitrogen with charge %+d and a multiple bond is not supported", a.Charge))
+			case a.Charge == 0 && val == 3:
+				set(roleDonor, NPyrrole, 2)
+			case a.Charge == 0 && val == 2:
+				set(roleAcceptor, NPyridine, 1) // aminyl radical: one electron in p
+			case a.Charge == -1 && val == 2:
+				set(roleDonor, NAnion, 2)
+			}
+		case "O":
+			switch {
+			case np > 0 && a.Charge == 0 && maxOrder == 2:
+				set(roleCore, OCarbonyl, 1)
+			case np > 0 && a.Charge == 1 && maxOrder == 2:
+				if boundToLewisAcid(m, i, dropped) {
+					set(roleCore, OLewis, 1)
+				} else {
+					set(roleCore, OOxonium, 1)
+				}
+			case np > 0:
+				return nil, unsupported(fmt.Sprintf("oxygen with charge %+d and a bond of order %d is not supported", a.Charge, maxOrder))
+			case a.Charge == 0 && val == 2:
+				set(roleDonor, OEther, 2)
+			case a.Charge == -1 && val == 1:
+				set(roleDonor, OAnion, 2)
+			}
+		case "S":
+			switch {
+			case np > 0 && maxOrder == 2:
+				set(roleCore, SThione, 1)
+			case np > 0:
+				return nil, unsupported("sulfur with a triple bond is not supported")
+			default:
+				set(roleDonor, SThio, 2) // thioether, thiophene, thiolate
+			}
+		case "F", "Cl", "Br", "I":
+			if a.Charge == 0 && val == 1 {
+				set(roleDonor, CentreType(a.Element), 2)
+			}
+		case "B":
+			switch {
+			case np == 0 && a.Charge == 0 && val == 3:
+				set(roleAcceptor, Boron, 0)
+			case np > 0:
+				return nil, unsupported("boron with a multiple bond is not supported")
+			}
+		}
+	}
+
+	// Donors and alkyl groups join only next to a core or acceptor.
+	isCentre := make([]bool, n)
+	for i := range m.Atoms {
+		switch role[i] {
+		case roleCore, roleAcceptor:
+			isCentre[i] = true
+		case roleDonor, roleAlkyl:
+			for _, e := range m.Neighbors(i) {
+				if r := role[e.To]; r == roleCore || r == roleAcceptor {
+					isCentre[i] = true
+					break
+				}
+			}
+		}
+	}
+	// Nitro oxygens share one type (their charges agree through FormalCharge).
+	for i := range m.Atoms {
+		if !isCentre[i] || typ[i] != NNitro {
+			continue
+		}
+		for _, e := range m.Neighbors(i) {
+			j := e.To
+			if m.Atoms[j].Element != "O" || !isCentre[j] {
+				continue
+			}
+			switch typ[j] {
+			case OCarbonyl, OAnion:
+				typ[j] = ONitro
+			}
+		}
+	}
+
+	// Centres in atom order.
+	ps.AtomCentre = make([]int, n)
+	nc := 0
+	for i := range m.Atoms {
+		if isCentre[i] {
+			nc++
+		}
+	}
+	ps.Centres = make([]Centre, 0, nc)
+	for i := range m.Atoms {
+		ps.AtomCentre[i] = -1
+		if !isCentre[i] {
+			continue
+		}
+		h, ok := p.H(typ[i])
+		if !ok {
+			return nil, &PerceiveError{Atom: i, Label: atomLabel(&m.Atoms[i]), Err: ErrNoParameter,
+				Msg: fmt.Sprintf("no h parameter for type %s in set %s (add it with --params FILE)", typ[i], p.Name)}
+		}
+		ps.AtomCentre[i] = len(ps.Centres)
+		ps.Centres = append(ps.Centres, Centre{Atom: i, Element: m.Atoms[i].Element, Type: typ[i],
+			H: h, Electrons: int(elec[i]), FormalCharge: m.Atoms[i].Charge})
+	}
+	for bi, b := range m.Bonds {
+		ci, cj := ps.AtomCentre[b.A], ps.AtomCentre[b.B]
+		if ci < 0 || cj < 0 {
+			continue
+		}
+		ra, rb := role[b.A], role[b.B]
+		if (ra == roleDonor || ra == roleAlkyl) && (rb == roleDonor || rb == roleAlkyl) {
+			continue
+		}
+		if dropped[bi] {
+			// The dropped bond of a cumulated atom: its far partner (a terminal lone-pair
+			// donor) still overlaps in the kept plane through the σ framework's p orbital.
+			if !farDonor[b.A] && !farDonor[b.B] {
+				continue
+			}
+		}
+		order := b.Order
+		if dropped[bi] {
+			order = 1
+		}
+		k, ok := p.K(typ[b.A], typ[b.B], order)
+		if !ok {
+			at := b.A
+			if typ[b.A] == CSp2 {
+				at = b.B
+			}
+			return nil, &PerceiveError{Atom: at, Label: atomLabel(&m.Atoms[at]), Err: ErrNoParameter,
+				Msg: fmt.Sprintf("no k parameter for the %s–%s bond to atom %d (Kekulé order %d) in set %s (add it with --params FILE)",
+					typ[b.A], typ[b.B], b.A+b.B-at, b.Order, p.Name)}
+		}
+		if ci > cj {
+			ci, cj = cj, ci
+		}
+		ps.Bonds = append(ps.Bonds, PiBond{I: ci, J: cj, K: k, Bond: bi})
+	}
+	ps.recomputeFragments()
+	if e := ps.Electrons(); e%2 == 1 {
+		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
+			"odd number of π electrons (%d): open shell, the singly occupied level is reported as SOMO", e))
+	}
+	if nc > LargeSystemWarn {
+		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
+			"%d π centres: gonum has no subset or sparse eigensolver, so each solve is a dense O(n³) diagonalisation and may take seconds", nc))
+	}
+	return ps, nil
+}
+
+func otherEnd(b molecule.Bond, i int) int {
+	if b.A == i {
+		return b.B
+	}
+	return b.A
+}
+
+// atomLabel is the element with its formal charge: "N+", "O-", "C".
+func atomLabel(a *molecule.Atom) string {
+	switch {
+	case a.Charge == 0:
+		return a.Element
+	case a.Charge == 1:
+		return a.Element + "+"
+	case a.Charge == -1:
+		return a.Element + "-"
+	case a.Charge > 0:
+		return fmt.Sprintf("%s+%d", a.Element, a.Charge)
+	}
+	return fmt.Sprintf("%s%d", a.Element, a.Charge)
+}
+
+func touchesMultiple(m *molecule.Molecule, i int, dropped []bool) bool {
+	for _, e := range m.Neighbors(i) {
+		if m.Bonds[e.Bond].Order > 1 && !dropped[e.Bond] {
+			return true
+		}
+		for _, f := range m.Neighbors(e.To) {
+			if m.Bonds[f.Bond].Order > 1 && !dropped[f.Bond] {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// isNitroN: N+ with a kept double bond to O and a single bond to O−.
+func isNitroN(m *molecule.Molecule, i int, dropped []bool) bool {
+	dbl, anion := false, false
+	for _, e := range m.Neighbors(i) {
+		o := &m.Atoms[e.To]
+		if o.Element != "O" {
+			continue
+		}
+		b := m.Bonds[e.Bond]
+		switch {
+		case b.Order == 2 && !dropped[e.Bond] && o.Charge == 0:
+			dbl = true
+		case b.Order == 1 && o.Charge == -1 && m.Degree(e.To) == 1:
+			anion = true
+		}
+	}
+	return dbl && anion
+}
+
+// lewisAcidElements are the acceptors that make an O+ double-bonded to carbon an O=LA
+// centre (B and Al as the ate complexes B−/Al−, or any of these metals).
+var lewisAcidElements = map[string]bool{
+	"B": true, "Al": true, "Ga": true, "In": true, "Li": true, "Na": true, "K": true, "Mg": true,
+	"Ca": true, "Sc": true, "Y": true, "La": true, "Ce": true, "Eu": true, "Yb": true, "Ti": true,
+	"Zr": true, "Hf": true, "Cr": true, "Mn": true, "Fe": true, "Co": true, "Ni": true, "Cu": true,
+	"Ag": true, "Au": true, "Zn": true, "Cd": true, "Hg": true, "Sn": true, "Bi": true, "Sb": true,
+}
+
+func boundToLewisAcid(m *molecule.Molecule, i int, dropped []bool) bool {
+	for _, e := range m.Neighbors(i) {
+		if m.Bonds[e.Bond].Order != 1 {
+			continue
+		}
+		la := &m.Atoms[e.To]
+		if la.Element == "B" && la.Charge >= 0 && m.Valence(e.To) < 4 {
+			continue // a neutral trigonal boron ester O, not an ate complex
+		}
+		if lewisAcidElements[la.Element] {
+			return true
+		}
+	}
+	return false
+}
+
+// recomputeFragments fills Fragments and Centres[i].Fragment from Bonds.
+func (ps *PiSystem) recomputeFragments() {
+	n := len(ps.Centres)
+	adj := make([][]int, n)
+	for _, b := range ps.Bonds {
+		adj[b.I] = append(adj[b.I], b.J)
+		adj[b.J] = append(adj[b.J], b.I)
+	}
+	ps.Fragments = ps.Fragments[:0]
+	seen := make([]bool, n)
+	for s := 0; s < n; s++ {
+		if seen[s] {
+			continue
+		}
+		f := len(ps.Fragments)
+		comp := []int{s}
+		seen[s] = true
+		for q := 0; q < len(comp); q++ {
+			for _, t := range adj[comp[q]] {
+				if !seen[t] {
+					seen[t] = true
+					comp = append(comp, t)
+				}
+			}
+		}
+		slices.Sort(comp)
+		for _, c := range comp {
+			ps.Centres[c].Fragment = f
+		}
+		ps.Fragments = append(ps.Fragments, comp)
+	}
+}
+
+// Electrons is the total number of π electrons (sum over centres).
+func (ps *PiSystem) Electrons() int {
+	e := 0
+	for i := range ps.Centres {
+		e += ps.Centres[i].Electrons
+	}
+	return e
+}
+
+// Matrix returns the Hückel matrix in units of β, n×n row-major over centres: h_i on the
+// diagonal, k_ij off the diagonal for each π bond, 0 elsewhere.
+func (ps *PiSystem) Matrix() []float64 {
+	n := len(ps.Centres)
+	a := make([]float64, n*n)
+	for i := range ps.Centres {
+		a[i*n+i] = ps.Centres[i].H
+	}
+	for _, b := range ps.Bonds {
+		a[b.I*n+b.J] += b.K
+		a[b.J*n+b.I] += b.K
+	}
+	return a
+}
+
+// Without returns a copy of ps with the given centres (centre indices) removed, as when
+// those atoms become sp3 in a cycloadduct. Their electrons are dropped with them; the
+// caller may edit Centres[i].Electrons of the copy afterwards (Solve reads them). Bonds
+// to removed centres disappear, fragments and AtomCentre are recomputed, Mol, Params,
+// Omega and Warnings are carried over. It panics on an out-of-range index.
+func (ps *PiSystem) Without(centres ...int) *PiSystem {
+	n := len(ps.Centres)
+	drop := make([]bool, n)
+	for _, c := range centres {
+		if c < 0 || c >= n {
+			panic(fmt.Sprintf("huckel: Without(%d) on %d centres", c, n))
+		}
+		drop[c] = true
+	}
+	newIdx := make([]int, n)
+	out := &PiSystem{Mol: ps.Mol, Params: ps.Params, Omega: ps.Omega,
+		Warnings: slices.Clone(ps.Warnings)}
+	for i, c := range ps.Centres {
+		if drop[i] {
+			newIdx[i] = -1
+			continue
+		}
+		newIdx[i] = len(out.Centres)
+		out.Centres = append(out.Centres, c)
+	}
+	for _, b := range ps.Bonds {
+		i, j := newIdx[b.I], newIdx[b.J]
+		if i < 0 || j < 0 {
+			continue
+		}
+		out.Bonds = append(out.Bonds, PiBond{I: i, J: j, K: b.K, Bond: b.Bond})
+	}
+	out.AtomCentre = make([]int, len(ps.AtomCentre))
+	for a, c := range ps.AtomCentre {
+		if c < 0 {
+			out.AtomCentre[a] = -1
+		} else {
+			out.AtomCentre[a] = newIdx[c]
+		}
+	}
+	out.recomputeFragments()
+	return out
+}
+
+// CentreOf returns the centre index of atom a, or -1.
+func (ps *PiSystem) CentreOf(a int) int {
+	if a < 0 || a >= len(ps.AtomCentre) {
+		return -1
+	}
+	return ps.AtomCentre[a]
+}
+
+// NewPiSystem builds a PiSystem directly from centres and bonds (for model systems and
+// tests that bypass perception). Centre.Fragment values are recomputed; AtomCentre maps
+// each Centre.Atom to its centre. Bonds must use centre indices; I and J are normalised so
+// that I < J. It panics on an out-of-range or self bond.
+func NewPiSystem(centres []Centre, bonds []PiBond) *PiSystem {
+	ps := &PiSystem{Centres: slices.Clone(centres), Bonds: slices.Clone(bonds)}
+	maxAtom := -1
+	for _, c := range ps.Centres {
+		maxAtom = max(maxAtom, c.Atom)
+	}
+	ps.AtomCentre = make([]int, maxAtom+1)
+	for i := range ps.AtomCentre {
+		ps.AtomCentre[i] = -1
+	}
+	for i, c := range ps.Centres {
+		if c.Atom >= 0 {
+			ps.AtomCentre[c.Atom] = i
+		}
+	}
+	for i := range ps.Bonds {
+		b := &ps.Bonds[i]
+		if b.I == b.J || b.I < 0 || b.J < 0 || b.I >= len(centres) || b.J >= len(centres) {
+			panic(fmt.Sprintf("huckel: NewPiSystem bond %d–%d on %d centres", b.I, b.J, len(centres)))
+		}
+		if b.I > b.J {
+			b.I, b.J = b.J, b.I
+		}
+	}
+	ps.recomputeFragments()
+	return ps
+}

@@ -1,0 +1,481 @@
+package huckel
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack"
+	"gonum.org/v1/gonum/lapack/lapack64"
+	"gonum.org/v1/gonum/mat"
+)
+
+// Numerical conventions of the solver. They are part of the output contract: golden files
+// and the fmo package rely on them.
+const (
+	// DegeneracyTol is the largest difference in x (units of β) between two levels of one
+	// π fragment that are treated as one degenerate set. Parameters are given to two
+	// decimals, so genuine near-degeneracies from parameters differ by far more than this,
+	// while symmetry-degenerate levels agree to ~1e-14.
+	DegeneracyTol = 1e-6
+
+	// SignTieTol decides when two coefficients count as equally large for the sign
+	// convention (the lower centre index wins the tie).
+	SignTieTol = 1e-9
+
+	// OmegaTol is the convergence threshold of the ω-technique: the largest change of any
+	// Coulomb parameter h_i (units of β) between two cycles.
+	OmegaTol = 1e-7
+
+	// OmegaMaxIter caps the ω-technique cycles; exceeding it returns ErrNoConvergence.
+	OmegaMaxIter = 200
+
+	// omegaMix is the damping of the ω iteration: h ← h + omegaMix·(h⁰ + ω·q − h).
+	// Undamped ω iteration oscillates for small cations (allyl, pentadienyl).
+	omegaMix = 0.5
+)
+
+// Errors returned by Solve.
+var (
+	// ErrNoConvergence reports that the ω-technique did not reach OmegaTol within OmegaMaxIter.
+	ErrNoConvergence = errors.New("ω-technique did not converge")
+	// ErrEigen reports a failure of the symmetric eigensolver (LAPACK dsyev returned ok=false).
+	ErrEigen = errors.New("eigensolver failed")
+	// ErrElectrons reports a fragment with more π electrons than its centres can hold.
+	ErrElectrons = errors.New("too many π electrons")
+)
+
+// Solve diagonalises every π fragment of ps with gonum's mat.EigenSym and returns the
+// levels, occupations and derived quantities (see Orbitals). It allocates a fresh result;
+// batch code should reuse a Solver instead.
+//
+// Conventions:
+//   - Levels are sorted by X descending (most bonding first); equal X sort by fragment.
+//   - Each fragment is diagonalised separately, so levels of separate π systems never mix,
+//     and each fragment is filled (aufbau) with its own electrons.
+//   - Levels of one fragment whose X differ by less than DegeneracyTol form a degenerate
+//     set; their X is set to the set mean and the basis is made deterministic: the
+//     projections of the unit vectors e_0, e_1, … onto the set's subspace are
+//     Gram–Schmidt orthonormalised in centre order until the set is spanned.
+//   - Sign: every vector is flipped so that its largest-|c| coefficient is positive; ties
+//     (within SignTieTol) go to the lowest centre index.
+//   - A degenerate set that cannot be filled completely gets equal fractional occupancy
+//     and sets Orbitals.Partial, as does an odd electron count (SOMO).
+//   - HOMO is the highest level with occupancy > 0 (for a degenerate set, its last member
+//     in Levels order), LUMO the lowest with occupancy 0 (the first member of its set);
+//     DegenerateSet gives the whole set. SOMO equals HOMO when that level holds fewer
+//     than 2 electrons, else −1.
+//
+// Errors: ErrElectrons (wrapped, naming the fragment), ErrEigen, ErrNoConvergence.
+func Solve(ps *PiSystem) (*Orbitals, error) {
+	var s Solver
+	s.useMat = true
+	o := new(Orbitals)
+	if err := s.Solve(ps, o); err != nil {
+		return nil, err
+	}
+	return o, nil
+}
+
+// Solver diagonalises π systems with lapack64.Syev into buffers that grow but never
+// shrink, so repeated solves of similar molecules allocate nothing once warmed up (when the
+// Orbitals value is reused too). It gives the same results as Solve. The zero value is ready
+// to use. A Solver is not safe for concurrent use: give each worker goroutine its own.
+type Solver struct {
+	useMat bool // diagonalise through mat.EigenSym (the path of Solve)
+
+	a, w, work []float64
+	q          [1]float64 // workspace-query slot (a local array would escape)
+	loc        []int      // centre -> index inside its fragment
+	h, hNew    []float64  // ω-technique Coulomb parameters
+	proj, tmp  []float64  // degenerate-set basis construction
+	fragE      []int      // electrons per fragment
+	levelX     []float64  // per-fragment scratch: eigenvalues in descending order
+}
+
+// Solve fills into with the solution of ps, reusing into's slices. On error into is left
+// in an unspecified state. See the package-level Solve for the conventions.
+func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
+	n := len(ps.Centres)
+	s.h = growF(s.h, n)
+	for i := range ps.Centres {
+		s.h[i] = ps.Centres[i].H
+	}
+	if err := s.checkElectrons(ps); err != nil {
+		return err
+	}
+	if err := s.solveOnce(ps, s.h, into); err != nil {
+		return err
+	}
+	into.Iterations = 0
+	if ps.Omega != 0 && n > 0 {
+		s.hNew = growF(s.hNew, n)
+		converged := false
+		for it := 1; it <= OmegaMaxIter; it++ {
+			maxd := 0.0
+			for i := range ps.Centres {
+				target := ps.Centres[i].H + ps.Omega*into.Charges[i]
+				d := target - s.h[i]
+				maxd = max(maxd, math.Abs(d))
+				s.hNew[i] = s.h[i] + omegaMix*d
+			}
+			into.Iterations = it
+			if maxd < OmegaTol {
+				converged = true
+				break
+			}
+			s.h, s.hNew = s.hNew, s.h
+			if err := s.solveOnce(ps, s.h, into); err != nil {
+				return err
+			}
+		}
+		if !converged {
+			return fmt.Errorf("huckel: %w after %d cycles (ω = %g, tolerance %g β)",
+				ErrNoConvergence, OmegaMaxIter, ps.Omega, OmegaTol)
+		}
+	}
+	into.H = growF(into.H, n)
+	copy(into.H, s.h)
+	return nil
+}
+
+func (s *Solver) checkElectrons(ps *PiSystem) error {
+	nf := len(ps.Fragments)
+	s.fragE = growI(s.fragE, nf)
+	clear(s.fragE)
+	for i := range ps.Centres {
+		c := &ps.Centres[i]
+		if c.Electrons < 0 || c.Electrons > 2 {
+			return fmt.Errorf("huckel: centre %d (atom %d): %w: %d electrons on one centre",
+				i, c.Atom, ErrElectrons, c.Electrons)
+		}
+		if c.Fragment < 0 || c.Fragment >= nf {
+			panic(fmt.Sprintf("huckel: centre %d has fragment %d of %d", i, c.Fragment, nf))
+		}
+		s.fragE[c.Fragment] += c.Electrons
+	}
+	return nil
+}
+
+// solveOnce diagonalises every fragment with Coulomb parameters h and fills into.
+func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
+	n := len(ps.Centres)
+	into.Pi = ps
+	into.coef = growF(into.coef, n*n)
+	clear(into.coef)
+	if cap(into.Levels) < n {
+		into.Levels = make([]Level, n)
+	}
+	into.Levels = into.Levels[:n]
+	into.Warnings = into.Warnings[:0]
+	into.Partial = false
+	s.loc = growI(s.loc, n)
+	for _, frag := range ps.Fragments {
+		for li, c := range frag {
+			s.loc[c] = li
+		}
+	}
+	lv := 0
+	electrons := 0
+	for f, frag := range ps.Fragments {
+		m := len(frag)
+		if m == 0 {
+			continue
+		}
+		if s.fragE[f] > 2*m {
+			return fmt.Errorf("huckel: π fragment %d: %w: %d electrons on %d centres",
+				f, ErrElectrons, s.fragE[f], m)
+		}
+		electrons += s.fragE[f]
+		s.a = growF(s.a, m*m)
+		s.w = growF(s.w, m)
+		clear(s.a)
+		for li, c := range frag {
+			s.a[li*m+li] = h[c]
+		}
+		for _, b := range ps.Bonds {
+			if ps.Centres[b.I].Fragment != f {
+				continue
+			}
+			i, j := s.loc[b.I], s.loc[b.J]
+			if i > j {
+				i, j = j, i
+			}
+			s.a[i*m+j] += b.K
+		}
+		if err := s.eigen(m); err != nil {
+			return err
+		}
+		// s.w ascending, column c of s.a (row-major m×m) is vector c.
+		s.levelX = growF(s.levelX, m)
+		for j := 0; j < m; j++ {
+			s.levelX[j] = s.w[m-1-j]
+		}
+		// Degenerate sets, fixed basis and signs, written into the level slots.
+		for j := 0; j < m; {
+			e := j + 1
+			for e < m && s.levelX[e-1]-s.levelX[e] < DegeneracyTol {
+				e++
+			}
+			d := e - j
+			mean := 0.0
+			for k := j; k < e; k++ {
+				mean += s.levelX[k]
+			}
+			mean /= float64(d)
+			if d > 1 {
+				s.fixDegenerate(m, m-e, d)
+			}
+			for k := j; k < e; k++ {
+				col := m - 1 - k
+				coeffs := into.coef[(lv+k)*n : (lv+k+1)*n]
+				for li, c := range frag {
+					coeffs[c] = s.a[li*m+col]
+				}
+				fixSign(coeffs, frag)
+				into.Levels[lv+k] = Level{X: mean, Coeffs: coeffs, Fragment: f, Degenerate: d}
+			}
+			j = e
+		}
+		// Aufbau within the fragment.
+		left := s.fragE[f]
+		for j := 0; j < m; {
+			d := into.Levels[lv+j].Degenerate
+			occ := 0.0
+			if left >= 2*d {
+				occ = 2
+				left -= 2 * d
+			} else if left > 0 {
+				occ = float64(left) / float64(d)
+				left = 0
+				into.Partial = true
+			}
+			for k := j; k < j+d; k++ {
+				into.Levels[lv+k].Occupancy = occ
+			}
+			j += d
+		}
+		lv += m
+	}
+	into.Levels = into.Levels[:lv]
+	slices.SortStableFunc(into.Levels, func(a, b Level) int {
+		switch {
+		case a.X > b.X:
+			return -1
+		case a.X < b.X:
+			return 1
+		}
+		return a.Fragment - b.Fragment
+	})
+	into.Electrons = electrons
+	into.HOMO, into.LUMO, into.SOMO = -1, -1, -1
+	into.PiEnergy = 0
+	for i := range into.Levels {
+		l := &into.Levels[i]
+		into.PiEnergy += l.Occupancy * l.X
+		if l.Occupancy > 0 {
+			into.HOMO = i
+		}
+	}
+	// LUMO: the empty level of lowest energy (largest X) over all fragments.
+	for i := range into.Levels {
+		if into.Levels[i].Occupancy == 0 {
+			into.LUMO = i
+			break
+		}
+	}
+	if into.HOMO >= 0 && into.Levels[into.HOMO].Occupancy < 2 {
+		into.SOMO = into.HOMO
+	}
+	// Charges and bond orders.
+	into.Charges = growF(into.Charges, n)
+	for i := range ps.Centres {
+		into.Charges[i] = float64(ps.Centres[i].Electrons + ps.Centres[i].FormalCharge)
+	}
+	into.BondOrders = growF(into.BondOrders, n*n)
+	clear(into.BondOrders)
+	for i := range into.Levels {
+		l := &into.Levels[i]
+		if l.Occupancy == 0 {
+			continue
+		}
+		frag := ps.Fragments[l.Fragment]
+		for _, a := range frag {
+			ca := l.Occupancy * l.Coeffs[a]
+			if ca == 0 {
+				continue
+			}
+			row := into.BondOrders[a*n : (a+1)*n]
+			for _, b := range frag {
+				row[b] += ca * l.Coeffs[b]
+			}
+		}
+	}
+	for i := range ps.Centres {
+		into.Charges[i] -= into.BondOrders[i*n+i]
+	}
+	return nil
+}
+
+// eigen diagonalises the m×m upper triangle in s.a in place: eigenvalues ascending in s.w,
+// eigenvectors in the columns of s.a.
+func (s *Solver) eigen(m int) error {
+	if s.useMat {
+		sym := mat.NewSymDense(m, append([]float64(nil), s.a[:m*m]...))
+		var es mat.EigenSym
+		if !es.Factorize(sym, true) {
+			return fmt.Errorf("huckel: %w on a %d×%d matrix", ErrEigen, m, m)
+		}
+		es.Values(s.w[:m])
+		var v mat.Dense
+		es.VectorsTo(&v)
+		raw := v.RawMatrix()
+		for r := 0; r < m; r++ {
+			copy(s.a[r*m:(r+1)*m], raw.Data[r*raw.Stride:r*raw.Stride+m])
+		}
+		return nil
+	}
+	a := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: s.a[:m*m]}
+	lapack64.Syev(lapack.EVCompute, a, s.w[:m], s.q[:], -1)
+	s.work = growF(s.work, int(s.q[0]))
+	if !lapack64.Syev(lapack.EVCompute, a, s.w[:m], s.work, len(s.work)) {
+		return fmt.Errorf("huckel: %w on a %d×%d matrix", ErrEigen, m, m)
+	}
+	return nil
+}
+
+// fixDegenerate replaces columns c0..c0+d-1 of the m×m eigenvector matrix s.a with the
+// deterministic basis of their span: Gram–Schmidt of P·e_0, P·e_1, … (P the projector).
+func (s *Solver) fixDegenerate(m, c0, d int) {
+	s.proj = growF(s.proj, m*m)
+	for r := 0; r < m; r++ {
+		for c := 0; c < m; c++ {
+			v := 0.0
+			for k := c0; k < c0+d; k++ {
+				v += s.a[r*m+k] * s.a[c*m+k]
+			}
+			s.proj[r*m+c] = v
+		}
+	}
+	s.tmp = growF(s.tmp, m*d)
+	got := 0
+	for e := 0; e < m && got < d; e++ {
+		u := s.tmp[got*m : (got+1)*m]
+		for r := 0; r < m; r++ {
+			u[r] = s.proj[r*m+e]
+		}
+		for pass := 0; pass < 2; pass++ { // re-orthogonalise once for stability
+			for g := 0; g < got; g++ {
+				prev := s.tmp[g*m : (g+1)*m]
+				dot := 0.0
+				for r := 0; r < m; r++ {
+					dot += prev[r] * u[r]
+				}
+				for r := 0; r < m; r++ {
+					u[r] -= dot * prev[r]
+				}
+			}
+		}
+		nrm := 0.0
+		for r := 0; r < m; r++ {
+			nrm += u[r] * u[r]
+		}
+		nrm = math.Sqrt(nrm)
+		if nrm < 1e-6 {
+			continue
+		}
+		for r := 0; r < m; r++ {
+			u[r] /= nrm
+		}
+		got++
+	}
+	if got < d {
+		// Cannot happen for an orthonormal input (the e_k span everything); keep LAPACK's basis.
+		return
+	}
+	// Store descending-level order: column c0+d-1 is the first level of the set.
+	for g := 0; g < d; g++ {
+		col := c0 + d - 1 - g
+		u := s.tmp[g*m : (g+1)*m]
+		for r := 0; r < m; r++ {
+			s.a[r*m+col] = u[r]
+		}
+	}
+}
+
+// fixSign makes the largest-|c| coefficient (over the fragment's centres) positive; ties
+// within SignTieTol go to the lowest centre index.
+func fixSign(c []float64, frag []int) {
+	best, bestAbs := -1, -1.0
+	for _, i := range frag { // frag is in ascending centre order
+		a := math.Abs(c[i])
+		if a > bestAbs+SignTieTol {
+			best, bestAbs = i, a
+		}
+	}
+	if best >= 0 && c[best] < 0 {
+		for _, i := range frag {
+			c[i] = -c[i]
+		}
+	}
+}
+
+func growF(b []float64, n int) []float64 {
+	if cap(b) < n {
+		return make([]float64, n, n+n/2)
+	}
+	return b[:n]
+}
+
+func growI(b []int, n int) []int {
+	if cap(b) < n {
+		return make([]int, n, n+n/2)
+	}
+	return b[:n]
+}
+
+// Coefficient returns the coefficient of the given level on the atom with index atom (in
+// the input molecule's numbering); 0 if the atom is not a π centre. It panics if level is
+// out of range.
+func (o *Orbitals) Coefficient(level, atom int) float64 {
+	if atom < 0 || atom >= len(o.Pi.AtomCentre) {
+		return 0
+	}
+	c := o.Pi.AtomCentre[atom]
+	if c < 0 {
+		return 0
+	}
+	return o.Levels[level].Coeffs[c]
+}
+
+// DegenerateSet returns the indices (into Levels) of the degenerate set that contains
+// level, in ascending order; a non-degenerate level gives a one-element slice.
+func (o *Orbitals) DegenerateSet(level int) []int {
+	l := o.Levels[level]
+	var out []int
+	for i := range o.Levels {
+		if o.Levels[i].Fragment == l.Fragment && o.Levels[i].X == l.X {
+			out = append(out, i)
+		}
+	}
+	return out
+}
+
+// BondOrder returns the Coulson π bond order p_ij = Σ n_k c_ik c_jk between centres i and j
+// (p_ii is the π population of centre i).
+func (o *Orbitals) BondOrder(i, j int) float64 {
+	n := len(o.Pi.Centres)
+	return o.BondOrders[i*n+j]
+}
+
+// Gap returns X(HOMO) − X(LUMO) in units of |β| (positive), and false when either level is
+// missing.
+func (o *Orbitals) Gap() (float64, bool) {
+	if o.HOMO < 0 || o.LUMO < 0 {
+		return 0, false
+	}
+	return o.Levels[o.HOMO].X - o.Levels[o.LUMO].X, true
+}
