@@ -1,6 +1,7 @@
 package smiles
 
 import (
+	"fmt"
 	"strings"
 
 	"cyclopair/huckel/molecule"
@@ -43,7 +44,7 @@ func (p *parser) checkBracket(i, val int) {
 	}
 	text := p.atomText(i)
 	if !ok {
-		p.errorf(a.Pos, ErrValence, "check the charge", "atom %d %s has impossible charge %+d for %s", i+1, text, a.Charge, a.Element)
+		p.errorf(a.Pos, ErrValence, "check the charge", "atom %d %s: charge %+d is impossible for %s", i+1, text, a.Charge, a.Element)
 		return
 	}
 	v := nextValence(vals, val)
@@ -52,7 +53,7 @@ func (p *parser) checkBracket(i, val int) {
 		return
 	case v < 0:
 		p.errorf(a.Pos, ErrValence, "check the bond orders, hydrogen count and charge",
-			"atom %d %s has valence %d; %s with charge %+d allows at most %d", i+1, text, val, a.Element, a.Charge, vals[len(vals)-1])
+			"atom %d %s has valence %d; %s allows at most %d", i+1, text, val, chargedName(a.Element, a.Charge), vals[len(vals)-1])
 	case v-val == 1:
 		p.errorf(a.Pos, ErrRadical, "add H or a charge",
 			"atom %d %s has an unpaired electron; radicals are not supported", i+1, text)
@@ -60,6 +61,19 @@ func (p *parser) checkBracket(i, val int) {
 		p.errorf(a.Pos, ErrRadical, "add H or a charge",
 			"atom %d %s has %d unpaired electrons; radicals and carbenes are not supported", i+1, text, v-val)
 	}
+}
+
+// chargedName spells an element with its charge: "neutral C", "N+", "O-", "Fe+3".
+func chargedName(el string, q int) string {
+	switch {
+	case q == 0:
+		return "neutral " + el
+	case q == 1:
+		return el + "+"
+	case q == -1:
+		return el + "-"
+	}
+	return fmt.Sprintf("%s%+d", el, q)
 }
 
 // atomText is the source text of atom i (the whole bracket for bracket atoms).
@@ -72,8 +86,9 @@ func (p *parser) atomText(i int) string {
 		if k := strings.IndexByte(p.src[a.Pos:], ']'); k >= 0 {
 			return p.src[a.Pos : a.Pos+k+1]
 		}
+		return a.Element
 	}
-	return a.Element
+	return p.src[a.Pos:min(a.Pos+len(a.Element), len(p.src))]
 }
 
 // kekuliseAll finds ring bonds, makes aromatic bonds outside rings single, and assigns a

@@ -71,7 +71,8 @@ type pendingBond struct {
 }
 
 type ringOpen struct {
-	num  int // ring-closure number
+	num   int    // ring-closure number
+	label string // as written: "1", "%12", "%(123)"
 	atom int // atom it was opened on
 	pos  int // offset of the digit or '%'
 	bond pendingBond
@@ -270,7 +271,7 @@ func (p *parser) scan() bool {
 		return p.fail(end, "add the branch atoms and ')'", "input ends inside an empty branch")
 	}
 	for _, r := range p.rings {
-		p.errorf(r.pos, ErrRingNotClosed, fmt.Sprintf("close it with a second '%s' or remove it", ringLabel(r.num)), "ring bond %s never closed", ringLabel(r.num))
+		p.errorf(r.pos, ErrRingNotClosed, fmt.Sprintf("close it with a second '%s' or remove it", r.label), "ring bond %s never closed", r.label)
 	}
 	for j := len(p.branches) - 1; j >= 0; j-- {
 		b := p.branches[j]
@@ -350,7 +351,7 @@ func (p *parser) ringBond(i int) (int, bool) {
 		p.addBond(r.atom, p.prev, sym)
 		return i, true
 	}
-	p.rings = append(p.rings, ringOpen{num: num, atom: p.prev, pos: start, bond: p.bond})
+	p.rings = append(p.rings, ringOpen{num: num, label: s[start:i], atom: p.prev, pos: start, bond: p.bond})
 	p.bond = pendingBond{}
 	return i, true
 }
@@ -373,6 +374,7 @@ func (p *parser) addBond(a, b int, sym byte) {
 		bd.Order = 3
 	case symArom:
 		bd.Aromatic = true
+		p.hasAromatic = true // so the kekulisation pass checks the bond
 	case symUp, symDown:
 		bd.Stereo = sym
 		bd.Aromatic = p.m.Atoms[a].Aromatic && p.m.Atoms[b].Aromatic
