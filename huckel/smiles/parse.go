@@ -73,9 +73,9 @@ type pendingBond struct {
 type ringOpen struct {
 	num   int    // ring-closure number
 	label string // as written: "1", "%12", "%(123)"
-	atom int // atom it was opened on
-	pos  int // offset of the digit or '%'
-	bond pendingBond
+	atom  int    // atom it was opened on
+	pos   int    // offset of the digit or '%'
+	bond  pendingBond
 }
 
 type branchOpen struct {
