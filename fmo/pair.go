@@ -37,6 +37,12 @@ type Orientation struct {
 	Label           string    `json:"label"`            // "ortho" | "meta" | "para" | ""
 	EndoOverlap     float64   `json:"endo_overlap"`     // secondary-orbital term, |β|
 	Preferred       bool      `json:"preferred"`
+
+	Score       float64 `json:"score"`        // ranking score: stabilization − localization_weight·localization, |β|
+	NormalTerm  float64 `json:"normal_term"`  // orbital term of the HOMO(diene)–LUMO(dienophile) pairing, |β|
+	InverseTerm float64 `json:"inverse_term"` // orbital term of the LUMO(diene)–HOMO(dienophile) pairing, |β|
+	Kind        string  `json:"kind"`         // "[4+2]" or "[3+2]"
+	RingSize    int     `json:"ring_size"`    // size of the new ring
 }
 
 // SideChannel is a competing reaction the pair analysis checked.
@@ -95,4 +101,14 @@ type Pair struct {
 	Calibration string   `json:"calibration"`  // calibration name used for every eV figure
 	FormingBeta float64  `json:"forming_beta"` // resonance integral assumed for each forming σ bond, units of β
 	Warnings    []string `json:"warnings"`
+
+	SecondaryBeta       float64    `json:"secondary_beta"`       // resonance integral of the secondary (endo) contacts, units of β
+	LocalizationWeight  float64    `json:"localization_weight"`  // λ in score = stabilization − λ·localization
+	ScoreFormula        string     `json:"score_formula"`        // how the ranking score is built
+	ChargeTermOn        bool       `json:"charge_term_on"`       // whether the Coulomb term was included
+	RegioThresholds     [2]float64 `json:"regio_thresholds"`     // [clear, slight] on regio_margin / frontier_term of the best
+	EndoThresholds      [2]float64 `json:"endo_thresholds"`      // [yes, weak] on endo_overlap / frontier_term of the preferred
+	PreferredSite       string     `json:"preferred_site"`       // the winning reacting units
+	PreferredKind       string     `json:"preferred_kind"`       // "[4+2]" or "[3+2]"
+	OrientationsChecked int        `json:"orientations_checked"` // unit pairs × 2 orientations scored
 }

@@ -1,0 +1,337 @@
+package fmo
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+)
+
+// Analyze analyses one 4π partner against one 2π partner over every pair of candidate
+// reacting units, both regio-orientations and both frontier pairings.
+//
+// Ranking. Each orientation gets
+//
+//	stabilization = FrontierTerm + ChargeTerm                      (perturbation energy, |β|)
+//	score         = stabilization − λ·Localization                 (λ = Options.LocalizationWeight)
+//
+// FrontierTerm is the Klopman–Salem orbital term over the frontier levels only (HOMO(diene)–
+// LUMO(dienophile) plus LUMO(diene)–HOMO(dienophile), degenerate sets summed), with the
+// first-order form where a gap is too small (see score.go); Localization is the π energy both
+// partners lose when the termini become sp3. Orientations are sorted by score, best first
+// (ties keep the enumeration order: diene units, dienophile units, orientation 0 then 1).
+// The frontier-only sum is the classic FMO answer; it was chosen over an all-orbital sum
+// because the regiochemistry of substituted partners lives in the frontier coefficients
+// (lower levels dilute it with terms that barely differ between orientations), it stays exact
+// for degenerate sets, and it lets QuickScore reproduce Analyze exactly from a few numbers
+// per unit.
+//
+// Margins and verdicts: RegioMargin is the score difference to the other orientation at the
+// preferred pair of units; SiteMargin the difference to the best orientation at a pair of units
+// giving a different adduct; confidence compares RegioMargin/FrontierTerm with
+// Options.RegioClear and RegioSlight. Endo compares EndoOverlap/FrontierTerm of the
+// preferred orientation with Options.EndoYes and EndoWeak. Demand compares the two gaps of
+// the preferred units with Options.DemandThreshold.
+//
+// Analyze panics on misuse (nil partners, wrong roles, nil Options); it returns an error only
+// if no orientation can be built.
+func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
+	opts.check()
+	if diene == nil || dienophile == nil {
+		panic("fmo.Analyze: nil partner")
+	}
+	if diene.Role != RoleDiene || dienophile.Role != RoleDienophile {
+		panic(fmt.Sprintf("fmo.Analyze: roles %v, %v (want diene, dienophile)", diene.Role, dienophile.Role))
+	}
+	k := opts.kernel()
+	type cand struct {
+		o          Orientation
+		s          orientScore
+		di, ei, or int
+		product    string
+	}
+	var cands []cand
+	for di, du := range diene.Units {
+		dd := &diene.data[di]
+		if !dd.ok {
+			continue
+		}
+		for ei, eu := range dienophile.Units {
+			ed := &dienophile.data[ei]
+			if !ed.ok {
+				continue
+			}
+			for or := 0; or < 2; or++ {
+				s := k.scoreOrientation(dd, ed, du.Kind == UnitDipole, or)
+				pm, bonds := buildProduct(diene, dienophile, di, ei, or)
+				smi := productSMILES(pm)
+				dAtoms := slices.Clone(du.Atoms)
+				eAtoms := []int{bonds[0][1], bonds[1][1]}
+				method := "second-order"
+				if s.firstOrder {
+					method = "first-order"
+				}
+				c := cand{s: s, di: di, ei: ei, or: or, product: smi}
+				c.o = Orientation{
+					Site:            siteName(diene, du, dienophile, eAtoms),
+					DieneAtoms:      dAtoms,
+					DienophileAtoms: eAtoms,
+					Bonds:           bonds,
+					Product:         smi,
+					Stabilization:   s.stab,
+					FrontierTerm:    s.frontier,
+					ChargeTerm:      s.charge,
+					Localization:    s.loc,
+					Score:           s.score,
+					NormalTerm:      s.normal,
+					InverseTerm:     s.inverse,
+					Method:          method,
+					Label:           regioLabel(diene, dienophile, du, eu, or),
+					EndoOverlap:     s.endo,
+					Kind:            cycloKind(du),
+					RingSize:        du.RingSize(),
+				}
+				cands = append(cands, c)
+			}
+		}
+	}
+	if len(cands) == 0 {
+		return nil, fmt.Errorf("%s + %s: %w: no pair of reacting units has both frontier levels",
+			diene.Name, dienophile.Name, ErrNoUnit)
+	}
+	slices.SortStableFunc(cands, func(p, q cand) int {
+		switch {
+		case p.s.score > q.s.score:
+			return -1
+		case p.s.score < q.s.score:
+			return 1
+		}
+		return 0
+	})
+	best := cands[0]
+	pair := &Pair{
+		DieneName:           diene.Name,
+		DienophileName:      dienophile.Name,
+		Diene:               diene.SMILES,
+		Dienophile:          dienophile.SMILES,
+		Activation:          dienophile.Activation,
+		Params:              opts.Params.Name,
+		Calibration:         opts.CalibrationName,
+		FormingBeta:         opts.FormingBeta,
+		SecondaryBeta:       opts.SecondaryBeta,
+		LocalizationWeight:  opts.LocalizationWeight,
+		DemandThreshold:     opts.DemandThreshold,
+		ScoreFormula:        ScoreFormula,
+		SideChannels:        []SideChannel{},
+		Warnings:            []string{},
+		ChargeTermOn:        opts.ChargeTerm,
+		RegioThresholds:     [2]float64{opts.RegioClear, opts.RegioSlight},
+		EndoThresholds:      [2]float64{opts.EndoYes, opts.EndoWeak},
+		PreferredSite:       best.o.Site,
+		PreferredKind:       best.o.Kind,
+		OrientationsChecked: len(cands),
+	}
+	if dienophile.Activation != "none" && dienophile.Active != nil {
+		pair.ActivatedDienophile = productSMILES(dienophile.Active)
+	}
+	for i := range cands {
+		cands[i].o.Preferred = i == 0
+		pair.Orientations = append(pair.Orientations, cands[i].o)
+	}
+
+	// Margins.
+	for _, c := range cands[1:] {
+		if c.di == best.di && c.ei == best.ei {
+			pair.RegioMargin = best.s.score - c.s.score
+			break
+		}
+	}
+	var regioPartner string
+	for _, c := range cands {
+		if c.di == best.di && c.ei == best.ei && c.or != best.or {
+			regioPartner = c.product
+		}
+	}
+	for _, c := range cands[1:] {
+		if (c.di != best.di || c.ei != best.ei) && c.product != best.product && c.product != regioPartner {
+			pair.SiteMargin = best.s.score - c.s.score
+			break
+		}
+	}
+	rel := 0.0
+	if best.s.frontier > 0 {
+		rel = pair.RegioMargin / best.s.frontier
+	}
+	switch {
+	case rel >= opts.RegioClear:
+		pair.RegioConfidence = "clear"
+	case rel >= opts.RegioSlight:
+		pair.RegioConfidence = "slight"
+	default:
+		pair.RegioConfidence = "no preference"
+	}
+	if best.product == regioPartner {
+		pair.RegioConfidence = "no preference" // both orientations give the same adduct
+	}
+
+	// Endo.
+	endoRel := 0.0
+	if best.s.frontier > 0 {
+		endoRel = best.s.endo / best.s.frontier
+	}
+	switch {
+	case best.o.Kind != "[4+2]":
+		pair.Endo = "no"
+	case endoRel >= opts.EndoYes:
+		pair.Endo = "yes"
+	case endoRel >= opts.EndoWeak:
+		pair.Endo = "weak"
+	default:
+		pair.Endo = "no"
+	}
+
+	// Gaps and demand at the preferred units.
+	dd, ed := &diene.data[best.di], &dienophile.data[best.ei]
+	pair.GapNormal = Energy{Beta: best.s.gapN, EV: opts.ev(ed.lumo.X, false) - opts.ev(dd.homo.X, true)}
+	pair.GapInverse = Energy{Beta: best.s.gapI, EV: opts.ev(dd.lumo.X, false) - opts.ev(ed.homo.X, true)}
+	pair.Demand, pair.SustmannType = demand(best.s.gapN, best.s.gapI, opts.DemandThreshold)
+	pair.DieneHOMO = frontierOut(dd.homo, true, opts)
+	pair.DieneLUMO = frontierOut(dd.lumo, false, opts)
+	pair.DienophileHOMO = frontierOut(ed.homo, true, opts)
+	pair.DienophileLUMO = frontierOut(ed.lumo, false, opts)
+
+	// Allowedness of the preferred units.
+	pair.Allowed, pair.AllowedReason = allowedness(dd, ed, diene.Units[best.di].Kind == UnitDipole, best.s)
+
+	// Warnings.
+	warn := func(s string) {
+		if !slices.Contains(pair.Warnings, s) {
+			pair.Warnings = append(pair.Warnings, s)
+		}
+	}
+	for _, w := range diene.Warnings {
+		warn("diene: " + w)
+	}
+	for _, w := range dienophile.Warnings {
+		warn("dienophile: " + w)
+	}
+	if best.s.firstOrder {
+		warn(fmt.Sprintf("frontier gap at or below the coupling (normal %.3f |β|, inverse %.3f |β|): second-order perturbation theory breaks down; the first-order (degenerate) form 2|γΣcc| was used; a polar or stepwise path may compete",
+			best.s.gapN, best.s.gapI))
+	}
+	if best.s.gapN <= 0 || best.s.gapI <= 0 {
+		warn("a frontier gap is negative (the donor's HOMO lies above the acceptor's LUMO): electron transfer is likely; treat the ranking with caution")
+	}
+	return pair, nil
+}
+
+// ScoreFormula is the ranking formula, reported in every Pair.
+const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization; " +
+	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+
+func cycloKind(u Unit) string {
+	if u.Kind == UnitDipole {
+		return "[3+2]"
+	}
+	return "[4+2]"
+}
+
+func siteName(dp *Partner, du Unit, ep *Partner, eAtoms []int) string {
+	var b strings.Builder
+	b.WriteString(du.Describe(dp.Mol))
+	b.WriteString(" + ")
+	b.WriteString(Unit{Kind: UnitPi, Atoms: eAtoms}.Describe(ep.Mol))
+	return b.String()
+}
+
+// demand classifies the pair from the two gaps (|β|): normal (Sustmann type I) when the
+// normal gap is smaller by at least threshold, inverse (type III) when the inverse gap is,
+// neutral (type II) otherwise.
+func demand(gapN, gapI, threshold float64) (string, string) {
+	switch {
+	case gapI-gapN >= threshold:
+		return "normal", "I"
+	case gapN-gapI >= threshold:
+		return "inverse", "III"
+	}
+	return "neutral", "II"
+}
+
+func frontierOut(fs frontierSet, occupied bool, opts *Options) Frontier {
+	return Frontier{Index: fs.Level, X: fs.X, EV: opts.ev(fs.X, occupied), Degenerate: fs.N > 1}
+}
+
+// phaseTol: a terminus coefficient product below this counts as a node (no overlap).
+const phaseTol = 1e-6
+
+// allowedness decides whether the supra–supra thermal pairing is symmetry-allowed from the
+// phases of the frontier orbitals at the termini: with both partners approaching suprafacially,
+// the two forming bonds are simultaneously bonding in a pairing exactly when
+// (c_a·c_d of one partner's level) and (c_1·c_2 of the other's) have the same sign. For a
+// degenerate set the products are the projector elements Σ_members c_a c_d, which do not
+// depend on the basis chosen inside the set. The verdict is taken from the pairing that
+// contributes more to the orbital term; a disagreement between the two pairings is stated.
+// This gives [4+2] and [3+2] allowed and [2+2] and [4+4] forbidden without a rule table.
+func allowedness(d, e *unitData, dipole bool, s orientScore) (bool, string) {
+	tEnd := 3
+	if dipole {
+		tEnd = 2
+	}
+	pN := d.homo.P[0][tEnd] * e.lumo.P[0][1]
+	pI := d.lumo.P[0][tEnd] * e.homo.P[0][1]
+	return phaseVerdict(pN, pI, s.normal >= s.inverse)
+}
+
+func phaseVerdict(pN, pI float64, normalDominant bool) (bool, string) {
+	verdict := func(p float64) string {
+		switch {
+		case math.Abs(p) < phaseTol:
+			return "node at a terminus"
+		case p > 0:
+			return "in phase at both termini"
+		}
+		return "out of phase at one terminus"
+	}
+	dom, other := pN, pI
+	domName, otherName := "HOMO(diene)–LUMO(dienophile)", "LUMO(diene)–HOMO(dienophile)"
+	if !normalDominant {
+		dom, other = pI, pN
+		domName, otherName = otherName, domName
+	}
+	allowed := dom > phaseTol
+	reason := fmt.Sprintf("%s: %s (c_a·c_d × c_1·c_2 = %+.4f); %s: %s (%+.4f)",
+		domName, verdict(dom), dom, otherName, verdict(other), other)
+	if allowed {
+		reason = "supra–supra allowed: " + reason
+	} else {
+		reason = "supra–supra forbidden: " + reason
+	}
+	return allowed, reason
+}
+
+// SupraSupra decides the supra–supra thermal allowedness of joining terminus pair ta of
+// partner a with terminus pair tb of partner b by the frontier-phase rule of Analyze, for
+// any two π units (so [2+2] and [4+4] can be checked too). The frontier sets are those of
+// the π fragments containing the termini; a is taken as the donor of the dominant pairing
+// when its HOMO–LUMO(b) gap is the smaller one.
+func SupraSupra(a *Partner, ta [2]int, b *Partner, tb [2]int) (bool, string) {
+	proj := func(p *Partner, t [2]int) (homo, lumo float64, hx, lx float64) {
+		f := p.Pi.Centres[p.Pi.CentreOf(t[0])].Fragment
+		h, l := fragmentFrontier(p.Orb, f)
+		if h < 0 || l < 0 {
+			return 0, 0, 0, 0
+		}
+		for _, li := range p.Orb.DegenerateSet(h) {
+			homo += p.Orb.Coefficient(li, t[0]) * p.Orb.Coefficient(li, t[1])
+		}
+		for _, li := range p.Orb.DegenerateSet(l) {
+			lumo += p.Orb.Coefficient(li, t[0]) * p.Orb.Coefficient(li, t[1])
+		}
+		return homo, lumo, p.Orb.Levels[h].X, p.Orb.Levels[l].X
+	}
+	ah, al, ahx, alx := proj(a, ta)
+	bh, bl, bhx, blx := proj(b, tb)
+	gN := ahx - blx
+	gI := bhx - alx
+	return phaseVerdict(ah*bl, al*bh, gN <= gI)
+}

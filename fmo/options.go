@@ -1,0 +1,143 @@
+package fmo
+
+import (
+	"fmt"
+
+	"cyclopair/huckel"
+	"cyclopair/presets"
+)
+
+// EVScale converts an orbital energy x (E = α + xβ) to eV. occupied selects the branch for
+// occupied levels (fitted to ionisation energies) or empty levels (fitted to electron
+// affinities) when the calibration has two.
+type EVScale interface {
+	EV(x float64, occupied bool) float64
+}
+
+// Options are the knobs of the pair analysis. Use DefaultOptions and change what you need;
+// every constant used is reported in the Pair so outputs are self-describing.
+type Options struct {
+	// Params is the Hückel parameter set (h and k values, alkyl model).
+	Params *huckel.Params
+	// Calibration converts x to eV; CalibrationName names it in every Pair.
+	Calibration     EVScale
+	CalibrationName string
+
+	// FormingBeta γ is the resonance integral of each forming σ bond, in units of β.
+	// Default 0.3: the forming bonds of a cycloaddition transition state are long (about
+	// 2.2 Å against 1.40 Å for a π bond) and the overlap of the two p lobes there is a few
+	// tenths of a π bond's; judgement, common practice in FMO treatments, no source. Orbital
+	// terms scale as γ², so regio- and site-rankings within the second-order regime do not
+	// depend on it; it sets the first-order switch point and the balance with localisation.
+	FormingBeta float64
+	// SecondaryBeta γ_s is the resonance integral of the secondary (endo) contacts between
+	// the diene's inner atoms and the dienophile's conjugated substituent atoms, units of β.
+	// Default 0.1, a third of FormingBeta: those contacts are about 2.9–3.0 Å (judgement,
+	// no source).
+	SecondaryBeta float64
+	// LocalizationWeight λ weighs the localisation energy (the π energy both partners lose
+	// when the termini become sp3) against the orbital term in the ranking score:
+	//
+	//	score = FrontierTerm + ChargeTerm − λ·Localization
+	//
+	// Default 0.1: an early, reactant-like transition state feels a small fraction of the
+	// π energy change of the full reaction (Bell–Evans–Polanyi / Hammond reasoning;
+	// the value is a judgement, no source). Localisation differs only between sites, never
+	// between the two regio-orientations of one site, so λ decides which unit reacts
+	// (anthracene 9,10 against 1,4, quinone C=C against C=O) but not the regiochemistry.
+	LocalizationWeight float64
+
+	// ChargeTerm switches on the Coulomb term of the Klopman–Salem equation,
+	// −Σ_bonds q_r q_s / (ε R), with π charges q, dielectric constant Dielectric and forming
+	// bond length FormingDistance (Å), converted to |β| with BetaEV. Off by default: Hückel π
+	// charges exaggerate polarity and the term then swamps the orbital term for neutral
+	// partners (common practice, no source).
+	ChargeTerm      bool
+	Dielectric      float64
+	FormingDistance float64 // Å
+	BetaEV          float64 // |β| in eV for the Coulomb term
+
+	// DemandThreshold (|β|): |gap_normal − gap_inverse| below it is "neutral" (Sustmann
+	// type II). Default 0.15 |β| (about 0.4 eV with a 2.5–3 eV β; judgement, no source).
+	DemandThreshold float64
+
+	// Regio confidence from the relative margin between the two orientations at the
+	// preferred site, margin / frontier term of the best: at least RegioClear is "clear",
+	// at least RegioSlight is "slight", below that "no preference".
+	RegioClear, RegioSlight float64
+	// Endo verdict from the relative secondary term, EndoOverlap / FrontierTerm of the
+	// preferred orientation: at least EndoYes is "yes", at least EndoWeak is "weak".
+	EndoYes, EndoWeak float64
+}
+
+// Default values of the numeric options (see the Options fields for the reasoning).
+const (
+	DefaultFormingBeta        = 0.3
+	DefaultSecondaryBeta      = 0.1
+	DefaultLocalizationWeight = 0.1
+	DefaultDemandThreshold    = 0.15
+	DefaultRegioClear         = 0.05
+	DefaultRegioSlight        = 0.01
+	DefaultEndoYes            = 0.02
+	DefaultEndoWeak           = 0.005
+	DefaultDielectric         = 4.0
+	DefaultFormingDistance    = 2.2
+	DefaultBetaEV             = 2.5
+)
+
+// NewOptions returns options with the default constants for the given parameter set and
+// calibration.
+func NewOptions(p *huckel.Params, cal EVScale, calName string) *Options {
+	return &Options{
+		Params:             p,
+		Calibration:        cal,
+		CalibrationName:    calName,
+		FormingBeta:        DefaultFormingBeta,
+		SecondaryBeta:      DefaultSecondaryBeta,
+		LocalizationWeight: DefaultLocalizationWeight,
+		Dielectric:         DefaultDielectric,
+		FormingDistance:    DefaultFormingDistance,
+		BetaEV:             DefaultBetaEV,
+		DemandThreshold:    DefaultDemandThreshold,
+		RegioClear:         DefaultRegioClear,
+		RegioSlight:        DefaultRegioSlight,
+		EndoYes:            DefaultEndoYes,
+		EndoWeak:           DefaultEndoWeak,
+	}
+}
+
+// check panics on options that are programmer errors.
+func (o *Options) check() {
+	if o == nil || o.Params == nil {
+		panic("fmo: Options without Params (use DefaultOptions or NewOptions)")
+	}
+	if o.FormingBeta <= 0 {
+		panic(fmt.Sprintf("fmo: FormingBeta %g must be positive", o.FormingBeta))
+	}
+}
+
+func (o *Options) kernel() kernel {
+	k := kernel{gamma: o.FormingBeta, gammaS: o.SecondaryBeta, locWeight: o.LocalizationWeight}
+	if o.ChargeTerm && o.Dielectric > 0 && o.FormingDistance > 0 && o.BetaEV > 0 {
+		const coulombEVAngstrom = 14.3996 // e²/(4πε₀) in eV·Å (CODATA)
+		k.chargeCoef = coulombEVAngstrom / (o.Dielectric * o.FormingDistance) / o.BetaEV
+	}
+	return k
+}
+
+// ev converts x to eV with the calibration (0 without one: JSON has no NaN).
+func (o *Options) ev(x float64, occupied bool) float64 {
+	if o.Calibration == nil {
+		return 0
+	}
+	return o.Calibration.EV(x, occupied)
+}
+
+// DefaultOptions returns the defaults with the default parameter set (presets.DefaultParams).
+func DefaultOptions() (*Options, error) {
+	p, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		return nil, err
+	}
+	return NewOptions(p, nil, ""), nil
+}

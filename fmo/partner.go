@@ -1,0 +1,310 @@
+package fmo
+
+import (
+	"fmt"
+	"math"
+
+	"cyclopair/huckel"
+	"cyclopair/huckel/molecule"
+	"cyclopair/huckel/smiles"
+)
+
+// Partner is one cycloaddition partner, ready for analysis: parsed, perceived, solved, with
+// its candidate reacting units and the per-unit frontier data that Analyze and QuickScore
+// read. A Partner is immutable after construction and safe for concurrent use.
+type Partner struct {
+	Name, SMILES string
+	Role         Role
+	// Mol is the molecule as parsed, UNACTIVATED: products are built from it.
+	Mol *molecule.Molecule
+	// Activation is "none" unless the partner was activated.
+	Activation string
+	// Active is the molecule whose orbitals are used (== Mol when not activated). Activation
+	// preserves atom indices 0..len(Mol.Atoms)-1 and only appends atoms.
+	Active   *molecule.Molecule
+	Pi       *huckel.PiSystem
+	Orb      *huckel.Orbitals
+	Units    []Unit
+	Warnings []string
+
+	data  []unitData // parallel to Units
+	sides []*side    // parallel to Units: the partner's half of each adduct
+}
+
+// slot layout of unitData: for a diene a,b,c,d; for a dipole a,b,c,- ; for a 2π unit
+// x, y, x', y' where x' and y' are the conjugated substituent centres used for the
+// secondary-orbital (endo) term (-1 when absent).
+const nSlots = 4
+
+// frontierSet is one frontier level set (a degenerate set is summed over its members)
+// restricted to the unit's slots: P[i][j] = Σ_members c_i c_j.
+type frontierSet struct {
+	X float64 // x of the set (E = α + xβ)
+	P [nSlots][nSlots]float64
+	// Level is the index into Orb.Levels of the set's first member, -1 if there is none.
+	Level int
+	N     int // members
+}
+
+// unitData is the precomputed per-unit data (independent of Options).
+type unitData struct {
+	slots [nSlots]int // atom index per slot, -1 if unused
+	homo  frontierSet
+	lumo  frontierSet
+	q     [nSlots]float64 // π charges per slot
+	loc   float64         // localisation energy, |β|
+	ok    bool            // both frontier sets present
+}
+
+// NewPartnerFromMolecule perceives and solves m with opts.Params and finds its reacting
+// units for the given role. Errors: perception and solver errors from package huckel,
+// *SiteError from Sites.
+func NewPartnerFromMolecule(name string, m *molecule.Molecule, role Role, opts *Options) (*Partner, error) {
+	smi := m.Source
+	if name == "" {
+		name = smi
+	}
+	p := &Partner{Name: name, SMILES: smi, Role: role, Mol: m, Activation: "none", Active: m}
+	if err := p.prepare(opts); err != nil {
+		return nil, err
+	}
+	return p, nil
+}
+
+// prepare perceives and solves p.Active and fills units and per-unit data.
+func (p *Partner) prepare(opts *Options) error {
+	pi, err := huckel.Perceive(p.Active, opts.Params)
+	if err != nil {
+		return fmt.Errorf("%s: %w", p.Name, err)
+	}
+	orb, err := huckel.Solve(pi)
+	if err != nil {
+		return fmt.Errorf("%s: %w", p.Name, err)
+	}
+	p.Pi, p.Orb = pi, orb
+	p.Warnings = append(p.Warnings, pi.Warnings...)
+	p.Warnings = append(p.Warnings, orb.Warnings...)
+	if orb.Partial {
+		p.Warnings = append(p.Warnings, fmt.Sprintf("%s: open-shell π system (partly filled frontier shell): perturbation estimates are unreliable", p.Name))
+	}
+	units, err := Sites(p.Name, p.Mol, pi, p.Role)
+	if err != nil {
+		return err
+	}
+	p.Units = units
+	p.data = make([]unitData, len(units))
+	p.sides = make([]*side, len(units))
+	for i, u := range units {
+		s, err := adductSide(p.Mol, u)
+		if err != nil { // Sites already checked this; keep the error path honest
+			return fmt.Errorf("%s: unit %s: %w", p.Name, u.Describe(p.Mol), err)
+		}
+		p.sides[i] = s
+		d, err := p.unitData(u)
+		if err != nil {
+			return err
+		}
+		p.data[i] = d
+	}
+	return nil
+}
+
+// fragmentFrontier returns the HOMO and LUMO level indices of π fragment f (-1 if absent).
+func fragmentFrontier(o *huckel.Orbitals, f int) (homo, lumo int) {
+	homo, lumo = -1, -1
+	for i, l := range o.Levels { // X descending
+		if l.Fragment != f {
+			continue
+		}
+		if l.Occupancy > 0 {
+			homo = i
+		} else if lumo < 0 {
+			lumo = i
+		}
+	}
+	return homo, lumo
+}
+
+func (p *Partner) unitData(u Unit) (unitData, error) {
+	var d unitData
+	for i := range d.slots {
+		d.slots[i] = -1
+	}
+	copy(d.slots[:], u.Atoms)
+	if u.Kind == UnitPi {
+		d.slots[2] = p.endoSubstituent(u, u.Atoms[0], u.Atoms[1])
+		d.slots[3] = p.endoSubstituent(u, u.Atoms[1], u.Atoms[0])
+	}
+	frag := p.Pi.Centres[p.Pi.AtomCentre[u.Atoms[0]]].Fragment
+	h, l := fragmentFrontier(p.Orb, frag)
+	d.homo = p.frontier(h, d.slots)
+	d.lumo = p.frontier(l, d.slots)
+	d.ok = h >= 0 && l >= 0
+	for i, a := range d.slots {
+		if a >= 0 {
+			if c := p.Pi.AtomCentre[a]; c >= 0 {
+				d.q[i] = p.Orb.Charges[c]
+			}
+		}
+	}
+	loc, err := p.localization(u)
+	if err != nil {
+		return d, err
+	}
+	d.loc = loc
+	return d, nil
+}
+
+// frontier builds the slot projector of the degenerate set containing level.
+func (p *Partner) frontier(level int, slots [nSlots]int) frontierSet {
+	fs := frontierSet{Level: level}
+	if level < 0 {
+		return fs
+	}
+	fs.X = p.Orb.Levels[level].X
+	set := p.Orb.DegenerateSet(level)
+	fs.Level = set[0]
+	fs.N = len(set)
+	for _, li := range set {
+		for i, ai := range slots {
+			if ai < 0 {
+				continue
+			}
+			ci := p.Orb.Coefficient(li, ai)
+			for j, aj := range slots {
+				if aj < 0 {
+					continue
+				}
+				fs.P[i][j] += ci * p.Orb.Coefficient(li, aj)
+			}
+		}
+	}
+	return fs
+}
+
+// endoSubstituent picks, for dienophile atom x of unit u, the conjugated substituent centre
+// that can lie under the diene in an endo approach: a one-electron π centre bonded to x, not
+// in the unit (the carbonyl C of an acrylate, the nitrile C, an aryl ipso C). Among several,
+// the one with the largest frontier amplitude (c² summed over the HOMO and LUMO sets of the
+// fragment) is chosen; -1 when x has no such substituent. The endo term is then computed
+// from that atom for every orientation; the SMILES carries no stereo that would tell which
+// substituents are cis, so the most favourable pair is assumed to be cis-disposed.
+func (p *Partner) endoSubstituent(u Unit, x, y int) int {
+	best, bestW := -1, -1.0
+	frag := p.Pi.Centres[p.Pi.AtomCentre[x]].Fragment
+	h, l := fragmentFrontier(p.Orb, frag)
+	for _, e := range p.Mol.Neighbors(x) {
+		s := e.To
+		if s == y {
+			continue
+		}
+		c := p.Pi.CentreOf(s)
+		if c < 0 || !oneElectron(p.Pi.Centres[c]) {
+			continue
+		}
+		w := 0.0
+		for _, lv := range []int{h, l} {
+			if lv < 0 {
+				continue
+			}
+			for _, li := range p.Orb.DegenerateSet(lv) {
+				cf := p.Orb.Coefficient(li, s)
+				w += cf * cf
+			}
+		}
+		if w > bestW+1e-12 {
+			best, bestW = s, w
+		}
+	}
+	return best
+}
+
+// localization is the π energy the partner loses when the unit's termini become sp3:
+//
+//	L = E_π(partner) − E_π(partner without the two termini)     (units of |β|, a cost)
+//
+// both from the same Hückel matrix (huckel.PiSystem.Without). The residual π system holds two
+// π electrons fewer than the partner (they go into the new σ bonds, counted at α like every
+// σ electron). For a 1,3-dipole the termini carry three π electrons (one is the anionic lone
+// pair); the third stays on the middle atom, which keeps a lone pair in the adduct (the N of
+// an isoxazolidine or triazoline). Residual centres keep their h values. A heteroatom
+// terminus thus costs its electronegativity h_r as well: the Hückel form of the stronger
+// π bond of C=O, C=N and C≡N that makes them poorer dienophiles than C=C.
+func (p *Partner) localization(u Unit) (float64, error) {
+	t0, t1 := u.Termini()
+	c0, c1 := p.Pi.CentreOf(t0), p.Pi.CentreOf(t1)
+	removed := p.Pi.Centres[c0].Electrons + p.Pi.Centres[c1].Electrons
+	rest := p.Pi.Without(c0, c1)
+	if extra := removed - 2; extra > 0 {
+		// give the surplus to the inner atom(s) next to the termini
+		for _, a := range u.Atoms[1 : len(u.Atoms)-1] {
+			c := rest.CentreOf(a)
+			for extra > 0 && c >= 0 && rest.Centres[c].Electrons < 2 {
+				rest.Centres[c].Electrons++
+				extra--
+			}
+		}
+		if extra > 0 {
+			return 0, fmt.Errorf("%s: unit %s: cannot place %d π electrons of the termini", p.Name, u.Describe(p.Mol), extra)
+		}
+	}
+	eRest := 0.0
+	if len(rest.Centres) > 0 {
+		o, err := huckel.Solve(rest)
+		if err != nil {
+			return 0, fmt.Errorf("%s: localisation at %s: %w", p.Name, u.Describe(p.Mol), err)
+		}
+		eRest = o.PiEnergy
+	}
+	loc := p.Orb.PiEnergy - eRest
+	if math.IsNaN(loc) {
+		return 0, fmt.Errorf("%s: localisation at %s is not a number", p.Name, u.Describe(p.Mol))
+	}
+	return loc, nil
+}
+
+// NewPartner parses smi (errors from the SMILES reader are returned unchanged, so a caller
+// can report *smiles.Error positions) and builds the partner as NewPartnerFromMolecule does.
+func NewPartner(name, smi string, role Role, opts *Options) (*Partner, error) {
+	m, err := smiles.Parse(smi)
+	if err != nil {
+		return nil, err
+	}
+	if name == "" {
+		name = smi
+	}
+	m.Name = name
+	p, err := NewPartnerFromMolecule(name, m, role, opts)
+	if err != nil {
+		return nil, err
+	}
+	p.SMILES = smi
+	return p, nil
+}
+
+// WithActivation returns a copy of the dienophile partner activated with mode ("none",
+// "proton", "lewis", "iminium"; see Activate): its orbitals and reacting units come from the
+// activated molecule, its products from the unactivated one. act may be nil (defaults).
+// For "lewis" a non-zero act.LewisStrength is applied to the parameter set (LewisParams).
+func (p *Partner) WithActivation(mode string, act *ActivateOptions, opts *Options) (*Partner, error) {
+	if mode == "" || mode == ActivateNone {
+		q := *p
+		return &q, nil
+	}
+	am, warns, err := Activate(p.Mol, mode, act)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", p.Name, err)
+	}
+	o := opts
+	if mode == ActivateLewis && act != nil && act.LewisStrength != 0 {
+		oc := *opts
+		oc.Params = LewisParams(opts.Params, act.LewisStrength)
+		o = &oc
+	}
+	q := &Partner{Name: p.Name, SMILES: p.SMILES, Role: p.Role, Mol: p.Mol, Activation: mode, Active: am}
+	q.Warnings = append(q.Warnings, warns...)
+	if err := q.prepare(o); err != nil {
+		return nil, err
+	}
+	return q, nil
+}

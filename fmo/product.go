@@ -1,0 +1,117 @@
+package fmo
+
+import (
+	"cyclopair/huckel/molecule"
+	"cyclopair/huckel/smiles"
+)
+
+// buildProduct assembles the cycloadduct of diene unit di with dienophile unit ei in
+// orientation o from the UNACTIVATED partner molecules (Partner.Mol): the atoms are the
+// diene's in their own order followed by the dienophile's (dienophile atom i becomes
+// len(diene.Mol.Atoms)+i), the two new σ bonds are added, and each partner takes the
+// Kekulé structure and charges derived for it by adductSide (termini sp3 with their
+// hydrogens unchanged, the shifted double bond(s), aromatic rings elsewhere re-matched).
+// A 1,2,4,5-tetrazine gives the bicyclic primary adduct, before the retro-Diels–Alder loss of
+// N₂ that normally follows. Atom maps are cleared so the product SMILES is plain.
+//
+// bonds are the new σ bonds as [diene atom, dienophile atom] in each partner's own numbering.
+func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [2][2]int) {
+	du, eu := dp.Units[di], ep.Units[ei]
+	ds, es := dp.sides[di], ep.sides[ei]
+	off := len(dp.Mol.Atoms)
+	m = &molecule.Molecule{Name: "adduct"}
+	add := func(src *molecule.Molecule, sd *side, offset int) {
+		for i, a := range src.Atoms {
+			a.Charge = sd.charge[i]
+			a.Map = 0
+			a.Aromatic = false
+			a.Pos = -1
+			m.Atoms = append(m.Atoms, a)
+		}
+		for bi, b := range src.Bonds {
+			m.Bonds = append(m.Bonds, molecule.Bond{A: b.A + offset, B: b.B + offset, Order: sd.orders[bi], Stereo: b.Stereo})
+		}
+	}
+	add(dp.Mol, ds, 0)
+	add(ep.Mol, es, off)
+	m.Reindex()
+	a, d := du.Termini()
+	x, y := eu.Atoms[0], eu.Atoms[1]
+	if o == 1 {
+		x, y = y, x
+	}
+	m.AddBond(a, x+off, 1)
+	m.AddBond(d, y+off, 1)
+	bonds = [2][2]int{{a, x}, {d, y}}
+	return m, bonds
+}
+
+// productSMILES writes the adduct.
+func productSMILES(m *molecule.Molecule) string { return smiles.Write(m) }
+
+// regioLabel names the ortho/meta/para relationship of the adduct's two substituents, or ""
+// when it does not apply. It applies to [4+2] adducts where each partner carries exactly one
+// substituent on its reacting unit: a heavy atom bonded to a unit atom that is not itself in
+// the unit (for a cyclic diene the ring atoms count, so cyclopentadiene never gets a label).
+// The label is the distance, around the new six-membered ring a–b–c–d–y–x (a bonded to x, d
+// to y), between the ring atom carrying the diene's substituent and the ring atom carrying the
+// dienophile's: 1 = "ortho" (1,2-relationship), 2 = "meta" (1,3), 3 = "para" (1,4). So a
+// 1-substituted diene gives ortho or meta, a 2-substituted diene meta or para.
+func regioLabel(dp, ep *Partner, du, eu Unit, o int) string {
+	if du.Kind != UnitDiene {
+		return ""
+	}
+	sd := substituted(dp.Mol, du.Atoms)
+	se := substituted(ep.Mol, eu.Atoms)
+	if len(sd) != 1 || len(se) != 1 {
+		return ""
+	}
+	x, y := eu.Atoms[0], eu.Atoms[1]
+	if o == 1 {
+		x, y = y, x
+	}
+	// ring positions 0..5: a b c d y x
+	pos := -1
+	for i, at := range du.Atoms {
+		if at == sd[0] {
+			pos = i
+		}
+	}
+	epos := 5
+	if se[0] == y {
+		epos = 4
+	}
+	dist := epos - pos
+	if dist < 0 {
+		dist = -dist
+	}
+	if dist > 3 {
+		dist = 6 - dist
+	}
+	switch dist {
+	case 1:
+		return "ortho"
+	case 2:
+		return "meta"
+	case 3:
+		return "para"
+	}
+	return ""
+}
+
+// substituted returns the unit atoms that carry a substituent, one entry per substituent.
+func substituted(m *molecule.Molecule, unit []int) []int {
+	in := map[int]bool{}
+	for _, a := range unit {
+		in[a] = true
+	}
+	var out []int
+	for _, a := range unit {
+		for _, e := range m.Neighbors(a) {
+			if !in[e.To] && m.Atoms[e.To].Element != "H" {
+				out = append(out, a)
+			}
+		}
+	}
+	return out
+}
