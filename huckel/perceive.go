@@ -167,6 +167,9 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			return &PerceiveError{Atom: i, Label: atomLabel(a), Err: ErrUnsupported,
 				Msg: what + " (write the neutral closed-shell form, or a charged form with a formal charge on this atom)"}
 		}
+		if np == 0 && !farDonor[i] && touchesDropped(m, i, dropped) {
+			continue // its only multiple bonds were dropped: outside the π system
+		}
 		if np == 0 && farDonor[i] {
 			switch {
 			case a.Element == "O" && a.Charge == 0:
@@ -401,6 +404,15 @@ func atomLabel(a *molecule.Atom) string {
 		return fmt.Sprintf("%s+%d", a.Element, a.Charge)
 	}
 	return fmt.Sprintf("%s%d", a.Element, a.Charge)
+}
+
+func touchesDropped(m *molecule.Molecule, i int, dropped []bool) bool {
+	for _, e := range m.Neighbors(i) {
+		if dropped[e.Bond] && m.Bonds[e.Bond].Order > 1 {
+			return true
+		}
+	}
+	return false
 }
 
 func touchesMultiple(m *molecule.Molecule, i int, dropped []bool) bool {
