@@ -1,0 +1,443 @@
+package fmo
+
+import (
+	"errors"
+	"math"
+	"slices"
+	"strings"
+	"testing"
+
+	"cyclopair/huckel/molecule"
+	"cyclopair/huckel/smiles"
+)
+
+// Tolerances named per quantity.
+const (
+	tolScore = 1e-12 // |β|: the same kernel evaluated twice must agree to rounding
+	tolSym   = 1e-9  // |β|: symmetry-equivalent orientations
+)
+
+func testOptions(t testing.TB) *Options {
+	t.Helper()
+	o, err := DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return o
+}
+
+func mustPartner(t testing.TB, smi string, role Role, o *Options) *Partner {
+	t.Helper()
+	p, err := NewPartner("", smi, role, o)
+	if err != nil {
+		t.Fatalf("%s: %v", smi, err)
+	}
+	return p
+}
+
+func mustAnalyze(t testing.TB, diene, dienophile string) (*Pair, *Partner, *Partner) {
+	t.Helper()
+	o := testOptions(t)
+	d := mustPartner(t, diene, RoleDiene, o)
+	e := mustPartner(t, dienophile, RoleDienophile, o)
+	p, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatalf("%s + %s: %v", diene, dienophile, err)
+	}
+	return p, d, e
+}
+
+// termini returns the set of diene termini of the preferred orientation, sorted.
+func preferredTermini(p *Pair) []int {
+	o := p.Orientations[0]
+	t := []int{o.Bonds[0][0], o.Bonds[1][0]}
+	slices.Sort(t)
+	return t
+}
+
+func TestButadieneEthylene(t *testing.T) {
+	// Closed form (Hückel): butadiene x = ±1.618, ±0.618; ethylene x = ±1 (Streitwieser
+	// 1961, ch. 2), so both gaps are 1.618 |β| and the pair is Sustmann type II.
+	// Allowedness: Woodward & Hoffmann, Angew. Chem. Int. Ed. 1969, 8, 781 ([π4s+π2s]).
+	// Symmetry: butadiene and ethylene are symmetric, so both orientations are one.
+	p, _, _ := mustAnalyze(t, "C=CC=C", "C=C")
+	if !p.Allowed {
+		t.Errorf("butadiene + ethylene: allowed = false (%s)", p.AllowedReason)
+	}
+	const tolGap = 1e-9 // |β|
+	phi := (1 + math.Sqrt(5)) / 2
+	if math.Abs(p.GapNormal.Beta-phi) > tolGap || math.Abs(p.GapInverse.Beta-phi) > tolGap {
+		t.Errorf("gaps %.6f, %.6f; want %.6f both", p.GapNormal.Beta, p.GapInverse.Beta, phi)
+	}
+	if p.Demand != "neutral" || p.SustmannType != "II" {
+		t.Errorf("demand %s type %s; want neutral II", p.Demand, p.SustmannType)
+	}
+	if len(p.Orientations) != 2 {
+		t.Fatalf("%d orientations; want 2", len(p.Orientations))
+	}
+	if d := math.Abs(p.Orientations[0].Score - p.Orientations[1].Score); d > tolSym {
+		t.Errorf("orientations differ by %g |β|; want equal", d)
+	}
+	if p.RegioMargin > tolSym || p.RegioConfidence != "no preference" {
+		t.Errorf("regio margin %g, confidence %q; want 0, no preference", p.RegioMargin, p.RegioConfidence)
+	}
+	if p.Orientations[0].Label != "" {
+		t.Errorf("label %q for unsubstituted partners; want empty", p.Orientations[0].Label)
+	}
+	// Closed form of the frontier term: HOMO(butadiene) c1 = c4 magnitude 0.6015,
+	// LUMO(ethylene) 1/√2; normal pairing 2(γ·2·0.6015/√2)²/1.618, and the inverse pairing
+	// is equal by the pairing symmetry of alternant hydrocarbons.
+	c1 := math.Sqrt(2.0/5) * math.Sin(2*math.Pi/5) // butadiene HOMO coefficient at C1: √(2/(n+1))·sin(rjπ/(n+1)), Coulson
+	v := DefaultFormingBeta * 2 * c1 / math.Sqrt2
+	want := 2 * (2 * v * v / phi) // both pairings
+	if got := p.Orientations[0].FrontierTerm; math.Abs(got-want) > 1e-9 {
+		t.Errorf("frontier term %.9f; want %.9f (closed form)", got, want)
+	}
+	checkProducts(t, p, 6)
+}
+
+// checkProducts verifies every product: it reads back with smiles.Parse, conserves heavy
+// atoms, hydrogens and net charge of the two partners (a cycloaddition adds nothing), has one
+// ring more than the two partners together (two new bonds join two components), and the
+// preferred orientation closes a ring of the expected size through its reacting units.
+func checkProducts(t *testing.T, p *Pair, ring int) {
+	t.Helper()
+	dm, err := smiles.Parse(p.Diene)
+	if err != nil {
+		t.Fatal(err)
+	}
+	em, err := smiles.Parse(p.Dienophile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	heavy, hs, charge := counts(dm)
+	h2, hs2, c2 := counts(em)
+	heavy, hs, charge = heavy+h2, hs+hs2, charge+c2
+	rings := ringCount(dm) + ringCount(em) + 1
+	for _, o := range p.Orientations {
+		m, err := smiles.Parse(o.Product)
+		if err != nil {
+			t.Errorf("product %s does not read back: %v", o.Product, err)
+			continue
+		}
+		a, h, c := counts(m)
+		if a != heavy || h != hs || c != charge {
+			t.Errorf("product %s: %d heavy atoms, %d H, charge %d; want %d, %d, %d", o.Product, a, h, c, heavy, hs, charge)
+		}
+		if r := ringCount(m); r != rings {
+			t.Errorf("product %s has %d rings; want %d", o.Product, r, rings)
+		}
+	}
+	if ring > 0 {
+		if got := p.Orientations[0].RingSize; got != ring {
+			t.Errorf("%s: ring size %d; want %d", p.Orientations[0].Site, got, ring)
+		}
+		if got := newRingSize(t, p); got != ring {
+			t.Errorf("new ring of %s has %d atoms; want %d", p.Orientations[0].Product, got, ring)
+		}
+	}
+}
+
+// ringCount is the cyclomatic number bonds − atoms + components.
+func ringCount(m *molecule.Molecule) int {
+	return len(m.Bonds) - len(m.Atoms) + len(m.Components())
+}
+
+func counts(m *molecule.Molecule) (heavy, h, charge int) {
+	for _, a := range m.Atoms {
+		if a.Element == "H" {
+			h++
+		} else {
+			heavy++
+		}
+		h += a.HCount
+		charge += a.Charge
+	}
+	return
+}
+
+// newRingSize rebuilds the preferred adduct and walks the new ring a–b–(c–)d–y–x–a through
+// the reacting units and the two new bonds, checking that every step is a bond of the adduct;
+// it returns the ring length, or 0 if a step is missing.
+func newRingSize(t *testing.T, p *Pair) int {
+	t.Helper()
+	o := testOptions(t)
+	d := mustPartner(t, p.Diene, RoleDiene, o)
+	e := mustPartner(t, p.Dienophile, RoleDienophile, o)
+	best := p.Orientations[0]
+	di := slices.IndexFunc(d.Units, func(u Unit) bool { return slices.Equal(u.Atoms, best.DieneAtoms) })
+	ei := slices.IndexFunc(e.Units, func(u Unit) bool {
+		return slices.Equal(u.Atoms, best.DienophileAtoms) || slices.Equal(u.Atoms, []int{best.DienophileAtoms[1], best.DienophileAtoms[0]})
+	})
+	if di < 0 || ei < 0 {
+		t.Fatalf("preferred units not found")
+	}
+	or := 0
+	if e.Units[ei].Atoms[0] != best.DienophileAtoms[0] {
+		or = 1
+	}
+	m, _ := buildProduct(d, e, di, ei, or)
+	off := len(d.Mol.Atoms)
+	cycle := slices.Clone(best.DieneAtoms)
+	cycle = append(cycle, best.DienophileAtoms[1]+off, best.DienophileAtoms[0]+off)
+	for i := range cycle {
+		if m.BondBetween(cycle[i], cycle[(i+1)%len(cycle)]) < 0 {
+			return 0
+		}
+	}
+	return len(cycle)
+}
+
+func TestAllowedness(t *testing.T) {
+	// Woodward & Hoffmann, Angew. Chem. Int. Ed. 1969, 8, 781: thermal [π4s+π2s] (Diels–Alder)
+	// and the 1,3-dipolar [π4s+π2s] (Huisgen, Angew. Chem. Int. Ed. 1963, 2, 565) are allowed,
+	// thermal [π2s+π2s] and [π4s+π4s] are forbidden.
+	o := testOptions(t)
+	p, _, _ := mustAnalyze(t, "C=CC=C", "C=C")
+	if !p.Allowed {
+		t.Errorf("[4+2]: allowed = false: %s", p.AllowedReason)
+	}
+	p, _, _ = mustAnalyze(t, "C=[N+]=[N-]", "C=C") // diazomethane + ethylene
+	if !p.Allowed || p.Orientations[0].Kind != "[3+2]" {
+		t.Errorf("[3+2]: allowed = %v kind %s: %s", p.Allowed, p.Orientations[0].Kind, p.AllowedReason)
+	}
+	eth := mustPartner(t, "C=C", RoleDienophile, o)
+	if ok, why := SupraSupra(eth, [2]int{0, 1}, eth, [2]int{0, 1}); ok {
+		t.Errorf("[2+2]: allowed: %s", why)
+	}
+	bd := mustPartner(t, "C=CC=C", RoleDiene, o)
+	if ok, why := SupraSupra(bd, [2]int{0, 3}, bd, [2]int{0, 3}); ok {
+		t.Errorf("[4+4]: allowed: %s", why)
+	}
+	if ok, why := SupraSupra(bd, [2]int{0, 3}, eth, [2]int{0, 1}); !ok {
+		t.Errorf("[4+2] via SupraSupra: forbidden: %s", why)
+	}
+}
+
+func TestSiteSelectivity(t *testing.T) {
+	cases := []struct {
+		name, diene, dienophile string
+		termini                 []int // expected diene termini (0-based), sorted
+		dienophileAtoms         []int // expected dienophile atoms, sorted (nil: not checked)
+		ring                    int
+		source                  string
+	}{
+		{"anthracene 9,10", "c1ccc2cc3ccccc3cc2c1", "O=C1OC(=O)C=C1", []int{4, 11}, []int{5, 6}, 6,
+			"Diels & Alder, Liebigs Ann. Chem. 1931, 486, 191 (anthracene + maleic anhydride at 9,10); from memory"},
+		{"p-benzoquinone reacts at C=C", "C1=CC=CC1", "O=C1C=CC(=O)C=C1", []int{0, 3}, nil, 6,
+			"Diels & Alder, Liebigs Ann. Chem. 1928, 460, 98 (cyclopentadiene + p-benzoquinone); from memory"},
+		{"phenyl azide through N1/N3", "[N-]=[N+]=Nc1ccccc1", "C1=CC2CCC1C2", []int{0, 2}, []int{0, 1}, 5,
+			"Huisgen, Angew. Chem. Int. Ed. 1963, 2, 565 (aryl azides + norbornene give triazolines); from memory"},
+		{"cyclopentadiene C1-C4", "C1=CC=CC1", "C=CC(=O)OC", []int{0, 3}, []int{0, 1}, 6,
+			"Diels & Alder 1928; textbook (Fleming, Frontier Orbitals and Organic Chemical Reactions, Wiley 1976)"},
+		{"furan oxa-bridge", "c1ccoc1", "O=C1OC(=O)C=C1", []int{2, 4}, []int{5, 6}, 6,
+			"Diels & Alder, Ber. 1929, 62, 554 (furan + maleic anhydride); from memory"},
+		{"2-pyrone C3-C6", "O=c1cccco1", "C#CC(=O)OC", []int{2, 5}, []int{0, 1}, 6,
+			"Diels & Alder 1931; 2-pyrones add alkynes across C3/C6 then lose CO2 (Afarinkia et al., Tetrahedron 1992, 48, 9111); from memory"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p, _, _ := mustAnalyze(t, c.diene, c.dienophile)
+			if got := preferredTermini(p); !slices.Equal(got, c.termini) {
+				t.Errorf("preferred diene termini %v (%s); want %v [%s]", got, p.PreferredSite, c.termini, c.source)
+			}
+			if c.dienophileAtoms != nil {
+				got := slices.Clone(p.Orientations[0].DienophileAtoms)
+				slices.Sort(got)
+				if !slices.Equal(got, c.dienophileAtoms) {
+					t.Errorf("preferred dienophile atoms %v (%s); want %v [%s]", got, p.PreferredSite, c.dienophileAtoms, c.source)
+				}
+			}
+			checkProducts(t, p, c.ring)
+		})
+	}
+	// Benzoquinone: the preferred dienophile unit is a C=C, not a C=O.
+	p, _, e := mustAnalyze(t, "C1=CC=CC1", "O=C1C=CC(=O)C=C1")
+	for _, a := range p.Orientations[0].DienophileAtoms {
+		if e.Mol.Atoms[a].Element != "C" {
+			t.Errorf("benzoquinone reacts through %s (atom %d); want its C=C (Diels & Alder 1928)", e.Mol.Atoms[a].Element, a)
+		}
+	}
+}
+
+func TestRegiochemistry(t *testing.T) {
+	cases := []struct {
+		diene, dienophile, label string
+		source                   string
+	}{
+		// Isoprene + methyl acrylate gives mainly the "para" (1,4) adduct, about 70:30 thermally.
+		{"C=CC(C)=C", "C=CC(=O)OC", "para", "Fleming, Frontier Orbitals and Organic Chemical Reactions, Wiley 1976, ch. 4; from memory"},
+		// 1-Methoxybutadiene + acrolein gives the "ortho" (1,2) adduct.
+		{"COC=CC=C", "C=CC=O", "ortho", "Fleming 1976, ch. 4 (1-substituted dienes give ortho adducts); from memory"},
+		// 2-Methoxybutadiene (donor at C2) + acrylonitrile: "para".
+		{"C=CC(OC)=C", "C=CC#N", "para", "Fleming 1976, ch. 4 (2-substituted dienes give para adducts); from memory"},
+		// Piperylene (1-methylbutadiene) + methyl acrylate: "ortho".
+		{"CC=CC=C", "C=CC(=O)OC", "ortho", "Fleming 1976, ch. 4; from memory"},
+	}
+	for _, c := range cases {
+		t.Run(c.diene+"+"+c.dienophile, func(t *testing.T) {
+			p, _, _ := mustAnalyze(t, c.diene, c.dienophile)
+			best := p.Orientations[0]
+			if best.Label != c.label {
+				t.Errorf("preferred label %q (%s, margin %.5f |β|); want %q [%s]", best.Label, best.Product, p.RegioMargin, c.label, c.source)
+			}
+			if p.RegioMargin <= 0 || p.RegioConfidence == "no preference" {
+				t.Errorf("regio margin %g (%s); want a preference", p.RegioMargin, p.RegioConfidence)
+			}
+			checkProducts(t, p, 6)
+		})
+	}
+}
+
+func TestEndo(t *testing.T) {
+	// Alder's endo rule: cyclopentadiene + maleic anhydride gives the endo adduct
+	// (Alder & Stein, Angew. Chem. 1937, 50, 510).
+	p, _, _ := mustAnalyze(t, "C1=CC=CC1", "O=C1OC(=O)C=C1")
+	if p.Endo != "yes" {
+		t.Errorf("cyclopentadiene + maleic anhydride: endo %q (overlap %.5f, frontier %.5f); want yes",
+			p.Endo, p.Orientations[0].EndoOverlap, p.Orientations[0].FrontierTerm)
+	}
+	// No conjugated substituent, no secondary term: ethylene.
+	p, _, _ = mustAnalyze(t, "C1=CC=CC1", "C=C")
+	if p.Endo != "no" || p.Orientations[0].EndoOverlap != 0 {
+		t.Errorf("cyclopentadiene + ethylene: endo %q overlap %g; want no, 0", p.Endo, p.Orientations[0].EndoOverlap)
+	}
+}
+
+func TestDemand(t *testing.T) {
+	cases := []struct {
+		diene, dienophile, demand, sustmann string
+		source                              string
+	}{
+		{"C=CC=C", "N#CC(C#N)=C(C#N)C#N", "normal", "I",
+			"Sauer & Sustmann, Angew. Chem. Int. Ed. 1980, 19, 779 (TCNE: normal demand)"},
+		{"COC(=O)c1nnc(C(=O)OC)nn1", "C=COCC", "inverse", "III",
+			"Boger, Chem. Rev. 1986, 86, 781; Sauer et al. (tetrazine diester + enol ethers: inverse demand)"},
+		{"COC(=O)c1nnc(C(=O)OC)nn1", "C=CN1CCCC1", "inverse", "III",
+			"Boger, Chem. Rev. 1986, 86, 781 (tetrazines + enamines: inverse demand)"},
+		{"C1=CC=CC1", "O=C1OC(=O)C=C1", "normal", "I",
+			"Sauer & Sustmann 1980 (maleic anhydride + cyclopentadiene: normal demand)"},
+	}
+	for _, c := range cases {
+		p, _, _ := mustAnalyze(t, c.diene, c.dienophile)
+		if p.Demand != c.demand || p.SustmannType != c.sustmann {
+			t.Errorf("%s + %s: demand %s (type %s; gaps %.3f, %.3f |β|); want %s (%s) [%s]",
+				c.diene, c.dienophile, p.Demand, p.SustmannType, p.GapNormal.Beta, p.GapInverse.Beta, c.demand, c.sustmann, c.source)
+		}
+		if !(p.GapNormal.Beta > 0 && p.GapInverse.Beta > 0) {
+			t.Errorf("%s + %s: gaps %g, %g; want positive", c.diene, c.dienophile, p.GapNormal.Beta, p.GapInverse.Beta)
+		}
+	}
+	// The tetrazine reacts across C3/C6 (atoms 4 and 7) and the adduct is the bicyclic
+	// primary adduct, still holding both N=N (before N₂ loss).
+	p, _, _ := mustAnalyze(t, "COC(=O)c1nnc(C(=O)OC)nn1", "C=COCC")
+	if got := preferredTermini(p); !slices.Equal(got, []int{4, 7}) {
+		t.Errorf("tetrazine termini %v; want [4 7] (C3, C6) [Boger 1986]", got)
+	}
+	if n := strings.Count(p.Orientations[0].Product, "N=N"); n != 2 {
+		t.Errorf("tetrazine adduct %s shows %d N=N; want 2 (bicyclic adduct before N₂ loss)", p.Orientations[0].Product, n)
+	}
+	checkProducts(t, p, 6)
+}
+
+func TestPinnedSites(t *testing.T) {
+	o := testOptions(t)
+	e := mustPartner(t, "O=C1OC(=O)C=C1", RoleDienophile, o)
+	// Pin anthracene's 1,4 positions: the analysis must use them.
+	d := mustPartner(t, "c1c[cH:1]c2cc3ccccc3cc2[cH:2]1", RoleDiene, o)
+	if len(d.Units) != 1 || !d.Units[0].Pinned {
+		t.Fatalf("pinned anthracene: %d units %+v; want one pinned", len(d.Units), d.Units)
+	}
+	p, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := preferredTermini(p); !slices.Equal(got, []int{2, 13}) {
+		t.Errorf("pinned termini %v; want [2 13]", got)
+	}
+	// Maps that match no unit.
+	_, err = NewPartner("", "[CH2:1]=CC=[CH:2]C", RoleDiene, o) // C1 and C4 mapped: fine
+	if err != nil {
+		t.Errorf("mapped 1,3-pentadiene termini: %v", err)
+	}
+	_, err = NewPartner("pin-miss", "[CH2:1]=[CH:2]C=CC", RoleDiene, o)
+	var se *SiteError
+	if !errors.Is(err, ErrPinNoMatch) || !errors.As(err, &se) || se.Partner != "pin-miss" || !slices.Equal(se.Mapped, []int{0, 1}) {
+		t.Errorf("maps on C1, C2: err %v; want ErrPinNoMatch naming pin-miss and atoms 0, 1", err)
+	}
+	// Maps on four atoms that are the termini of two units: ambiguous.
+	_, err = NewPartner("", "c1c[cH:1]c2[cH:3]c3ccccc3[cH:4]c2[cH:2]1", RoleDiene, o)
+	if !errors.Is(err, ErrPinAmbiguous) {
+		t.Errorf("ambiguous maps: err %v; want ErrPinAmbiguous", err)
+	}
+	if err != nil && !strings.Contains(err.Error(), "mapped atoms") {
+		t.Errorf("error %q does not list the mapped atoms", err)
+	}
+}
+
+func TestNoReactingUnit(t *testing.T) {
+	o := testOptions(t)
+	for _, c := range []struct {
+		smi  string
+		role Role
+	}{
+		{"CCCC", RoleDiene},     // no π system
+		{"C=CCC=C", RoleDiene},  // skipped diene: no conjugated 4π unit
+		{"CCO", RoleDienophile}, // no π bond
+		{"C1=CC=C1", RoleDiene}, // a–d bonded (4-ring), and no other unit
+		{"CC(C)=O", RoleDiene},  // a carbonyl alone is no 4π unit
+		{"C=CC=C", RoleDiene},   // control: has one
+	} {
+		_, err := NewPartner("", c.smi, c.role, o)
+		want := c.smi != "C=CC=C"
+		if got := errors.Is(err, ErrNoUnit); got != want {
+			t.Errorf("%s as %v: err %v; want ErrNoUnit %v", c.smi, c.role, err, want)
+		}
+	}
+}
+
+func TestQuickScoreAgreesWithAnalyze(t *testing.T) {
+	o := testOptions(t)
+	dienes := []string{"C=CC=C", "C=CC(C)=C", "COC=CC=C", "C1=CC=CC1", "c1ccoc1", "c1ccc2cc3ccccc3cc2c1",
+		"[N-]=[N+]=Nc1ccccc1", "COC(=O)c1nnc(C(=O)OC)nn1", "C=CC(=O)C", "[O-][N+](C)=Cc1ccccc1"}
+	dienophiles := []string{"C=C", "C=CC(=O)OC", "C=CC=O", "O=C1OC(=O)C=C1", "O=C1C=CC(=O)C=C1", "C=COCC", "C#CC(=O)OC", "N#CC(C#N)=C(C#N)C#N"}
+	for _, ds := range dienes {
+		d := mustPartner(t, ds, RoleDiene, o)
+		for _, es := range dienophiles {
+			e := mustPartner(t, es, RoleDienophile, o)
+			p, err := Analyze(d, e, o)
+			if err != nil {
+				t.Fatal(err)
+			}
+			q := QuickScore(d, e, o)
+			best := p.Orientations[0]
+			if !q.OK || math.Abs(q.Best-best.Score) > tolScore || math.Abs(q.RegioMargin-p.RegioMargin) > tolScore ||
+				math.Abs(q.Endo-best.EndoOverlap) > tolScore || math.Abs(q.GapNormal-p.GapNormal.Beta) > tolScore {
+				t.Errorf("%s + %s: quick %+v; analyze best %.12f margin %.12f endo %.12f", ds, es, q, best.Score, p.RegioMargin, best.EndoOverlap)
+			}
+			wantDemand := map[string]int8{"normal": 1, "inverse": -1, "neutral": 0}[p.Demand]
+			if q.Demand != wantDemand {
+				t.Errorf("%s + %s: quick demand %d; analyze %s", ds, es, q.Demand, p.Demand)
+			}
+		}
+	}
+}
+
+func TestPairingTermContinuity(t *testing.T) {
+	// The switch from second-order 2S/g to first-order 2√S happens at g = √S, where both are
+	// equal (two-level problem: the exact stabilisation √(g²+4S) − g has these two limits).
+	const tol = 1e-12 // |β|
+	s := 0.04
+	g := math.Sqrt(s)
+	lo, f1 := pairingTerm(s, g*(1-1e-9))
+	hi, f2 := pairingTerm(s, g*(1+1e-9))
+	if !f1 || f2 || math.Abs(lo-hi) > 1e-9 {
+		t.Errorf("at the switch: first-order %v %.12f, second-order %v %.12f", f1, lo, f2, hi)
+	}
+	if e, fo := pairingTerm(s, -0.5); !fo || math.Abs(e-2*math.Sqrt(s)) > tol {
+		t.Errorf("negative gap: %g first-order %v; want 2√S", e, fo)
+	}
+	if e, _ := pairingTerm(s, 2); math.Abs(e-2*s/2) > tol {
+		t.Errorf("large gap: %g; want 2S/g", e)
+	}
+}
