@@ -17,8 +17,9 @@ For every input the fixture records what RDKit (Chem.MolFromSmiles with removeHs
 atoms keep the input order, including explicit [H] atoms) finds: per atom the element,
 formal charge, isotope, atom-map number and total attached hydrogens not written as atoms
 (GetTotalNumHs()), the number of ring bonds, and RDKit's canonical SMILES with
-stereochemistry removed (our reader drops chirality on purpose). Inputs RDKit rejects are
-recorded with rdkit_ok=false and its message.
+stereochemistry removed (our reader drops chirality on purpose), and three random SMILES of
+the same molecule (RDKit MolToRandomSmilesVect, fixed seed; two aromatic, one Kekulé) for the
+test of our Canonical. Inputs RDKit rejects are recorded with rdkit_ok=false and its message.
 
 The second part checks our writer: RDKit reads our Kekulé output for each input and the
 fixture records whether its canonical SMILES (stereo removed) equals the canonical SMILES
@@ -106,6 +107,15 @@ def main():
         n_ok += 1
         rec["rdkit_ok"] = True
         rec["canonical"] = canonical(mol)
+        # the same molecule written from random atom orders (two aromatic, one Kekulé), for
+        # the Go test that Canonical gives one string per molecule
+        flat = Chem.Mol(mol)
+        Chem.RemoveStereochemistry(flat)
+        rnd = list(Chem.MolToRandomSmilesVect(flat, 2, randomSeed=20261202))
+        kek = Chem.Mol(flat)
+        Chem.Kekulize(kek, clearAromaticFlags=True)
+        rnd += list(Chem.MolToRandomSmilesVect(kek, 1, randomSeed=20261202, kekuleSmiles=True))
+        rec["random"] = rnd
         rec["ring_bonds"] = sum(1 for b in mol.GetBonds() if b.IsInRing())
         # per atom: [element, formal charge, total H not written as atoms, isotope, map]
         rec["atoms"] = [

@@ -101,7 +101,9 @@ func allowedValences(element string, charge int) (vals []int, checked, ok bool) 
 
 // Default valences of the OpenSMILES organic subset, used for the implicit hydrogens of
 // atoms written without brackets. Source: OpenSMILES specification, section 3.1.5
-// "Organic subset" (Craig A. James et al., opensmiles.org, 2007–2016).
+// "Organic subset" (Craig A. James et al., opensmiles.org, 2007–2016). One extension: I
+// also takes 3 and 5, as RDKit does (its periodic table, checked with RDKit 2022.09.3), so
+// hypervalent iodine written as RDKit writes it, CC(=O)OI(OC(C)=O)c1ccccc1, reads.
 var (
 	valB   = []int{3}
 	valC   = []int{4}
@@ -109,6 +111,7 @@ var (
 	valO   = []int{2}
 	valS   = []int{2, 4, 6}
 	valHal = []int{1}
+	valI   = []int{1, 3, 5}
 )
 
 // organicVals returns the default valences of an organic-subset element, nil otherwise.
@@ -124,8 +127,10 @@ func organicVals(element string) []int {
 		return valS
 	case "B":
 		return valB
-	case "F", "Cl", "Br", "I":
+	case "F", "Cl", "Br":
 		return valHal
+	case "I":
+		return valI
 	}
 	return nil
 }

@@ -51,6 +51,7 @@ type fixtureMol struct {
 	Canonical  string        `json:"canonical"`
 	RingBonds  int           `json:"ring_bonds"`
 	Atoms      []fixtureAtom `json:"atoms"`
+	Random     []string      `json:"random"`
 	Write      string        `json:"write"`
 	WriteOK    *bool         `json:"write_ok"`
 	WriteNote  string        `json:"write_note"`

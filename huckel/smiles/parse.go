@@ -6,7 +6,8 @@
 // opensmiles.org) minus stereochemistry, which is read and dropped:
 //
 //   - the organic subset B C N O P S F Cl Br I and the aromatic b c n o p s, with implicit
-//     hydrogens from the default valences (B 3, C 4, N 3/5, O 2, P 3/5, S 2/4/6, halogens 1);
+//     hydrogens from the default valences (B 3, C 4, N 3/5, O 2, P 3/5, S 2/4/6, F Cl Br 1,
+//     I 1/3/5);
 //   - bracket atoms [isotope Element chirality Hn charge :class], with any element symbol,
 //     aromatic c n o p s b se as te, charges written +, ++, +2, -, --, -2, and the atom
 //     class kept as Atom.Map; chirality marks (@, @@, @TH1, ...) are accepted and ignored;

@@ -1,0 +1,48 @@
+package smiles
+
+import "testing"
+
+// benchInputs are typical substrates of 10–30 atoms (names from memory).
+var benchInputs = []string{
+	"COC=CC(=C)O[Si](C)(C)C",                // Danishefsky diene, 10 heavy atoms
+	"O=C1C=CC(=O)N1c1ccccc1",                // N-phenylmaleimide, 13
+	"c1ccc(-c2nnc(-c3ccccn3)nn2)nc1",        // 3,6-di(2-pyridyl)tetrazine, 18
+	"CC(=O)CC(c1ccccc1)c1c(O)c2ccccc2oc1=O", // warfarin, 23
+	"Cn1c(=O)c2c(ncn2C)n(C)c1=O",            // caffeine, 14
+	"C=CC=[O+][B-](F)(F)F",                  // acrolein-BF3, 8
+}
+
+func BenchmarkParse(b *testing.B) {
+	for _, s := range benchInputs {
+		b.Run(s, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Parse(s); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkParseAliphatic is the baseline: a 10-atom chain with no aromatic atoms, so no
+// ring search or kekulisation.
+func BenchmarkParseAliphatic(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Parse("CC=CC=CC(=O)OCC"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkWrite(b *testing.B) {
+	m, err := Parse("CC(=O)CC(c1ccccc1)c1c(O)c2ccccc2oc1=O")
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		Write(m)
+	}
+}

@@ -1,0 +1,248 @@
+package smiles
+
+import (
+	"cmp"
+	"slices"
+
+	"cyclopair/huckel/molecule"
+)
+
+// bond types used for ranking: Kekulé orders 1–3 and bondAlt for a bond whose order may
+// differ between Kekulé structures of the same molecule
+const bondAlt = 4
+
+// Canonical returns a canonical SMILES of m: isomorphic graphs give the same string
+// whatever their atom order, bond order or Kekulé structure. It is meant for telling
+// products apart and deduplicating them, not for display.
+//
+// Method. Atoms are ranked by a Morgan-style refinement (H. L. Morgan, J. Chem. Doc. 5,
+// 107–113, 1965; here in the iterated partition-refinement form): the initial class of an
+// atom is (atomic number, isotope, charge, hydrogens, degree, atom map), and classes are
+// split by the sorted multiset of (neighbour class, bond type) until stable. When atoms
+// are still tied, the tied class with the lowest rank is split by promoting its
+// lowest-index atom, and refinement resumes, until every atom has its own rank. The
+// molecule is then written with Write in rank order.
+//
+// Kekulé structures. Two Kekulé structures of the same ring system (benzene written
+// C1=CC=CC=C1 from different starting atoms, or naphthalene's three forms) are different
+// labelled graphs. Canonical therefore first marks the "alternation graph": atoms with
+// exactly one double bond, lying in a ring, no triple bond, whose double-bond partner is
+// such an atom too, joined by their ring bonds of order 1 or 2. Every Kekulé structure of
+// the molecule is a perfect matching of that same graph, so its bonds get one common type
+// for ranking, and after ranking the double bonds are placed again by a perfect matching
+// computed in rank order (greedy then Edmonds augmentation, both deterministic). Charge
+// -separated resonance forms (a nitro group written N(=O)=O versus [N+](=O)[O-]) are
+// different graphs and stay different.
+//
+// Limitations. Ties are broken by input index after refinement has converged; when the
+// tied atoms are symmetry-equivalent (the usual case) every choice gives the same string,
+// but colour refinement cannot separate every pair of non-equivalent atoms (some highly
+// regular polycyclic graphs), and there two atom orders of one molecule could give two
+// strings. Stereo marks, chirality and the Aromatic flags are ignored; atom maps count (clear
+// Atom.Map first to compare structures without them).
+func Canonical(m *molecule.Molecule) string {
+	n := len(m.Atoms)
+	if n == 0 {
+		return ""
+	}
+	btype, inAlt := alternation(m)
+	rank := canonicalRanks(m, btype)
+
+	// Build the molecule in rank order.
+	c := &molecule.Molecule{Atoms: make([]molecule.Atom, n), Bonds: make([]molecule.Bond, 0, len(m.Bonds))}
+	for i, a := range m.Atoms {
+		c.Atoms[rank[i]] = molecule.Atom{Element: a.Element, Isotope: a.Isotope, Charge: a.Charge, HCount: a.HCount, Map: a.Map, Pos: -1}
+	}
+	type cb struct{ a, b, t, order int }
+	bonds := make([]cb, len(m.Bonds))
+	for i, b := range m.Bonds {
+		x, y := rank[b.A], rank[b.B]
+		if x > y {
+			x, y = y, x
+		}
+		bonds[i] = cb{x, y, int(btype[i]), b.Order}
+	}
+	slices.SortFunc(bonds, func(p, q cb) int {
+		if p.a != q.a {
+			return p.a - q.a
+		}
+		return p.b - q.b
+	})
+	for _, b := range bonds {
+		c.Bonds = append(c.Bonds, molecule.Bond{A: b.a, B: b.b, Order: b.order, Aromatic: b.t == bondAlt})
+	}
+	c.Reindex()
+	if inAlt > 0 {
+		need := make([]bool, n)
+		for _, b := range c.Bonds {
+			if b.Aromatic {
+				need[b.A], need[b.B] = true, true
+			}
+		}
+		if kekulise(c, need) >= 0 {
+			// Cannot happen (m's own double bonds are a perfect matching of this graph);
+			// keep m's orders rather than write a broken structure.
+			for i := range c.Bonds {
+				c.Bonds[i].Order = bonds[i].order
+			}
+		}
+		for i := range c.Bonds {
+			c.Bonds[i].Aromatic = false
+		}
+	}
+	return Write(c)
+}
+
+// alternation returns each bond's ranking type (its order, or bondAlt for a bond of the
+// alternation graph described at Canonical) and the number of such bonds.
+func alternation(m *molecule.Molecule) ([]int8, int) {
+	n := len(m.Atoms)
+	btype := make([]int8, len(m.Bonds))
+	double := make([]int, n) // index of the only double bond, -1 none, -2 several or a triple
+	for i := range double {
+		double[i] = -1
+	}
+	for bi, b := range m.Bonds {
+		btype[bi] = int8(b.Order)
+		for _, a := range [2]int{b.A, b.B} {
+			switch {
+			case b.Order == 3:
+				double[a] = -2
+			case b.Order == 2 && double[a] == -1:
+				double[a] = bi
+			case b.Order == 2:
+				double[a] = -2
+			}
+		}
+	}
+	var inRing []bool
+	// inGraph: a's only double bond lies in a ring and is also its partner's only one
+	inGraph := func(a int) bool {
+		d := double[a]
+		if d < 0 || !inRing[d] {
+			return false
+		}
+		p := m.Bonds[d].A
+		if p == a {
+			p = m.Bonds[d].B
+		}
+		return double[p] == d
+	}
+	count := 0
+	for bi, b := range m.Bonds {
+		if b.Order != 1 && b.Order != 2 {
+			continue
+		}
+		if double[b.A] < 0 || double[b.B] < 0 {
+			continue
+		}
+		if inRing == nil {
+			inRing = ringBondsInto(m, make([]bool, len(m.Bonds)))
+		}
+		if !inRing[bi] || !inGraph(b.A) || !inGraph(b.B) {
+			continue
+		}
+		btype[bi] = bondAlt
+		count++
+	}
+	return btype, count
+}
+
+// canonicalRanks returns a permutation rank[atom] in 0..n-1 (see Canonical).
+func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
+	n := len(m.Atoms)
+	rank := make([]int, n)
+	order := make([]int, n)
+	for i := range order {
+		order[i] = i
+	}
+	inv := func(i int) []int {
+		a := m.Atoms[i]
+		return []int{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map}
+	}
+	slices.SortStableFunc(order, func(x, y int) int {
+		if c := slices.Compare(inv(x), inv(y)); c != 0 {
+			return c
+		}
+		return cmp.Compare(m.Atoms[x].Element, m.Atoms[y].Element)
+	})
+	classes := 0
+	for k, i := range order {
+		if k > 0 {
+			x, y := order[k-1], i
+			if slices.Compare(inv(x), inv(y)) != 0 || m.Atoms[x].Element != m.Atoms[y].Element {
+				classes++
+			}
+		}
+		rank[i] = classes
+	}
+	classes++
+
+	// signature buffers
+	sig := make([][]int, n)
+	for i := range sig {
+		sig[i] = make([]int, 0, 1+m.Degree(i))
+	}
+	refine := func() {
+		for {
+			for i := range m.Atoms {
+				s := append(sig[i][:0], rank[i])
+				for _, e := range m.Neighbors(i) {
+					s = append(s, rank[e.To]*8+int(btype[e.Bond]))
+				}
+				slices.Sort(s[1:])
+				sig[i] = s
+			}
+			slices.SortStableFunc(order, func(x, y int) int { return slices.Compare(sig[x], sig[y]) })
+			next := 0
+			newRank := make([]int, n)
+			for k, i := range order {
+				if k > 0 && slices.Compare(sig[order[k-1]], sig[i]) != 0 {
+					next++
+				}
+				newRank[i] = next
+			}
+			next++
+			copy(rank, newRank)
+			if next == classes {
+				return
+			}
+			classes = next
+		}
+	}
+	refine()
+	for classes < n {
+		// lowest tied class; promote its lowest-index atom
+		best := -1
+		for k := 1; k < n; k++ {
+			if rank[order[k]] == rank[order[k-1]] {
+				r := rank[order[k]]
+				// choose the lowest index among atoms of rank r
+				for _, i := range order {
+					if rank[i] == r && (best < 0 || i < best) {
+						best = i
+					}
+				}
+				break
+			}
+		}
+		for i := range rank {
+			rank[i] *= 2
+		}
+		rank[best]--
+		// densify
+		slices.SortStableFunc(order, func(x, y int) int { return rank[x] - rank[y] })
+		next := 0
+		newRank := make([]int, n)
+		for k, i := range order {
+			if k > 0 && rank[order[k-1]] != rank[i] {
+				next++
+			}
+			newRank[i] = next
+		}
+		copy(rank, newRank)
+		classes = next + 1
+		refine()
+	}
+	return rank
+}
