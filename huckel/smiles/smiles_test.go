@@ -27,7 +27,7 @@ func TestParseDetails(t *testing.T) {
 		{"c1ccc2cc3ccccc3cc2c1", "11101011110101", 7}, // anthracene
 		{"c1ncnnn1", "101000", 3},                     // tetrazine-like ring
 		{"O=c1cccc[nH]1", "0011111", 3},               // 2-pyridone: C=O plus two ring C=C
-		{"Cn1cccc1", "301111", 2},                      // N-methylpyrrole
+		{"Cn1cccc1", "301111", 2},                     // N-methylpyrrole
 		{"[cH-]1cccc1", "11111", 2},                   // cyclopentadienide
 		{"c1cc[o+]cc1", "111011", 3},                  // pyrylium
 		{"[O-][n+]1ccccc1", "0011111", 3},             // pyridine N-oxide
