@@ -144,11 +144,11 @@ func TestRings(t *testing.T) {
 		{"c1ccccc1", []int{6}},
 		{"c1ccc2ccccc2c1", []int{6, 6}},
 		{"c1ccc2c(c1)ccc1ccccc12", []int{6, 6, 6}},
-		{"C1CC2CCC1C2", []int{5, 5}},                // norbornane
-		{"C1CC2CCC1CC2", []int{6, 6}},               // bicyclo[2.2.2]octane
-		{"C1C2CC3CC1CC(C2)C3", []int{6, 6, 6}},      // adamantane
+		{"C1CC2CCC1C2", []int{5, 5}},                 // norbornane
+		{"C1CC2CCC1CC2", []int{6, 6}},                // bicyclo[2.2.2]octane
+		{"C1C2CC3CC1CC(C2)C3", []int{6, 6, 6}},       // adamantane
 		{"C12C3C4C1C5C2C3C45", []int{4, 4, 4, 4, 4}}, // cubane
-		{"C1CCC2(C1)CCCC2", []int{5, 5}},            // spiro[4.4]nonane
+		{"C1CCC2(C1)CCCC2", []int{5, 5}},             // spiro[4.4]nonane
 		{"c1ccc(cc1)-c1ccccc1", []int{6, 6}},
 	}
 	for _, tc := range cases {

@@ -1,0 +1,184 @@
+package draw
+
+import (
+	"bytes"
+	"encoding/xml"
+	"errors"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"cyclopair/fmo"
+	"cyclopair/huckel"
+	"cyclopair/huckel/smiles"
+	"cyclopair/presets"
+)
+
+// wellFormed runs the encoding/xml decoder over the whole document.
+func wellFormed(t *testing.T, doc []byte) {
+	t.Helper()
+	d := xml.NewDecoder(bytes.NewReader(doc))
+	d.Strict = true
+	for {
+		_, err := d.Token()
+		if errors.Is(err, io.EOF) {
+			return
+		}
+		if err != nil {
+			t.Fatalf("not well-formed: %v\n%s", err, doc)
+		}
+	}
+}
+
+// dump writes pictures to $CYCLOPAIR_DRAW_DIR for looking at them (not used in CI).
+func dump(t *testing.T, name string, doc []byte) {
+	if dir := os.Getenv("CYCLOPAIR_DRAW_DIR"); dir != "" {
+		if err := os.WriteFile(filepath.Join(dir, name), doc, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+}
+
+func solve(t *testing.T, smi string) *huckel.Orbitals {
+	t.Helper()
+	m, err := smiles.Parse(smi)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pi, err := huckel.Perceive(m, p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	o, err := huckel.Solve(pi)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return o
+}
+
+func TestOrbitalPictures(t *testing.T) {
+	for i, tc := range []struct{ smi, which string }{
+		{"C=CC=C", "HOMO"},
+		{"C=CC=O", "LUMO"},
+		{"c1ccccc1", "HOMO"},
+		{"O=C1C=CC(=O)N1C", "LUMO"},
+		{"COC=CC=C", "HOMO"},
+		{"[O-][N+](=O)c1ccc(N)cc1", "HOMO"},
+		{"C=CC=[N+]1CCCC1", "LUMO"},
+	} {
+		o := solve(t, tc.smi)
+		lv := o.HOMO
+		if tc.which == "LUMO" {
+			lv = o.LUMO
+		}
+		svg, err := Orbital(o, lv, OrbitalOptions{SMILES: tc.smi, Which: tc.which, Params: "test", IDPrefix: "t"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		wellFormed(t, svg)
+		// one circle per π centre with |c| above the drawing threshold, per member drawn
+		want := 0
+		for _, li := range o.DegenerateSet(lv) {
+			for a := range o.Pi.Mol.Atoms {
+				if c := o.Coefficient(li, a); c > lobeMin || c < -lobeMin {
+					want++
+				}
+			}
+		}
+		if got := strings.Count(string(svg), "<circle") - 2; got != want { // 2 legend circles
+			t.Errorf("%s: %d lobe circles, want %d", tc.smi, got, want)
+		}
+		dump(t, "orbital"+string(rune('a'+i))+".svg", svg)
+	}
+}
+
+func TestDegenerateDrawnSideBySide(t *testing.T) {
+	o := solve(t, "c1ccccc1")
+	set := o.DegenerateSet(o.HOMO)
+	if len(set) != 2 { // benzene HOMO e1g is doubly degenerate (Hückel 1931; any textbook)
+		t.Fatalf("benzene HOMO set %v, want 2 members", set)
+	}
+	svg, err := Orbital(o, o.HOMO, OrbitalOptions{SMILES: "c1ccccc1", Which: "HOMO"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, s := range []string{"member 1 of 2", "member 2 of 2", "Degenerate set of 2"} {
+		if !strings.Contains(string(svg), s) {
+			t.Errorf("benzene HOMO picture lacks %q", s)
+		}
+	}
+}
+
+func TestEscaping(t *testing.T) {
+	o := solve(t, "C=CC=C")
+	name := `<script>alert("x")</script> & co`
+	svg, err := Orbital(o, o.HOMO, OrbitalOptions{Name: name, SMILES: "C=CC=C", Which: "HOMO", IDPrefix: `"><x`})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wellFormed(t, svg)
+	if strings.Contains(string(svg), "<script") {
+		t.Fatalf("user text emitted as markup:\n%s", svg)
+	}
+	if !strings.Contains(string(svg), "&lt;script&gt;") {
+		t.Errorf("name not shown as escaped text")
+	}
+}
+
+func TestNoLevel(t *testing.T) {
+	o := solve(t, "C=C")
+	if _, err := Orbital(o, 7, OrbitalOptions{Which: "level 7"}); !errors.Is(err, ErrNoLevel) {
+		t.Errorf("level out of range: %v, want ErrNoLevel", err)
+	}
+}
+
+func TestPairPictures(t *testing.T) {
+	opts, err := fmo.DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, tc := range []struct{ diene, dienophile, act string }{
+		{"C=CC=C", "C=CC=O", "none"},
+		{"C1=CC=CC1", "O=C1OC(=O)C=C1", "none"},
+		{"COC=CC=C", "C=CC(=O)OC", "lewis"},
+		{"c1nncnn1", "C=COCC", "none"},
+		{"C=[N+]([O-])C", "C=CC#N", "none"},
+		{"c1ccc2cc3ccccc3cc2c1", "O=C1C=CC(=O)N1C", "none"},
+	} {
+		d, err := fmo.NewPartner("", tc.diene, fmo.RoleDiene, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, err := fmo.NewPartner(`dienophile <b>`+tc.dienophile, tc.dienophile, fmo.RoleDienophile, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if tc.act != "none" {
+			if e, err = e.WithActivation(tc.act, nil, opts); err != nil {
+				t.Fatal(err)
+			}
+		}
+		p, err := fmo.Analyze(d, e, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		svg, err := Pair(d, e, p, PairOptions{IDPrefix: "p"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		wellFormed(t, svg)
+		if strings.Contains(string(svg), "<b>") {
+			t.Errorf("name emitted as markup")
+		}
+		if n := strings.Count(string(svg), `stroke-dasharray="7 4"`); n != 2 {
+			t.Errorf("%s + %s: %d forming bonds drawn, want 2", tc.diene, tc.dienophile, n)
+		}
+		dump(t, "pair"+string(rune('a'+i))+".svg", svg)
+	}
+}
