@@ -65,7 +65,9 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 	}
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return &usageError{err} })
 	root.AddCommand(
-	// Each command is built by its own constructor in its own file.
+		// Each command is built by its own constructor in its own file.
+		newOrbitalsCmd(s),
+		newParamsCmd(s),
 	)
 	return root
 }

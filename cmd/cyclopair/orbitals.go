@@ -1,0 +1,200 @@
+package main
+
+import (
+	"bufio"
+	"errors"
+	"fmt"
+	"strings"
+
+	"cyclopair/huckel"
+	"cyclopair/huckel/smiles"
+	"cyclopair/presets"
+
+	"github.com/spf13/cobra"
+)
+
+type orbitalsOptions struct {
+	format   string  // table, json, csv
+	params   string  // built-in set name or YAML file
+	omega    float64 // ω-technique constant; used when omegaSet
+	omegaSet bool
+}
+
+func newOrbitalsCmd(s *streams) *cobra.Command {
+	opts := &orbitalsOptions{}
+	cmd := &cobra.Command{
+		Use:   "orbitals SMILES... | -",
+		Short: "Hückel π levels, frontier orbitals and π charges of molecules",
+		Long: `Perceive the π system of each molecule, solve the Hückel problem and print the levels
+(x in E = α + xβ, and eV through a stated linear calibration), occupations, degeneracies,
+HOMO/LUMO (SOMO for open shells), the frontier coefficients per atom and the π charges.
+Atom numbers are 0-based positions in the SMILES as written.
+
+With '-' molecules are read from stdin, one per line as "SMILES [name]"; blank lines and
+lines starting with '#' are skipped. A bad line is reported with its line number and the
+rest continue (exit status 1).
+
+Results are estimates for planning, not safety assessments.`,
+		Example: `  cyclopair orbitals C=CC=C
+  cyclopair orbitals 'C=CC(=O)OC' c1ccncc1 --format json
+  printf 'C=CC=C butadiene\nC=CC=O acrolein\n' | cyclopair orbitals - --format csv
+  cyclopair orbitals 'C=C[CH2+]' --omega 1.4
+  cyclopair orbitals c1ccncc1 --params vancatledge1980`,
+		Args: cobra.MinimumNArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			switch opts.format {
+			case "table", "json", "csv":
+			default:
+				return &usageError{fmt.Errorf("--format %q: want table, json or csv", opts.format)}
+			}
+			opts.omegaSet = c.Flags().Changed("omega")
+			if opts.omegaSet && (opts.omega < 0 || opts.omega > 5) {
+				return &usageError{fmt.Errorf("--omega %g: want a value between 0 and 5 (typical 1.4)", opts.omega)}
+			}
+			for _, a := range args {
+				if a == "-" && len(args) > 1 {
+					return &usageError{errors.New("'-' (read stdin) cannot be combined with SMILES arguments")}
+				}
+			}
+			return runOrbitals(s, opts, args)
+		},
+	}
+	cmd.Flags().StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines) or csv")
+	cmd.Flags().StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
+	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
+	return cmd
+}
+
+// orbitalsInput is one molecule to compute: its text, optional name, and where it came
+// from (line 0 for a command-line argument).
+type orbitalsInput struct {
+	smiles, name string
+	line         int
+}
+
+// runOrbitals computes and prints every input. It is the testable body of the command.
+func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
+	p, err := resolveParams(opts.params)
+	if err != nil {
+		return err
+	}
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+	}
+	out := newOrbitalsWriter(s.out, opts.format, p, cal)
+	var solver huckel.Solver
+	failed, total := 0, 0
+	var single error
+	handle := func(in orbitalsInput) error {
+		total++
+		res, err := computeOrbitals(in, p, opts, &solver)
+		if err != nil {
+			failed++
+			if in.line == 0 && len(args) == 1 {
+				single = err
+				return nil
+			}
+			fmt.Fprintf(s.err, "cyclopair: %v\n", err)
+			return nil
+		}
+		for _, w := range res.orb.Warnings {
+			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", in.smiles, w)
+		}
+		return out.write(res)
+	}
+	if len(args) == 1 && args[0] == "-" {
+		sc := bufio.NewScanner(s.in)
+		sc.Buffer(make([]byte, 64*1024), 1<<20)
+		line := 0
+		for sc.Scan() {
+			line++
+			text := strings.TrimSpace(sc.Text())
+			if text == "" || strings.HasPrefix(text, "#") {
+				continue
+			}
+			var smi, name string
+			if i := strings.IndexAny(text, " \t"); i >= 0 {
+				smi, name = text[:i], strings.TrimSpace(text[i+1:])
+			} else {
+				smi, name = text, ""
+			}
+			if err := handle(orbitalsInput{smiles: smi, name: name, line: line}); err != nil {
+				return err
+			}
+		}
+		if err := sc.Err(); err != nil {
+			return &inputError{fmt.Errorf("stdin: line %d: %v (lines are limited to 1 MiB)", line+1, err)}
+		}
+		if total == 0 {
+			return &inputError{errors.New("stdin: no molecules read (expected lines of 'SMILES [name]')")}
+		}
+	} else {
+		for _, a := range args {
+			if err := handle(orbitalsInput{smiles: a}); err != nil {
+				return err
+			}
+		}
+	}
+	if err := out.flush(); err != nil {
+		return err
+	}
+	if single != nil {
+		return &inputError{single}
+	}
+	if failed > 0 {
+		return &partialError{failed: failed, total: total}
+	}
+	return nil
+}
+
+// orbitalsResult is one solved molecule.
+type orbitalsResult struct {
+	in  orbitalsInput
+	ps  *huckel.PiSystem
+	orb *huckel.Orbitals
+}
+
+// computeOrbitals parses, perceives and solves one input. Errors are formatted as
+// "<SMILES>: [line N, ]<position>: <what> (<hint>)", with the SMILES excerpt and caret on
+// the following lines for syntax errors.
+func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver *huckel.Solver) (*orbitalsResult, error) {
+	where := in.smiles
+	if in.line > 0 {
+		where = fmt.Sprintf("%s: line %d", in.smiles, in.line)
+	}
+	m, err := smiles.Parse(in.smiles)
+	if err != nil {
+		var se *smiles.Error
+		if errors.As(err, &se) {
+			sep := ": "
+			if in.line > 0 {
+				sep = ", "
+			}
+			return nil, fmt.Errorf("%s%s%s\n%s", where, sep, se.Error(), indent(se.Excerpt()))
+		}
+		return nil, fmt.Errorf("%s: %v", where, err)
+	}
+	m.Name = in.name
+	ps, err := huckel.Perceive(m, p)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %v", where, err)
+	}
+	if opts.omegaSet {
+		ps.Omega = opts.omega
+	}
+	if len(ps.Centres) == 0 {
+		return nil, fmt.Errorf("%s: no π system (no conjugated atoms found; nothing to compute)", where)
+	}
+	o := new(huckel.Orbitals)
+	if err := solver.Solve(ps, o); err != nil {
+		return nil, fmt.Errorf("%s: %v (try without --omega or with a smaller value)", where, err)
+	}
+	o.Warnings = append(o.Warnings, ps.Warnings...)
+	return &orbitalsResult{in: in, ps: ps, orb: o}, nil
+}
+
+// indent prefixes every line of s with two spaces (the SMILES excerpt under an error).
+func indent(s string) string {
+	return "  " + strings.ReplaceAll(s, "\n", "\n  ")
+}
