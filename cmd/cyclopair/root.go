@@ -68,6 +68,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		// Each command is built by its own constructor in its own file.
 		newOrbitalsCmd(s),
 		newParamsCmd(s),
+		newDrawCmd(s),
 	)
 	return root
 }

@@ -1,0 +1,267 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"os"
+	"strconv"
+	"strings"
+
+	"cyclopair/cmd/cyclopair/internal/draw"
+	"cyclopair/fmo"
+	"cyclopair/huckel"
+	"cyclopair/huckel/smiles"
+	"cyclopair/presets"
+
+	"github.com/spf13/cobra"
+)
+
+type drawOptions struct {
+	orbital    string // homo, lumo, homo-1, lumo+2, or a 0-based level index
+	diene      string
+	dienophile string
+	activate   string
+	params     string
+	name       string
+	svg        string // output file; stdout when empty or "-"
+	numbers    bool
+}
+
+func newDrawCmd(s *streams) *cobra.Command {
+	opts := &drawOptions{}
+	cmd := &cobra.Command{
+		Use:   "draw SMILES --orbital homo|lumo|N | draw --diene SMILES --dienophile SMILES",
+		Short: "SVG picture of an orbital on a molecule, or of a cycloaddition pair",
+		Long: `Draw one π orbital on the structure of a molecule, or a cycloaddition pair in its
+preferred orientation, as SVG (to stdout, or to the file named by --svg).
+
+Orbital picture: each π centre gets a circle whose AREA is proportional to c² (the π density
+the orbital puts there; the radius is proportional to |c|). Solid dark circles are c > 0,
+white hatched circles with a dark outline are c < 0. A level in a degenerate set is drawn
+with every member of the set side by side. --orbital takes homo, lumo, homo-1, lumo+1, … or
+a 0-based level index (most bonding level first, as "index" in 'orbitals --format json').
+
+Pair picture: the 4π partner (diene, hetero-diene or 1,3-dipole) on top, the 2π partner
+below, joined by the two forming bonds (dashed) of the preferred orientation; the endo
+secondary contact is dotted; the lobes are the frontier orbitals of the controlling pairing
+(diene HOMO and dienophile LUMO for normal demand, the other two for inverse demand).
+--diene and --dienophile take a SMILES or the name of a built-in substrate.
+
+Results are estimates for planning, not safety assessments.`,
+		Example: `  cyclopair draw C=CC=O --orbital lumo --svg acrolein-lumo.svg
+  cyclopair draw c1ccccc1 --orbital homo > benzene-homo.svg
+  cyclopair draw --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --svg pair.svg
+  cyclopair draw --diene 'COC=CC=C' --dienophile 'C=CC(=O)OC' --activate lewis --svg lewis.svg`,
+		Args: cobra.MaximumNArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			pair := opts.diene != "" || opts.dienophile != ""
+			switch {
+			case pair && len(args) > 0:
+				return &usageError{errors.New("give either a SMILES with --orbital or --diene and --dienophile, not both")}
+			case pair && (opts.diene == "" || opts.dienophile == ""):
+				return &usageError{errors.New("a pair picture needs both --diene and --dienophile")}
+			case pair && opts.orbital != "":
+				return &usageError{errors.New("--orbital applies to a single molecule; the pair picture shows the controlling frontier orbitals")}
+			case !pair && len(args) == 0:
+				return &usageError{errors.New("give a SMILES (with --orbital) or --diene and --dienophile")}
+			case !pair && c.Flags().Changed("activate"):
+				return &usageError{errors.New("--activate applies to the dienophile of a pair picture")}
+			}
+			if !pair && opts.orbital == "" {
+				opts.orbital = "homo"
+			}
+			return runDraw(s, opts, args)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&opts.orbital, "orbital", "", "orbital to draw: homo, lumo, homo-N, lumo+N or a 0-based level index (default homo)")
+	f.StringVar(&opts.diene, "diene", "", "4π partner (diene, hetero-diene or 1,3-dipole): SMILES or built-in substrate name")
+	f.StringVar(&opts.dienophile, "dienophile", "", "2π partner: SMILES or built-in substrate name")
+	f.StringVar(&opts.activate, "activate", "none", "activation of the dienophile: "+strings.Join(fmo.Modes(), ", "))
+	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
+	f.StringVar(&opts.name, "name", "", "molecule name for the heading (orbital picture)")
+	f.StringVar(&opts.svg, "svg", "", "write the SVG to this file instead of stdout")
+	f.BoolVar(&opts.numbers, "numbers", false, "print 1-based atom positions next to the atoms (C1, C2 … as in site names)")
+	return cmd
+}
+
+// runDraw builds the picture and writes it. It is the testable body of the command.
+func runDraw(s *streams, opts *drawOptions, args []string) error {
+	p, err := resolveParams(opts.params)
+	if err != nil {
+		return err
+	}
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+	}
+	var svg []byte
+	if len(args) == 1 {
+		svg, err = drawOrbital(args[0], opts, p, cal)
+	} else {
+		svg, err = drawPair(opts, p, cal)
+	}
+	if err != nil {
+		return err
+	}
+	if opts.svg == "" || opts.svg == "-" {
+		_, err = s.out.Write(svg)
+		return err
+	}
+	if err := os.WriteFile(opts.svg, svg, 0o644); err != nil {
+		return &inputError{fmt.Errorf("%s: %v (check the directory exists and is writable)", opts.svg, err)}
+	}
+	fmt.Fprintf(s.err, "cyclopair: wrote %s\n", opts.svg)
+	return nil
+}
+
+// smilesErr formats a SMILES reader error as "<SMILES>: column N: what (hint)" plus the
+// excerpt with a caret.
+func smilesErr(smi string, err error) error {
+	var se *smiles.Error
+	if errors.As(err, &se) {
+		return &inputError{fmt.Errorf("%s: %s\n%s", smi, se.Error(), indent(se.Excerpt()))}
+	}
+	return &inputError{fmt.Errorf("%s: %v", smi, err)}
+}
+
+func drawOrbital(smi string, opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+	m, err := smiles.Parse(smi)
+	if err != nil {
+		return nil, smilesErr(smi, err)
+	}
+	ps, err := huckel.Perceive(m, p)
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+	}
+	if len(ps.Centres) == 0 {
+		return nil, &inputError{fmt.Errorf("%s: no π system (no conjugated atoms found; nothing to draw)", smi)}
+	}
+	orb, err := huckel.Solve(ps)
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+	}
+	level, which, err := pickLevel(orb, opts.orbital)
+	if err != nil {
+		return nil, &usageError{fmt.Errorf("%s: --orbital %s: %v", smi, opts.orbital, err)}
+	}
+	svg, err := draw.Orbital(orb, level, draw.OrbitalOptions{
+		Name: opts.name, SMILES: smi, Which: which, Params: p.Name,
+		Calibration: cal, CalName: cal.Name, IDPrefix: "orb", Numbers: opts.numbers,
+	})
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+	}
+	return svg, nil
+}
+
+// pickLevel resolves homo, lumo, homo-N, lumo+N or a 0-based index to a level index.
+func pickLevel(orb *huckel.Orbitals, spec string) (int, string, error) {
+	spec = strings.ToLower(strings.TrimSpace(spec))
+	n := len(orb.Levels)
+	base, off, word := -1, 0, ""
+	switch {
+	case strings.HasPrefix(spec, "homo"):
+		base, word = orb.HOMO, "HOMO"
+		if base < 0 {
+			return 0, "", errors.New("the π system has no occupied level (use lumo or a level index)")
+		}
+		rest := spec[4:]
+		if rest != "" {
+			k, err := strconv.Atoi(strings.TrimPrefix(rest, "-"))
+			if err != nil || !strings.HasPrefix(rest, "-") || k < 0 {
+				return 0, "", errors.New("want homo, homo-1, homo-2, …")
+			}
+			off = k // lower in energy = more bonding = smaller index
+			word = fmt.Sprintf("HOMO−%d", k)
+			if k == 0 {
+				word = "HOMO"
+			}
+			return checkLevel(base-off, n, word)
+		}
+		return base, word, nil
+	case strings.HasPrefix(spec, "lumo"):
+		base, word = orb.LUMO, "LUMO"
+		if base < 0 {
+			return 0, "", errors.New("the π system has no empty level (use homo or a level index)")
+		}
+		rest := spec[4:]
+		if rest != "" {
+			k, err := strconv.Atoi(strings.TrimPrefix(rest, "+"))
+			if err != nil || !strings.HasPrefix(rest, "+") || k < 0 {
+				return 0, "", errors.New("want lumo, lumo+1, lumo+2, …")
+			}
+			word = fmt.Sprintf("LUMO+%d", k)
+			if k == 0 {
+				word = "LUMO"
+			}
+			return checkLevel(base+k, n, word)
+		}
+		return base, word, nil
+	}
+	k, err := strconv.Atoi(spec)
+	if err != nil {
+		return 0, "", errors.New("want homo, lumo, homo-N, lumo+N or a 0-based level index")
+	}
+	return checkLevel(k, n, fmt.Sprintf("level %d", k))
+}
+
+// checkLevel reports a level index outside the π system with the valid range.
+func checkLevel(i, n int, word string) (int, string, error) {
+	// A degenerate set is drawn whole, so homo-1 inside the HOMO's own set is still valid
+	// (it names the same set); only the range is checked.
+	if i < 0 || i >= n {
+		return 0, "", fmt.Errorf("%s does not exist (levels 0 to %d)", word, n-1)
+	}
+	return i, word, nil
+}
+
+// partnerInput resolves a --diene/--dienophile value: a built-in substrate name or a SMILES.
+func partnerInput(v string) (name, smi string) {
+	if sub, ok := presets.LookupSubstrate(v); ok {
+		if _, err := smiles.Parse(v); err != nil { // a name, not a SMILES that happens to match
+			return sub.Name, sub.SMILES
+		}
+	}
+	return "", v
+}
+
+func drawPair(opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+	o := fmo.NewOptions(p, cal, cal.Name)
+	build := func(v string, role fmo.Role, flag string) (*fmo.Partner, error) {
+		name, smi := partnerInput(v)
+		part, err := fmo.NewPartner(name, smi, role, o)
+		if err != nil {
+			var se *smiles.Error
+			if errors.As(err, &se) {
+				return nil, smilesErr(smi, err)
+			}
+			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, flag, err)}
+		}
+		return part, nil
+	}
+	d, err := build(opts.diene, fmo.RoleDiene, "--diene")
+	if err != nil {
+		return nil, err
+	}
+	e, err := build(opts.dienophile, fmo.RoleDienophile, "--dienophile")
+	if err != nil {
+		return nil, err
+	}
+	if opts.activate != "" && opts.activate != "none" {
+		act, err := e.WithActivation(opts.activate, nil, o)
+		if err != nil {
+			return nil, &inputError{fmt.Errorf("%s: --activate %s: %v (modes: %s)", e.SMILES, opts.activate, err, strings.Join(fmo.Modes(), ", "))}
+		}
+		e = act
+	}
+	pair, err := fmo.Analyze(d, e, o)
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s + %s: %v", d.SMILES, e.SMILES, err)}
+	}
+	svg, err := draw.Pair(d, e, pair, draw.PairOptions{IDPrefix: "pair", Numbers: opts.numbers})
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s + %s: %v", d.SMILES, e.SMILES, err)}
+	}
+	return svg, nil
+}
