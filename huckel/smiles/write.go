@@ -39,26 +39,41 @@ func writeOrder(m *molecule.Molecule) (string, []int) {
 }
 
 type writer struct {
-	m        *molecule.Molecule
-	b        strings.Builder
-	visited  []bool
-	children [][]molecule.Edge // tree edges to children, in visiting order
-	rings    [][]int           // ring-closure bonds at each atom, in discovery order
-	digit    []int             // digit of each ring-closure bond while open, 0 otherwise
-	inUse    []bool            // ring numbers in use (index = number)
-	order    []int             // atoms in output order, when asked for
+	m       *molecule.Molecule
+	b       strings.Builder
+	adj     [][]molecule.Edge // neighbours of each atom sorted by atom index
+	parent  []int32           // bond to the DFS parent, -1 for a root, -2 unvisited
+	ring    []bool            // bond closes a ring (not a DFS tree edge)
+	digit   []int32           // ring number of a ring bond while open, 0 before, -1 after
+	inUse   []bool            // ring numbers in use (index = number)
+	order   []int             // atoms in output order, when asked for
+	inUseBf [16]bool
 }
 
 func newWriter(m *molecule.Molecule) *writer {
-	n := len(m.Atoms)
-	return &writer{
-		m:        m,
-		visited:  make([]bool, n),
-		children: make([][]molecule.Edge, n),
-		rings:    make([][]int, n),
-		digit:    make([]int, len(m.Bonds)),
-		inUse:    make([]bool, 1, 10),
+	n, nb := len(m.Atoms), len(m.Bonds)
+	w := &writer{m: m}
+	// one allocation each for the edge copy, the per-atom headers and the int32 state
+	edges := make([]molecule.Edge, 0, 2*nb)
+	w.adj = make([][]molecule.Edge, n)
+	for v := range n {
+		start := len(edges)
+		edges = append(edges, m.Neighbors(v)...)
+		seg := edges[start:len(edges):len(edges)]
+		if len(seg) > 1 {
+			slices.SortFunc(seg, func(a, b molecule.Edge) int { return a.To - b.To })
+		}
+		w.adj[v] = seg
 	}
+	state := make([]int32, n+nb)
+	w.parent = state[:n]
+	w.digit = state[n:]
+	for i := range w.parent {
+		w.parent[i] = -2
+	}
+	w.ring = make([]bool, nb)
+	w.inUse = w.inUseBf[:1]
+	return w
 }
 
 func (w *writer) write() string {
@@ -68,14 +83,15 @@ func (w *writer) write() string {
 			panic(fmt.Sprintf("smiles.Write: bond %d-%d has order %d (want 1, 2 or 3)", b.A, b.B, b.Order))
 		}
 	}
-	w.b.Grow(2 * len(m.Atoms))
-	bondSeen := make([]bool, len(m.Bonds))
+	w.b.Grow(2*len(m.Atoms) + len(m.Bonds))
+	seen := make([]bool, len(m.Bonds))
 	first := true
 	for root := range m.Atoms {
-		if w.visited[root] {
+		if w.parent[root] != -2 {
 			continue
 		}
-		w.walk(root, -1, bondSeen)
+		w.parent[root] = -1
+		w.walk(root, seen)
 		if !first {
 			w.b.WriteByte('.')
 		}
@@ -85,32 +101,20 @@ func (w *writer) write() string {
 	return w.b.String()
 }
 
-// sortedNeighbors returns atom v's edges ordered by neighbour index.
-func (w *writer) sortedNeighbors(v int) []molecule.Edge {
-	nb := w.m.Neighbors(v)
-	out := make([]molecule.Edge, len(nb))
-	copy(out, nb)
-	slices.SortFunc(out, func(a, b molecule.Edge) int { return a.To - b.To })
-	return out
-}
-
-// walk is the first pass: a depth-first search from v that records tree children and
-// ring-closure bonds.
-func (w *writer) walk(v, parentBond int, bondSeen []bool) {
-	w.visited[v] = true
-	for _, e := range w.sortedNeighbors(v) {
-		if e.Bond == parentBond || bondSeen[e.Bond] {
+// walk is the first pass: a depth-first search from v that marks tree edges (through
+// parent) and ring-closure bonds.
+func (w *writer) walk(v int, seen []bool) {
+	for _, e := range w.adj[v] {
+		if seen[e.Bond] {
 			continue
 		}
-		bondSeen[e.Bond] = true
-		if w.visited[e.To] {
-			// back edge to an ancestor: it opens there and closes here
-			w.rings[e.To] = append(w.rings[e.To], e.Bond)
-			w.rings[v] = append(w.rings[v], e.Bond)
+		seen[e.Bond] = true
+		if w.parent[e.To] != -2 {
+			w.ring[e.Bond] = true // back edge to an ancestor: opens there, closes here
 			continue
 		}
-		w.children[v] = append(w.children[v], e)
-		w.walk(e.To, e.Bond, bondSeen)
+		w.parent[e.To] = int32(e.Bond)
+		w.walk(e.To, seen)
 	}
 }
 
@@ -124,30 +128,41 @@ func (w *writer) emit(v, from, inBond int) {
 	if w.order != nil {
 		w.order = append(w.order, v)
 	}
-	// closures first (their numbers were given out at the opening atom), then openings
-	var closed [8]int
-	freed := closed[:0]
-	for _, bi := range w.rings[v] {
-		if d := w.digit[bi]; d > 0 {
-			w.ringNumber(d)
+	// closures first (their numbers were given out at the opening atom), then openings;
+	// numbers freed here are reused only from the next atom on
+	var freedBuf [8]int32
+	freed := freedBuf[:0]
+	for _, e := range w.adj[v] {
+		if w.ring[e.Bond] && w.digit[e.Bond] > 0 {
+			d := w.digit[e.Bond]
+			w.ringNumber(int(d))
 			freed = append(freed, d)
-			w.digit[bi] = -1
+			w.digit[e.Bond] = -1
 		}
 	}
-	for _, bi := range w.rings[v] {
-		if w.digit[bi] == 0 {
-			w.bondSymbol(bi, v)
+	for _, e := range w.adj[v] {
+		if w.ring[e.Bond] && w.digit[e.Bond] == 0 {
+			w.bondSymbol(e.Bond, v)
 			d := w.takeNumber()
-			w.digit[bi] = d
+			w.digit[e.Bond] = int32(d)
 			w.ringNumber(d)
 		}
 	}
 	for _, d := range freed {
 		w.inUse[d] = false
 	}
-	kids := w.children[v]
-	for k, e := range kids {
-		if k < len(kids)-1 {
+	// children in index order; the last continues the chain
+	last := -1
+	for k, e := range w.adj[v] {
+		if w.parent[e.To] == int32(e.Bond) && e.To != from {
+			last = k
+		}
+	}
+	for k, e := range w.adj[v] {
+		if w.parent[e.To] != int32(e.Bond) || e.To == from {
+			continue
+		}
+		if k < last {
 			w.b.WriteByte('(')
 			w.emit(e.To, v, e.Bond)
 			w.b.WriteByte(')')
