@@ -46,6 +46,16 @@ const (
 	roleAlkyl    // sp3 carbon, hyperconjugative pseudo-heteroatom
 )
 
+// atomState is the per-atom working state of Perceive.
+type atomState struct {
+	typ      CentreType
+	role     uint8
+	elec     int8
+	excluded bool // element or valence without π parameters
+	far      bool // terminal lone-pair atom across a dropped cumulated double bond
+	centre   bool
+}
+
 // Perceive finds the π system of the Kekulé graph m and types its centres with p.
 //
 // Rules (a centre's electrons in brackets):
@@ -80,11 +90,9 @@ const (
 func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	n := len(m.Atoms)
 	ps := &PiSystem{Mol: m, Params: p, Omega: p.Omega}
-	role := make([]uint8, n)
-	typ := make([]CentreType, n)
-	elec := make([]int8, n)
+	// One allocation for all per-atom state, one for per-bond state.
+	st := make([]atomState, n)
 	dropped := make([]bool, len(m.Bonds)) // bond takes no part in the π system
-	excluded := make([]bool, n)
 
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
@@ -92,12 +100,12 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		case "C", "N", "O", "F", "Cl", "Br", "I", "B", "H":
 		case "S":
 			if a.Charge != 0 && !(a.Charge == -1 && m.Valence(i) == 1) || m.Valence(i) > 2 {
-				excluded[i] = true
+				st[i].excluded = true
 			}
 		default:
-			excluded[i] = true
+			st[i].excluded = true
 		}
-		if excluded[i] {
+		if st[i].excluded {
 			for _, e := range m.Neighbors(i) {
 				if m.Bonds[e.Bond].Order > 1 {
 					dropped[e.Bond] = true
@@ -109,9 +117,8 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		}
 	}
 	// Cumulated double bonds: keep one π set per sp atom.
-	farDonor := make([]bool, n)
 	for i := range m.Atoms {
-		if excluded[i] {
+		if st[i].excluded {
 			continue
 		}
 		best, nd := -1, 0
@@ -136,7 +143,7 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			if m.Degree(e.To) == 1 {
 				switch m.Atoms[e.To].Element {
 				case "N", "O", "S":
-					farDonor[e.To] = true
+					st[e.To].far = true
 				}
 			}
 		}
@@ -145,14 +152,14 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	// Type every atom.
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
-		if excluded[i] || a.Element == "H" {
+		if st[i].excluded || a.Element == "H" {
 			continue
 		}
 		np, maxOrder, cumulated := 0, 0, false
 		nd := 0
 		for _, e := range m.Neighbors(i) {
 			o := m.Bonds[e.Bond].Order
-			if o == 2 && !excluded[e.To] {
+			if o == 2 && !st[e.To].excluded {
 				nd++
 			}
 			if o > 1 && !dropped[e.Bond] {
@@ -162,15 +169,15 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		}
 		cumulated = nd >= 2
 		val := m.Valence(i)
-		set := func(r uint8, t CentreType, e int8) { role[i], typ[i], elec[i] = r, t, e }
+		set := func(r uint8, t CentreType, e int8) { st[i].role, st[i].typ, st[i].elec = r, t, e }
 		unsupported := func(what string) error {
 			return &PerceiveError{Atom: i, Label: atomLabel(a), Err: ErrUnsupported,
 				Msg: what + " (write the neutral closed-shell form, or a charged form with a formal charge on this atom)"}
 		}
-		if np == 0 && !farDonor[i] && touchesDropped(m, i, dropped) {
+		if np == 0 && !st[i].far && touchesDropped(m, i, dropped) {
 			continue // its only multiple bonds were dropped: outside the π system
 		}
-		if np == 0 && farDonor[i] {
+		if np == 0 && st[i].far {
 			switch {
 			case a.Element == "O" && a.Charge == 0:
 				set(roleDonor, OEther, 2)
@@ -283,15 +290,14 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	}
 
 	// Donors and alkyl groups join only next to a core or acceptor.
-	isCentre := make([]bool, n)
 	for i := range m.Atoms {
-		switch role[i] {
+		switch st[i].role {
 		case roleCore, roleAcceptor:
-			isCentre[i] = true
+			st[i].centre = true
 		case roleDonor, roleAlkyl:
 			for _, e := range m.Neighbors(i) {
-				if r := role[e.To]; r == roleCore || r == roleAcceptor {
-					isCentre[i] = true
+				if r := st[e.To].role; r == roleCore || r == roleAcceptor {
+					st[i].centre = true
 					break
 				}
 			}
@@ -299,17 +305,17 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	}
 	// Nitro oxygens share one type (their charges agree through FormalCharge).
 	for i := range m.Atoms {
-		if !isCentre[i] || typ[i] != NNitro {
+		if !st[i].centre || st[i].typ != NNitro {
 			continue
 		}
 		for _, e := range m.Neighbors(i) {
 			j := e.To
-			if m.Atoms[j].Element != "O" || !isCentre[j] {
+			if m.Atoms[j].Element != "O" || !st[j].centre {
 				continue
 			}
-			switch typ[j] {
+			switch st[j].typ {
 			case OCarbonyl, OAnion:
-				typ[j] = ONitro
+				st[j].typ = ONitro
 			}
 		}
 	}
@@ -318,38 +324,40 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	ps.AtomCentre = make([]int, n)
 	nc := 0
 	for i := range m.Atoms {
-		if isCentre[i] {
+		if st[i].centre {
 			nc++
 		}
 	}
 	ps.Centres = make([]Centre, 0, nc)
 	for i := range m.Atoms {
 		ps.AtomCentre[i] = -1
-		if !isCentre[i] {
+		if !st[i].centre {
 			continue
 		}
-		h, ok := p.H(typ[i])
+		typ := st[i].typ
+		h, ok := p.H(typ)
 		if !ok {
 			return nil, &PerceiveError{Atom: i, Label: atomLabel(&m.Atoms[i]), Err: ErrNoParameter,
-				Msg: fmt.Sprintf("no h parameter for type %s in set %s (add it with --params FILE)", typ[i], p.Name)}
+				Msg: fmt.Sprintf("no h parameter for type %s in set %s (add it with --params FILE)", typ, p.Name)}
 		}
 		ps.AtomCentre[i] = len(ps.Centres)
-		ps.Centres = append(ps.Centres, Centre{Atom: i, Element: m.Atoms[i].Element, Type: typ[i],
-			H: h, Electrons: int(elec[i]), FormalCharge: m.Atoms[i].Charge})
+		ps.Centres = append(ps.Centres, Centre{Atom: i, Element: m.Atoms[i].Element, Type: typ,
+			H: h, Electrons: int(st[i].elec), FormalCharge: m.Atoms[i].Charge})
 	}
+	ps.Bonds = make([]PiBond, 0, len(m.Bonds))
 	for bi, b := range m.Bonds {
 		ci, cj := ps.AtomCentre[b.A], ps.AtomCentre[b.B]
 		if ci < 0 || cj < 0 {
 			continue
 		}
-		ra, rb := role[b.A], role[b.B]
+		ra, rb := st[b.A].role, st[b.B].role
 		if (ra == roleDonor || ra == roleAlkyl) && (rb == roleDonor || rb == roleAlkyl) {
 			continue
 		}
 		if dropped[bi] {
 			// The dropped bond of a cumulated atom: its far partner (a terminal lone-pair
 			// donor) still overlaps in the kept plane through the σ framework's p orbital.
-			if !farDonor[b.A] && !farDonor[b.B] {
+			if !st[b.A].far && !st[b.B].far {
 				continue
 			}
 		}
@@ -357,15 +365,15 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		if dropped[bi] {
 			order = 1
 		}
-		k, ok := p.K(typ[b.A], typ[b.B], order)
+		k, ok := p.K(st[b.A].typ, st[b.B].typ, order)
 		if !ok {
 			at := b.A
-			if typ[b.A] == CSp2 {
+			if st[b.A].typ == CSp2 {
 				at = b.B
 			}
 			return nil, &PerceiveError{Atom: at, Label: atomLabel(&m.Atoms[at]), Err: ErrNoParameter,
 				Msg: fmt.Sprintf("no k parameter for the %s–%s bond to atom %d (Kekulé order %d) in set %s (add it with --params FILE)",
-					typ[b.A], typ[b.B], b.A+b.B-at, b.Order, p.Name)}
+					st[b.A].typ, st[b.B].typ, b.A+b.B-at, b.Order, p.Name)}
 		}
 		if ci > cj {
 			ci, cj = cj, ci
@@ -473,35 +481,54 @@ func boundToLewisAcid(m *molecule.Molecule, i int, dropped []bool) bool {
 	return false
 }
 
-// recomputeFragments fills Fragments and Centres[i].Fragment from Bonds.
+// recomputeFragments fills Fragments and Centres[i].Fragment from Bonds (three
+// allocations whatever the size: adjacency in CSR form, the BFS order that backs every
+// fragment slice, and the fragment list).
 func (ps *PiSystem) recomputeFragments() {
 	n := len(ps.Centres)
-	adj := make([][]int, n)
+	buf := make([]int, 2*n+1+2*len(ps.Bonds))
+	start, order, adj := buf[:n+1], buf[n+1:2*n+1], buf[2*n+1:]
 	for _, b := range ps.Bonds {
-		adj[b.I] = append(adj[b.I], b.J)
-		adj[b.J] = append(adj[b.J], b.I)
+		start[b.I+1]++
+		start[b.J+1]++
+	}
+	for i := 0; i < n; i++ {
+		start[i+1] += start[i]
+	}
+	fill := order // temporarily: next free slot per centre
+	copy(fill, start[:n])
+	for _, b := range ps.Bonds {
+		adj[fill[b.I]] = b.J
+		fill[b.I]++
+		adj[fill[b.J]] = b.I
+		fill[b.J]++
+	}
+	for i := range ps.Centres {
+		ps.Centres[i].Fragment = -1
 	}
 	ps.Fragments = ps.Fragments[:0]
-	seen := make([]bool, n)
+	head := 0
 	for s := 0; s < n; s++ {
-		if seen[s] {
+		if ps.Centres[s].Fragment >= 0 {
 			continue
 		}
 		f := len(ps.Fragments)
-		comp := []int{s}
-		seen[s] = true
-		for q := 0; q < len(comp); q++ {
-			for _, t := range adj[comp[q]] {
-				if !seen[t] {
-					seen[t] = true
-					comp = append(comp, t)
+		begin := head
+		order[head] = s
+		head++
+		ps.Centres[s].Fragment = f
+		for q := begin; q < head; q++ {
+			c := order[q]
+			for _, t := range adj[start[c]:start[c+1]] {
+				if ps.Centres[t].Fragment < 0 {
+					ps.Centres[t].Fragment = f
+					order[head] = t
+					head++
 				}
 			}
 		}
+		comp := order[begin:head:head]
 		slices.Sort(comp)
-		for _, c := range comp {
-			ps.Centres[c].Fragment = f
-		}
 		ps.Fragments = append(ps.Fragments, comp)
 	}
 }
