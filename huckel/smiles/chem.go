@@ -138,7 +138,18 @@ func (p *parser) kekuliseAll() bool {
 		if !a.Aromatic {
 			continue
 		}
-		s := m.BondOrderSum(i) // aromatic bonds still count 1
+		s := 0 // aromatic bonds still count 1
+		hasMultiple := false
+		for _, e := range m.Neighbors(i) {
+			b := m.Bonds[e.Bond]
+			s += b.Order
+			hasMultiple = hasMultiple || (!b.Aromatic && b.Order > 1)
+		}
+		if hasMultiple {
+			// an explicit double or triple bond (exocyclic C=O, or c1=cc=cc=c1 written
+			// with its double bonds) already supplies this atom's π bond
+			continue
+		}
 		var vals []int
 		if a.Bracket {
 			s += a.HCount
@@ -349,36 +360,53 @@ func (g *matchGraph) perfect() bool {
 	return free == 0
 }
 
-// greedy matches vertices of minimum free degree first.
+// greedy builds a maximal matching in O(n + m): a vertex left with one free neighbour is
+// matched to it at once (that choice is always safe), otherwise the next free vertex in
+// index order takes its free neighbour of fewest free neighbours.
 func (g *matchGraph) greedy() {
 	n := g.n
-	freeDeg := make([]int, n)
+	buf := make([]int, 2*n)
+	freeDeg, forced := buf[:n], buf[n:n]
 	for v := 0; v < n; v++ {
 		freeDeg[v] = len(g.nbrs(v))
+		if freeDeg[v] == 1 {
+			forced = append(forced, v)
+		}
 	}
+	next := 0
 	for {
-		best := -1
-		for v := 0; v < n; v++ {
-			if g.mate[v] < 0 && freeDeg[v] > 0 && (best < 0 || freeDeg[v] < freeDeg[best]) {
-				best = v
-				if freeDeg[v] == 1 {
-					break
-				}
+		v := -1
+		for len(forced) > 0 && v < 0 {
+			x := forced[len(forced)-1]
+			forced = forced[:len(forced)-1]
+			if g.mate[x] < 0 && freeDeg[x] > 0 {
+				v = x
 			}
 		}
-		if best < 0 {
+		for v < 0 && next < n {
+			if g.mate[next] < 0 && freeDeg[next] > 0 {
+				v = next
+			}
+			next++
+		}
+		if v < 0 {
 			return
 		}
 		w := -1
-		for _, u := range g.nbrs(best) {
+		for _, u := range g.nbrs(v) {
 			if g.mate[u] < 0 && (w < 0 || freeDeg[u] < freeDeg[w]) {
 				w = int(u)
 			}
 		}
-		g.mate[best], g.mate[w] = w, best
-		for _, x := range [2]int{best, w} {
+		g.mate[v], g.mate[w] = w, v
+		for _, x := range [2]int{v, w} {
 			for _, u := range g.nbrs(x) {
-				freeDeg[u]--
+				if g.mate[u] < 0 {
+					freeDeg[u]--
+					if freeDeg[u] == 1 {
+						forced = append(forced, int(u))
+					}
+				}
 			}
 		}
 	}

@@ -35,7 +35,7 @@ var malformed = []struct {
 	{"C[CH]C", ErrRadical, 2, "atom 2 [CH]", ""},
 	{"c1ccnc1", ErrKekulize, 6, "aromatic ring cannot be kekulised", "[nH]"},
 	{"c1cccc1", ErrKekulize, 6, "aromatic ring cannot be kekulised", ""},
-	{"O=c1cccc[n]1", ErrKekulize, 9, "aromatic ring cannot be kekulised", ""},
+	{"O=c1cccc[n]1", ErrKekulize, 5, "aromatic ring cannot be kekulised", ""},
 	{"cC", ErrKekulize, 1, "aromatic atom 1 c is not in a ring", "capital letter"},
 	{"[nH]", ErrKekulize, 1, "not in a ring", ""},
 	{"C:C", ErrKekulize, 1, "aromatic bond ':' joins non-aromatic atom 1", "lowercase"},
