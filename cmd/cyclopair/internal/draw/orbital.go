@@ -100,6 +100,7 @@ func Orbital(orb *huckel.Orbitals, level int, o OrbitalOptions) ([]byte, error) 
 
 // legend draws the key to the circles at (x, y) (pixel top-left of the legend line).
 func legend(cv *canvas, x, y float64, id string, withGrey bool) {
+	x0 := x
 	r := 6.0
 	cv.circle(x+r, y, r, `fill="`+lobeDark+`" stroke="`+lobeDark+`" stroke-width="1.2"`)
 	cv.text(x+2*r+5, y, "c > 0", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
@@ -110,9 +111,9 @@ func legend(cv *canvas, x, y float64, id string, withGrey bool) {
 	if withGrey {
 		cv.circle(x+r, y, r, `fill="`+lobeGrey+`" stroke="`+lobeDark+`" stroke-width="1.2" stroke-dasharray="3 2"`)
 		cv.text(x+2*r+5, y, "density of a degenerate set (no phase)", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
-		x += 255
 	}
-	cv.text(x, y, "circle area ∝ c², the π density on the atom; no circle: |c| < 0.02 (node)", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
+	_ = x
+	cv.text(x0, y+lineHeight+2, "circle area ∝ c², the π density on the atom; no circle: |c| < 0.02 (node)", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
 }
 
 func occupancyWord(n float64) string {
