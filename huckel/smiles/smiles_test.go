@@ -19,7 +19,7 @@ func TestParseDetails(t *testing.T) {
 		doubles int    // number of double bonds in the Kekulé form
 	}{
 		{"c1ccccc1", "111111", 3},
-		{"c1=cc=cc=c1", "111111", 3}, // aromatic atoms with explicit double bonds
+		{"c1=cc=cc=c1", "111111", 3},                  // aromatic atoms with explicit double bonds
 		{"c1ccc2ccccc2c1", "1110111101", 5},           // naphthalene
 		{"c1ccc2cccc2cc1", "1110111011", 5},           // azulene: 5-7 fused, odd rings
 		{"c1ccc2[nH]ccc2c1", "111011101", 4},          // indole
