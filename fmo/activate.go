@@ -3,6 +3,7 @@ package fmo
 import (
 	"errors"
 	"fmt"
+	"slices"
 	"strings"
 
 	"cyclopair/huckel"
@@ -437,4 +438,112 @@ func DieneCautions(diene *molecule.Molecule, mode string) []string {
 		acid = "the acid co-catalyst of iminium catalysis"
 	}
 	return []string{fmt.Sprintf("%s bears an acid-sensitive donor group (%s): %s may hydrolyse or polymerise it before it reacts (common practice, no source)", moleculeLabel(diene), strings.Join(groups, ", "), acid)}
+}
+
+// Effect compares an activated dienophile with its free form: how far the LUMO came down,
+// how the LUMO coefficients at the β- and α-carbons of the activated group's C=C moved apart
+// (c²(Cβ) − c²(Cα); Cα is the carbon bonded to the carbonyl or imine carbon), and how the
+// secondary-orbital (endo) term of the preferred orientation changed. K. N. Houk and
+// R. W. Strozier (J. Am. Chem. Soc. 1973, 95, 4094) explained Lewis-acid catalysis by these
+// three changes: a lower LUMO (faster), a larger coefficient at Cβ (more regioselective) and a
+// larger coefficient at the carbonyl carbon (more endo-selective); the last is reported as
+// CarbonylLUMO, c² of the LUMO at the carbonyl (or imine) carbon, beside the change of the
+// pair's whole endo term, which also holds the inverse pairing.
+//
+// The LUMO is that of the π system containing the activated group. freePair and actPair are
+// the analyses of the same diene with free and activated; either may be nil, and then
+// EndoChange is 0. mode names the activation of activated (to find its group again); for a
+// group not conjugated with a C=C or C≡C both asymmetries are 0.
+func Effect(free, activated *Partner, mode string, freePair, actPair *Pair, opts *Options) *ActivationEffect {
+	eff := &ActivationEffect{}
+	site, err := FindActivationSite(free.Mol, mode)
+	anchor := 0
+	if err == nil && site.Carbon >= 0 {
+		anchor = site.Carbon
+	}
+	xf, asymF, ccF, okF := lumoAt(free, anchor, site)
+	xa, asymA, ccA, okA := lumoAt(activated, anchor, site)
+	if okF && okA {
+		eff.LUMOLowering = Energy{Beta: xa - xf, EV: opts.ev(xf, false) - opts.ev(xa, false)}
+	}
+	eff.BetaAsymmetryFree, eff.BetaAsymmetry = asymF, asymA
+	eff.CarbonylLUMOFree, eff.CarbonylLUMO = ccF, ccA
+	if freePair != nil && actPair != nil && len(freePair.Orientations) > 0 && len(actPair.Orientations) > 0 {
+		eff.EndoChange = actPair.Orientations[0].EndoOverlap - freePair.Orientations[0].EndoOverlap
+	}
+	return eff
+}
+
+// lumoAt returns x of the LUMO of the π fragment holding atom anchor, c²(β) − c²(α) of that
+// LUMO and its c² at the carbonyl/imine carbon (each summed over a degenerate set).
+func lumoAt(p *Partner, anchor int, site ActivationSite) (x, asym, cc float64, ok bool) {
+	c := p.Pi.CentreOf(anchor)
+	if c < 0 {
+		return 0, 0, 0, false
+	}
+	_, l := fragmentFrontier(p.Orb, p.Pi.Centres[c].Fragment)
+	if l < 0 {
+		return 0, 0, 0, false
+	}
+	x = p.Orb.Levels[l].X
+	for _, li := range p.Orb.DegenerateSet(l) {
+		if site.Alpha >= 0 && site.Beta >= 0 {
+			cb := p.Orb.Coefficient(li, site.Beta)
+			ca := p.Orb.Coefficient(li, site.Alpha)
+			asym += cb*cb - ca*ca
+		}
+		if site.Carbon >= 0 {
+			k := p.Orb.Coefficient(li, site.Carbon)
+			cc += k * k
+		}
+	}
+	return x, asym, cc, true
+}
+
+// Variant is the analysis of one activation mode of a dienophile with a diene.
+type Variant struct {
+	Mode string
+	Pair *Pair // nil when Err is set
+	Err  error
+}
+
+// AnalyzeVariants analyses diene with dienophile under each mode in order (dienophile must be
+// the free, unactivated partner). Each activated variant's Pair gets Activated (the Effect
+// against the free dienophile, which is analysed once even when "none" is not among modes)
+// and the cautions of DieneCautions and Activate in its Warnings. A mode that cannot be
+// applied (nothing to activate, bad amine) yields a Variant with Err and the others go on;
+// an error of the free analysis is returned for every variant.
+func AnalyzeVariants(diene, dienophile *Partner, modes []string, act *ActivateOptions, opts *Options) []Variant {
+	out := make([]Variant, 0, len(modes))
+	freePair, freeErr := Analyze(diene, dienophile, opts)
+	for _, mode := range modes {
+		v := Variant{Mode: mode}
+		switch {
+		case freeErr != nil:
+			v.Err = freeErr
+		case mode == ActivateNone:
+			p := *freePair
+			v.Pair = &p
+		default:
+			ap, err := dienophile.WithActivation(mode, act, opts)
+			if err != nil {
+				v.Err = err
+				break
+			}
+			pair, err := Analyze(diene, ap, opts)
+			if err != nil {
+				v.Err = err
+				break
+			}
+			pair.Activated = Effect(dienophile, ap, mode, freePair, pair, opts)
+			for _, w := range DieneCautions(diene.Mol, mode) {
+				if !slices.Contains(pair.Warnings, w) {
+					pair.Warnings = append(pair.Warnings, w)
+				}
+			}
+			v.Pair = pair
+		}
+		out = append(out, v)
+	}
+	return out
 }

@@ -3,6 +3,7 @@ package fmo
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strings"
 	"testing"
 
@@ -198,5 +199,161 @@ func TestDieneCautions(t *testing.T) {
 		if len(got) != 1 || !strings.Contains(got[0], tc.want) {
 			t.Errorf("%s/%s: cautions %q, want one naming %q", tc.smiles, tc.mode, got, tc.want)
 		}
+	}
+}
+
+func defaultOpts(t testing.TB) *Options {
+	t.Helper()
+	o, err := DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return o
+}
+
+// TestActivationHoukStrozier checks the three trends K. N. Houk and R. W. Strozier (J. Am.
+// Chem. Soc. 1973, 95, 4094) gave for Lewis-acid (and proton) complexation of α,β-unsaturated
+// carbonyl dienophiles: the LUMO is lowered, its coefficient at the β-carbon grows relative
+// to the α-carbon (c²(Cβ) − c²(Cα) increases: higher regioselectivity), and the LUMO
+// coefficient at the carbonyl carbon — the secondary (endo) contact — grows. Cyclopentadiene
+// is the diene for the endo term.
+func TestActivationHoukStrozier(t *testing.T) {
+	opts := defaultOpts(t)
+	cp, err := NewPartner("cyclopentadiene", "C1=CCC=C1", RoleDiene, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, d := range []struct{ name, smiles string }{
+		{"acrolein", "C=CC=O"},
+		{"methyl acrylate", "C=CC(=O)OC"},
+		{"methyl vinyl ketone", "C=CC(C)=O"},
+		{"crotonaldehyde", "C/C=C/C=O"},
+	} {
+		free, err := NewPartner(d.name, d.smiles, RoleDienophile, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		vs := AnalyzeVariants(cp, free, []string{ActivateNone, ActivateLewis, ActivateProton}, nil, opts)
+		if len(vs) != 3 {
+			t.Fatalf("%d variants", len(vs))
+		}
+		if vs[0].Err != nil || vs[0].Pair.Activated != nil {
+			t.Errorf("%s none: err %v, effect %+v (want no effect on the free variant)", d.name, vs[0].Err, vs[0].Pair.Activated)
+		}
+		for _, v := range vs[1:] {
+			if v.Err != nil {
+				t.Errorf("%s %s: %v", d.name, v.Mode, v.Err)
+				continue
+			}
+			e := v.Pair.Activated
+			const tol = 1e-6 // |β|; a real change is orders of magnitude larger
+			if e == nil || e.LUMOLowering.Beta <= tol {
+				t.Errorf("%s %s: LUMO lowering %+v, want > 0", d.name, v.Mode, e)
+				continue
+			}
+			if e.BetaAsymmetry <= e.BetaAsymmetryFree+tol {
+				t.Errorf("%s %s: β-carbon asymmetry %.4f, free %.4f: want an increase", d.name, v.Mode, e.BetaAsymmetry, e.BetaAsymmetryFree)
+			}
+			if e.BetaAsymmetryFree <= 0 {
+				t.Errorf("%s: free LUMO asymmetry %.4f, want the β-carbon larger already (Houk 1973)", d.name, e.BetaAsymmetryFree)
+			}
+			// Houk–Strozier's endo argument: the LUMO coefficient at the carbonyl carbon grows.
+			if e.CarbonylLUMO <= e.CarbonylLUMOFree+tol {
+				t.Errorf("%s %s: c² at the carbonyl carbon %.4f, free %.4f: want an increase", d.name, v.Mode, e.CarbonylLUMO, e.CarbonylLUMOFree)
+			}
+			// Known miss: the pair's whole endo term (secondary overlap in both frontier
+			// pairings) stays flat (|change| < 0.002 |β|) instead of growing, because the
+			// inverse-pairing part shrinks as the activated dienophile's HOMO drops while the
+			// normal-pairing part grows; the model therefore does not reproduce the higher endo
+			// selectivity of Lewis-acid catalysis (J. Sauer, J. Kredel, Tetrahedron Lett. 1966,
+			// 7, 731) through endo_overlap. Asserted so a change of the endo term shows.
+			if math.Abs(e.EndoChange) >= 0.002 {
+				t.Errorf("%s %s: endo change %.4f |β|: the recorded known miss (flat endo term) changed; update this test and the report", d.name, v.Mode, e.EndoChange)
+			}
+			if v.Pair.Activation != v.Mode || v.Pair.ActivatedDienophile == "" {
+				t.Errorf("%s %s: pair activation %q, activated %q", d.name, v.Mode, v.Pair.Activation, v.Pair.ActivatedDienophile)
+			}
+			t.Logf("%-20s %-6s LUMO lowered %.3f |β|, asym %.3f → %.3f, c²(C=O) %.3f → %.3f, endo %+.4f", d.name, v.Mode, e.LUMOLowering.Beta, e.BetaAsymmetryFree, e.BetaAsymmetry, e.CarbonylLUMOFree, e.CarbonylLUMO, e.EndoChange)
+		}
+		// protonation (O+, h 2.5) is the stronger perturbation than the default Lewis acid (O=LA, h 2.0)
+		if vs[1].Err == nil && vs[2].Err == nil && vs[2].Pair.Activated.LUMOLowering.Beta <= vs[1].Pair.Activated.LUMOLowering.Beta {
+			t.Errorf("%s: proton lowers the LUMO by %.3f, Lewis acid by %.3f: want proton > lewis with h(O+=) > h(O=LA)", d.name,
+				vs[2].Pair.Activated.LUMOLowering.Beta, vs[1].Pair.Activated.LUMOLowering.Beta)
+		}
+	}
+}
+
+// TestActivationIminium: iminium formation lowers the LUMO of enals (K. A. Ahrendt,
+// C. J. Borths, D. W. C. MacMillan, J. Am. Chem. Soc. 2000, 122, 4243: LUMO-lowering
+// organocatalysis of the Diels–Alder reaction with cinnamaldehyde and crotonaldehyde
+// iminium ions), and products still come from the unactivated aldehyde.
+func TestActivationIminium(t *testing.T) {
+	opts := defaultOpts(t)
+	cp, err := NewPartner("cyclopentadiene", "C1=CCC=C1", RoleDiene, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, d := range []struct{ name, smiles string }{
+		{"cinnamaldehyde", "O=C/C=C/c1ccccc1"},
+		{"crotonaldehyde", "C/C=C/C=O"},
+	} {
+		free, err := NewPartner(d.name, d.smiles, RoleDienophile, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		vs := AnalyzeVariants(cp, free, []string{ActivateIminium}, nil, opts)
+		if vs[0].Err != nil {
+			t.Fatalf("%s: %v", d.name, vs[0].Err)
+		}
+		p := vs[0].Pair
+		if e := p.Activated; e == nil || e.LUMOLowering.Beta <= 0 {
+			t.Errorf("%s iminium: effect %+v, want the LUMO lowered", d.name, p.Activated)
+		}
+		// the product is the aldehyde adduct: no N in it
+		if prod := p.Orientations[0].Product; strings.Contains(prod, "N") {
+			t.Errorf("%s iminium: product %s carries the amine", d.name, prod)
+		}
+	}
+}
+
+// TestActivationVariantErrors: a dienophile without a carbonyl gets a clear error for the
+// activated variants while the free variant is still analysed.
+func TestActivationVariantErrors(t *testing.T) {
+	opts := defaultOpts(t)
+	cp, _ := NewPartner("cyclopentadiene", "C1=CCC=C1", RoleDiene, opts)
+	eth, err := NewPartner("ethylene", "C=C", RoleDienophile, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	vs := AnalyzeVariants(cp, eth, []string{ActivateNone, ActivateLewis}, nil, opts)
+	if vs[0].Err != nil || vs[0].Pair == nil {
+		t.Errorf("free ethylene: %v", vs[0].Err)
+	}
+	if !errors.Is(vs[1].Err, ErrNothingToActivate) || !strings.Contains(vs[1].Err.Error(), "dienophile ethylene has no carbonyl or imine to activate (use --activate none)") {
+		t.Errorf("lewis ethylene: err = %v", vs[1].Err)
+	}
+}
+
+// TestLewisStrength: a larger h(O=LA) lowers the LUMO further (monotone in the strength).
+func TestLewisStrength(t *testing.T) {
+	opts := defaultOpts(t)
+	free, err := NewPartner("acrolein", "C=CC=O", RoleDienophile, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	prev := math.Inf(-1)
+	for _, h := range []float64{1.5, 2.0, 2.5, 3.0} {
+		ap, err := free.WithActivation(ActivateLewis, &ActivateOptions{LewisStrength: h}, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		e := Effect(free, ap, ActivateLewis, nil, nil, opts)
+		if e.LUMOLowering.Beta <= prev {
+			t.Errorf("h(O=LA) = %.1f: LUMO lowering %.4f not above %.4f", h, e.LUMOLowering.Beta, prev)
+		}
+		prev = e.LUMOLowering.Beta
+	}
+	if got := LewisParams(opts.Params, 0); got != opts.Params {
+		t.Errorf("LewisParams(h=0) must return the base set unchanged")
 	}
 }

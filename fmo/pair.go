@@ -61,6 +61,8 @@ type ActivationEffect struct {
 	BetaAsymmetry     float64 `json:"beta_asymmetry"`      // c²(β-C) − c²(α-C) of the LUMO in the activated dienophile
 	BetaAsymmetryFree float64 `json:"beta_asymmetry_free"` // same for the free dienophile
 	EndoChange        float64 `json:"endo_change"`         // endo term (activated) − endo term (free), |β|
+	CarbonylLUMO      float64 `json:"carbonyl_lumo"`       // c² of the LUMO at the activated carbonyl (imine) carbon
+	CarbonylLUMOFree  float64 `json:"carbonyl_lumo_free"`  // same for the free dienophile
 }
 
 // Pair is the analysis of one 4π partner ("diene": diene, hetero-diene or 1,3-dipole) with one
