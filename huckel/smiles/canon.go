@@ -79,7 +79,7 @@ func Canonical(m *molecule.Molecule) string {
 				need[b.A], need[b.B] = true, true
 			}
 		}
-		if kekulise(c, need) >= 0 {
+		if kekulise(c, need, nil) >= 0 {
 			// Cannot happen (m's own double bonds are a perfect matching of this graph);
 			// keep m's orders rather than write a broken structure.
 			for i := range c.Bonds {

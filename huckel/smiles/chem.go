@@ -96,8 +96,8 @@ func (p *parser) atomText(i int) string {
 func (p *parser) kekuliseAll() bool {
 	m := p.m
 	n := len(m.Atoms)
-	inRing := ringBondsInto(m, make([]bool, len(m.Bonds)))
-	atomInRing := make([]bool, n)
+	inRing := ringBonds(m, p.sc.bools(&p.sc.b1, len(m.Bonds)), &p.sc)
+	atomInRing := p.sc.bools(&p.sc.b2, n)
 	for bi := range m.Bonds {
 		b := &m.Bonds[bi]
 		if inRing[bi] {
@@ -165,7 +165,7 @@ func (p *parser) kekuliseAll() bool {
 			need[i] = true
 		}
 	}
-	unmatched := kekulise(m, need)
+	unmatched := kekulise(m, need, &p.sc)
 	if unmatched >= 0 {
 		a := m.Atoms[unmatched]
 		p.errorf(a.Pos, ErrKekulize, kekuleHint(a),
@@ -185,6 +185,11 @@ func kekuleHint(a molecule.Atom) string {
 // ringBondsInto marks in inRing (len(m.Bonds)) the bonds that lie in at least one ring,
 // that is every bond that is not a bridge (Tarjan's bridge-finding DFS, iterative).
 func ringBondsInto(m *molecule.Molecule, inRing []bool) []bool {
+	return ringBonds(m, inRing, nil)
+}
+
+// ringBonds is ringBondsInto with work space from sc (nil: allocate).
+func ringBonds(m *molecule.Molecule, inRing []bool, sc *scratch) []bool {
 	n := len(m.Atoms)
 	for i := range inRing {
 		inRing[i] = true
@@ -192,7 +197,10 @@ func ringBondsInto(m *molecule.Molecule, inRing []bool) []bool {
 	if len(m.Bonds) == 0 {
 		return inRing
 	}
-	disc := make([]int32, 2*n)
+	if sc == nil {
+		sc = new(scratch)
+	}
+	disc := sc.int32s(&sc.i1, 2*n)
 	low := disc[n:]
 	disc = disc[:n]
 	type frame struct {
@@ -245,7 +253,10 @@ func ringBondsInto(m *molecule.Molecule, inRing []bool) []bool {
 // kekulise gives each atom with need[i] exactly one double bond among its aromatic bonds
 // to other such atoms, setting Order 2 there and 1 on the other aromatic bonds. It returns
 // -1 on success or an atom left without a partner.
-func kekulise(m *molecule.Molecule, need []bool) int {
+func kekulise(m *molecule.Molecule, need []bool, sc *scratch) int {
+	if sc == nil {
+		sc = new(scratch)
+	}
 	// local numbering of the atoms that need a double bond
 	n := 0
 	for _, x := range need {
@@ -261,7 +272,7 @@ func kekulise(m *molecule.Molecule, need []bool) int {
 	if n == 0 {
 		return -1
 	}
-	buf := make([]int, 4*n+1+len(need))
+	buf := sc.ints(&sc.n1, 4*n+1+len(need))
 	local := buf[:len(need)]
 	global := buf[len(need) : len(need)+n]
 	mate := buf[len(need)+n : len(need)+2*n]
@@ -289,7 +300,7 @@ func kekulise(m *molecule.Molecule, need []bool) int {
 	for v := 0; v < n; v++ {
 		start[v+1] = start[v] + deg[v]
 	}
-	adj := make([]int32, 2*edges)
+	adj := sc.int32s(&sc.i1, 2*edges)
 	fill := deg // reuse as fill pointers
 	for v := 0; v < n; v++ {
 		fill[v] = start[v]
@@ -303,7 +314,7 @@ func kekulise(m *molecule.Molecule, need []bool) int {
 			fill[c]++
 		}
 	}
-	g := matchGraph{n: n, start: start, adj: adj, mate: mate}
+	g := matchGraph{n: n, start: start, adj: adj, mate: mate, sc: sc}
 	if !g.perfect() {
 		for v := 0; v < n; v++ {
 			if mate[v] < 0 {
@@ -327,6 +338,7 @@ type matchGraph struct {
 	start []int   // adjacency of v is adj[start[v]:start[v+1]]
 	adj   []int32 // neighbours
 	mate  []int   // filled by perfect: partner or -1
+	sc    *scratch
 }
 
 func (g *matchGraph) nbrs(v int) []int32 { return g.adj[g.start[v]:g.start[v+1]] }
@@ -365,7 +377,7 @@ func (g *matchGraph) perfect() bool {
 // index order takes its free neighbour of fewest free neighbours.
 func (g *matchGraph) greedy() {
 	n := g.n
-	buf := make([]int, 2*n)
+	buf := g.sc.ints(&g.sc.n2, 2*n)
 	freeDeg, forced := buf[:n], buf[n:n]
 	for v := 0; v < n; v++ {
 		freeDeg[v] = len(g.nbrs(v))
@@ -510,4 +522,39 @@ func (e *edmonds) augment(root int) bool {
 		}
 	}
 	return false
+}
+
+// scratch holds reusable work space for one parser (see parserPool); functions that take
+// one make their own when given nil.
+type scratch struct {
+	b1, b2 []bool
+	i1     []int32
+	n1, n2 []int
+}
+
+func (sc *scratch) bools(f *[]bool, n int) []bool {
+	if cap(*f) < n {
+		*f = make([]bool, n, max(n, 32))
+	}
+	s := (*f)[:n]
+	clear(s)
+	return s
+}
+
+func (sc *scratch) int32s(f *[]int32, n int) []int32 {
+	if cap(*f) < n {
+		*f = make([]int32, n, max(n, 64))
+	}
+	s := (*f)[:n]
+	clear(s)
+	return s
+}
+
+func (sc *scratch) ints(f *[]int, n int) []int {
+	if cap(*f) < n {
+		*f = make([]int, n, max(n, 64))
+	}
+	s := (*f)[:n]
+	clear(s)
+	return s
 }

@@ -51,6 +51,7 @@ package smiles
 import (
 	"fmt"
 	"strconv"
+	"sync"
 
 	"cyclopair/huckel/molecule"
 )
@@ -106,7 +107,12 @@ type parser struct {
 	hasAromatic bool
 	bad         bool // a non-fatal error was recorded; skip the chemistry checks
 	symBuf      [64]byte
+	sc          scratch // work space for ring search and kekulisation, kept by the pool
 }
+
+// parserPool recycles parsers and their work space: in a batch, Parse then allocates only
+// what the returned molecule owns.
+var parserPool = sync.Pool{New: func() any { return new(parser) }}
 
 // Parse reads one SMILES string. The returned molecule has Source set to s, atoms in the
 // order they appear in s (Atom.Pos is each atom's byte offset), Kekulé bond orders and
@@ -116,10 +122,15 @@ func Parse(s string) (*molecule.Molecule, error) {
 	if len(s) == 0 {
 		return nil, &Error{Input: s, Pos: 0, Msg: "empty input", Hint: "give a SMILES such as C=CC=C", Err: ErrEmpty}
 	}
-	p := &parser{src: s, prev: -1, dotPos: -1}
+	p := parserPool.Get().(*parser)
+	defer p.release()
+	p.src, p.prev, p.dotPos = s, -1, -1
 	p.rings = p.ringBuf[:0]
 	p.branches = p.brBuf[:0]
-	p.bondSyms = p.symBuf[:0]
+	p.bondSyms = p.bondSyms[:0]
+	if p.bondSyms == nil {
+		p.bondSyms = p.symBuf[:0]
+	}
 	na, nb := estimateSize(s)
 	p.m = &molecule.Molecule{
 		Source: s,
@@ -135,6 +146,17 @@ func Parse(s string) (*molecule.Molecule, error) {
 		return nil, p.errs.Err()
 	}
 	return p.m, nil
+}
+
+// release clears everything that belongs to the caller and returns p to the pool.
+func (p *parser) release() {
+	sc, syms := p.sc, p.bondSyms
+	if cap(syms) > 1<<16 {
+		syms = nil // do not keep huge buffers alive
+		sc = scratch{}
+	}
+	*p = parser{sc: sc, bondSyms: syms[:0]}
+	parserPool.Put(p)
 }
 
 // estimateSize returns capacity hints for atoms and bonds: an upper bound on the atoms
