@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"unicode/utf8"
 )
 
 // Sentinel errors. Every *Error wraps exactly one of them, so callers can ask
@@ -31,7 +32,8 @@ type Error struct {
 	Err   error  // one of the Err* sentinels
 }
 
-// Column is the 1-based column of the problem.
+// Column is the 1-based column of the problem, counted in bytes (SMILES is ASCII; a stray
+// non-ASCII character is reported at its first byte).
 func (e *Error) Column() int { return e.Pos + 1 }
 
 func (e *Error) Error() string {
@@ -70,7 +72,7 @@ func (e *Error) Excerpt() string {
 	b.WriteString(s[start:end])
 	b.WriteString(suffix)
 	b.WriteByte('\n')
-	b.WriteString(strings.Repeat(" ", len(prefix)+pos-start))
+	b.WriteString(strings.Repeat(" ", len(prefix)+utf8.RuneCountInString(s[start:pos])))
 	b.WriteByte('^')
 	return b.String()
 }

@@ -50,6 +50,7 @@ package smiles
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"sync"
 
@@ -137,13 +138,14 @@ func Parse(s string) (*molecule.Molecule, error) {
 		Atoms:  make([]molecule.Atom, 0, na),
 		Bonds:  make([]molecule.Bond, 0, nb),
 	}
-	if !p.scan() || p.bad {
-		return nil, p.errs.Err()
+	if p.scan() && !p.bad {
+		p.m.Reindex()
+		p.chemistry()
 	}
-	p.m.Reindex()
-	p.chemistry()
 	if len(p.errs) > 0 {
-		return nil, p.errs.Err()
+		errs := p.errs
+		slices.SortStableFunc(errs, func(a, b *Error) int { return a.Pos - b.Pos })
+		return nil, errs.Err()
 	}
 	return p.m, nil
 }
