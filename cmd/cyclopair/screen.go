@@ -1,0 +1,455 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"unicode/utf8"
+
+	"cyclopair/cmd/cyclopair/internal/htmlreport"
+	"cyclopair/cmd/cyclopair/internal/render"
+	"cyclopair/fmo"
+	"cyclopair/huckel"
+	"cyclopair/presets"
+
+	"github.com/spf13/cobra"
+)
+
+// screenOptions are the flags of 'cyclopair screen' (and 'cyclopair demo').
+type screenOptions struct {
+	file           string // substrate file, "-" for stdin, "" when only lists are given
+	dienes         string // list file replacing the file's dienes
+	dienophiles    string
+	activate       string
+	params         string
+	rankBy         string
+	top            int
+	demand         string
+	minRegioMargin float64
+	maxGap         float64
+	allowedOnly    bool
+	format         string
+	workers        int
+	shard          string
+	// changed records which flags the user set (they override the substrate file).
+	changed func(name string) bool
+}
+
+func newScreenCmd(s *streams) *cobra.Command {
+	o := &screenOptions{}
+	cmd := &cobra.Command{
+		Use:   "screen [FILE.yaml | -]",
+		Short: "Screen every diene × dienophile × activation of a substrate file, ranked",
+		Long: `Screen runs the pair analysis over every diene × dienophile × activation of a
+substrate file (YAML; '-' reads it from stdin) and prints the ranked pairs. Each molecule and
+each activated dienophile is prepared once; pairs are scored on all cores with the fast
+screening kernel, ranked, and only the rows printed get the full analysis (products, labels,
+warnings).
+
+Gaps and margins are in units of |β| (E = α + xβ, β < 0) and gaps also in eV through the
+calibration named in the header. Ranking keys: normal_gap (LUMO(dienophile) − HOMO(diene),
+smallest first; the default), gap (controlling gap), stabilization, regio_margin, score
+(larger first), none (pair order of the input, streamed).
+
+Instead of (or on top of) a YAML file, --dienes and --dienophiles read CSV (name,smiles) or
+plain files (one SMILES per line, optionally followed by a name). Command-line flags override
+the file's settings. Rows that fail (bad SMILES, unknown preset, nothing to react) are listed
+on stderr at the end and the exit code is 1; the other rows are screened.
+
+Results are estimates for planning, not safety assessments.`,
+		Example: `  cyclopair screen substrates.yaml
+  cyclopair screen substrates.yaml --format json --top 100 > best.jsonl
+  cyclopair screen --dienes dienes.csv --dienophiles dienophiles.txt --activate none,lewis
+  cyclopair screen big.yaml --rank-by none --shard 3/8 --format csv > part3.csv`,
+		Args: cobra.MaximumNArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
+			if len(args) == 1 {
+				o.file = args[0]
+			}
+			if o.file == "" && (o.dienes == "" || o.dienophiles == "") {
+				return &usageError{errors.New("give a substrate file, or both --dienes and --dienophiles")}
+			}
+			o.changed = c.Flags().Changed
+			return runScreen(c.Context(), s, o, nil)
+		},
+	}
+	addScreenFlags(cmd, o)
+	cmd.Flags().StringVar(&o.dienes, "dienes", "", "CSV (name,smiles) or one-SMILES-per-line `file` of 4π partners (replaces the file's dienes)")
+	cmd.Flags().StringVar(&o.dienophiles, "dienophiles", "", "CSV or one-SMILES-per-line `file` of 2π partners (replaces the file's dienophiles)")
+	cmd.Flags().StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
+	_ = cmd.MarkFlagFilename("dienes", "csv", "txt", "smi")
+	_ = cmd.MarkFlagFilename("dienophiles", "csv", "txt", "smi")
+	return cmd
+}
+
+// addScreenFlags adds the flags screen and demo share.
+func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
+	f := cmd.Flags()
+	f.StringVar(&o.activate, "activate", "", "activation `modes`, comma-separated: none, proton, lewis, iminium (default: the file's, else none)")
+	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
+	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
+	f.IntVar(&o.top, "top", 0, "print only the best `K` rows (0: all; default: the file's)")
+	f.StringVar(&o.demand, "demand", "", "keep only pairs of this `demand`: normal, inverse, neutral, any")
+	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
+	f.Float64Var(&o.maxGap, "max-gap", 0, "keep only pairs whose controlling gap is at most `X` |β|")
+	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
+	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
+	f.IntVar(&o.workers, "workers", 0, "worker goroutines (0: all cores)")
+}
+
+// screenInput is a loaded screen: the library plus the rows that failed to load.
+type screenInput struct {
+	lib *fmo.Library
+	bad []error
+	dir string // directory of the substrate file, for params_file
+}
+
+// loadScreenInput reads the substrate file and list files named in o. data, if not nil, is
+// the substrate file's content (the demo passes the embedded file).
+func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, error) {
+	in := &screenInput{}
+	if o.file != "" {
+		if data == nil {
+			var err error
+			data, err = readInput(s, o.file, fmo.DefaultMaxFileBytes)
+			if err != nil {
+				return nil, err
+			}
+			if o.file != "-" {
+				in.dir = filepath.Dir(o.file)
+			}
+		}
+		name := o.file
+		if name == "-" {
+			name = "stdin"
+		}
+		lib, bad, err := fmo.ParseLibrary(data, fmo.LoadOptions{Name: name})
+		if err != nil {
+			return nil, &inputError{err}
+		}
+		in.lib = lib
+		for _, b := range bad {
+			in.bad = append(in.bad, b)
+		}
+	} else {
+		in.lib = &fmo.Library{Activations: []string{fmo.ActivateNone}, RankBy: fmo.RankNormalGap, Set: map[string]bool{}}
+	}
+	for _, side := range []struct {
+		file string
+		dst  *[]fmo.Substrate
+		max  int
+	}{{o.dienes, &in.lib.Dienes, 4}, {o.dienophiles, &in.lib.Dienophiles, 2}} {
+		if side.file == "" {
+			continue
+		}
+		r, closeFn, err := openInput(s, side.file)
+		if err != nil {
+			return nil, err
+		}
+		subs, bad, err := fmo.LoadList(r, side.file, side.max, fmo.DefaultMaxFileBytes)
+		closeFn()
+		if err != nil {
+			return nil, &inputError{err}
+		}
+		*side.dst = subs
+		for _, b := range bad {
+			in.bad = append(in.bad, b)
+		}
+	}
+	return in, nil
+}
+
+// openInput opens a file, or stdin for "-".
+func openInput(s *streams, name string) (io.Reader, func(), error) {
+	if name == "-" {
+		return s.in, func() {}, nil
+	}
+	f, err := os.Open(name)
+	if err != nil {
+		return nil, nil, &inputError{fmt.Errorf("%s: cannot open (%v)", name, unwrapPathError(err))}
+	}
+	return f, func() { f.Close() }, nil
+}
+
+// readInput reads a whole file (or stdin) up to max bytes.
+func readInput(s *streams, name string, max int64) ([]byte, error) {
+	r, closeFn, err := openInput(s, name)
+	if err != nil {
+		return nil, err
+	}
+	defer closeFn()
+	data, err := io.ReadAll(io.LimitReader(r, max+1))
+	if err != nil {
+		return nil, &inputError{fmt.Errorf("%s: cannot read (%v)", name, err)}
+	}
+	if int64(len(data)) > max {
+		return nil, &inputError{fmt.Errorf("%s: larger than %d bytes (split the screen, or use --shard)", name, max)}
+	}
+	return data, nil
+}
+
+func unwrapPathError(err error) error {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+// applyFlags lets the command-line flags override the library's settings.
+func applyFlags(lib *fmo.Library, o *screenOptions) error {
+	changed := o.changed
+	if changed == nil {
+		changed = func(string) bool { return false }
+	}
+	if changed("activate") {
+		var modes []string
+		for _, m := range strings.Split(o.activate, ",") {
+			m = strings.ToLower(strings.TrimSpace(m))
+			if m == "" {
+				continue
+			}
+			if !contains(fmo.Modes(), m) {
+				return &usageError{fmt.Errorf("--activate: unknown mode %q (modes: %s)", m, strings.Join(fmo.Modes(), ", "))}
+			}
+			if !contains(modes, m) {
+				modes = append(modes, m)
+			}
+		}
+		if len(modes) == 0 {
+			return &usageError{errors.New("--activate: no mode given")}
+		}
+		lib.Activations = modes
+	}
+	if changed("rank-by") {
+		k, err := fmo.ParseRankKey(o.rankBy)
+		if err != nil {
+			return &usageError{fmt.Errorf("--rank-by: %v", err)}
+		}
+		lib.RankBy = k
+	}
+	if changed("top") {
+		if o.top < 0 {
+			return &usageError{errors.New("--top: must be 0 (all) or positive")}
+		}
+		lib.Top = o.top
+	}
+	if changed("demand") {
+		switch o.demand {
+		case "normal", "inverse", "neutral":
+			lib.Filter.Demand = o.demand
+		case "any", "":
+			lib.Filter.Demand = ""
+		default:
+			return &usageError{fmt.Errorf("--demand %q: want normal, inverse, neutral or any", o.demand)}
+		}
+	}
+	if changed("min-regio-margin") {
+		if o.minRegioMargin < 0 {
+			return &usageError{errors.New("--min-regio-margin: must be ≥ 0")}
+		}
+		lib.Filter.MinRegioMargin = o.minRegioMargin
+	}
+	if changed("max-gap") {
+		if o.maxGap < 0 {
+			return &usageError{errors.New("--max-gap: must be ≥ 0 (0: no limit)")}
+		}
+		lib.Filter.MaxGap = o.maxGap
+	}
+	if changed("allowed-only") {
+		lib.Filter.AllowedOnly = o.allowedOnly
+	}
+	return nil
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+// screenParams picks the parameter set: --params, else the file's params_file (relative to
+// the file), else its params, else the default.
+func screenParams(in *screenInput, o *screenOptions) (*huckel.Params, error) {
+	switch {
+	case o.params != "":
+		return resolveParams(o.params)
+	case in.lib.ParamsFile != "":
+		path := in.lib.ParamsFile
+		if !filepath.IsAbs(path) && in.dir != "" {
+			path = filepath.Join(in.dir, path)
+		}
+		return resolveParams(path)
+	}
+	return resolveParams(in.lib.Params)
+}
+
+// screenCalibration returns the calibration the file names ("" or "default": the default
+// calibration fitted for the parameter set).
+func screenCalibration(lib *fmo.Library, p *huckel.Params) (huckel.Calibration, error) {
+	switch lib.Calibration {
+	case "", "default":
+	default:
+		return huckel.Calibration{}, &inputError{fmt.Errorf("%s: calibration %q: unknown (the built-in calibration is \"default\", fitted for each parameter set)", lib.Source, lib.Calibration)}
+	}
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		return cal, &inputError{fmt.Errorf("calibration for parameter set %s: %v", p.Name, err)}
+	}
+	return cal, nil
+}
+
+// runScreen is the whole screen command: load, prepare, screen, render, report failures.
+// data, if not nil, replaces reading o.file (used by the demo).
+func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) error {
+	if ctx == nil {
+		ctx = context.Background()
+	}
+	format := o.format
+	if format != "html" {
+		f, err := render.ParseFormat(format)
+		if err != nil {
+			return &usageError{fmt.Errorf("--format: %v", err)}
+		}
+		format = string(f)
+	}
+	var shard fmo.Shard
+	if o.shard != "" {
+		sh, err := fmo.ParseShard(o.shard)
+		if err != nil {
+			return &usageError{fmt.Errorf("--shard: %v", err)}
+		}
+		shard = sh
+	}
+	if o.workers < 0 {
+		return &usageError{errors.New("--workers: must be 0 (all cores) or positive")}
+	}
+	in, err := loadScreenInput(s, o, data)
+	if err != nil {
+		return err
+	}
+	lib := in.lib
+	if err := applyFlags(lib, o); err != nil {
+		return err
+	}
+	params, err := screenParams(in, o)
+	if err != nil {
+		return err
+	}
+	cal, err := screenCalibration(lib, params)
+	if err != nil {
+		return err
+	}
+	opts := fmo.NewOptions(params, cal, cal.Name)
+
+	prep, err := fmo.Prepare(ctx, lib, opts, o.workers, nil)
+	if err != nil {
+		return fmt.Errorf("interrupted while preparing molecules: %w", err)
+	}
+	failures := append([]error(nil), in.bad...)
+	for _, f := range prep.Failures {
+		failures = append(failures, f)
+	}
+	if len(prep.Dienes) == 0 || len(prep.Dienophiles) == 0 {
+		printFailures(s, failures)
+		return &inputError{fmt.Errorf("%s: nothing to screen: %d usable dienes, %d usable dienophiles (the failed rows are listed above)",
+			sourceName(o), len(prep.Dienes), len(prep.Dienophiles))}
+	}
+
+	rep := render.Report{
+		Title:             lib.Title,
+		Source:            sourceName(o),
+		Params:            params.Name,
+		Calibration:       cal.Name,
+		CalibrationDetail: strings.TrimPrefix(cal.String(), cal.Name+": "),
+		RankBy:            string(lib.RankBy),
+		Filters:           lib.Filter.Describe(),
+		Shard:             shard.String(),
+	}
+	lay := render.Layout{}
+	for _, r := range prep.DieneRows {
+		lay.DieneWidth = max(lay.DieneWidth, utf8.RuneCountInString(r.Name))
+	}
+	for _, r := range prep.DphRows {
+		lay.DienophileWidth = max(lay.DienophileWidth, utf8.RuneCountInString(r.Name))
+	}
+	for _, a := range prep.Activations {
+		lay.ActivationWidth = max(lay.ActivationWidth, utf8.RuneCountInString(a))
+	}
+	var w render.Writer
+	if format == "html" {
+		w = htmlreport.New(s.out, rep, htmlreport.Config{Options: opts, Calibration: &cal, Kind: "screen"})
+	} else {
+		w, err = render.New(render.Format(format), s.out, rep, lay)
+		if err != nil {
+			return err
+		}
+	}
+
+	space := prep.Space()
+	lo, hi := shard.Range(space.Len())
+	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
+	var pairFailures []error
+	st, runErr := prep.Screen(ctx, fmo.ScreenOptions{
+		Workers: o.workers, RankBy: lib.RankBy, Top: lib.Top, Filter: lib.Filter, Shard: shard,
+		Progress: prog.Add,
+	}, func(r fmo.ScreenRow) error {
+		return w.WriteRow(render.Row{Rank: int(r.Rank), Pair: r.Pair})
+	}, func(f fmo.ScreenFailure) {
+		pairFailures = append(pairFailures, f)
+	})
+	prog.Stop()
+	failures = append(failures, pairFailures...)
+	sum := render.Summary{Pairs: int(st.Scored), Passed: int(st.Passed), Shown: int(st.Shown),
+		Failed: len(failures), Canceled: st.Canceled}
+	if err := w.Close(sum); err != nil && runErr == nil {
+		runErr = err
+	}
+	printFailures(s, failures)
+	if runErr != nil {
+		if errors.Is(runErr, context.Canceled) {
+			return fmt.Errorf("interrupted: %d rows written before the stop", st.Shown)
+		}
+		return runErr
+	}
+	if prep.NotApplicable > 0 {
+		fmt.Fprintf(s.err, "cyclopair: note: %d dienophile × activation combinations skipped: the mode has nothing to act on\n", prep.NotApplicable)
+	}
+	if len(failures) > 0 {
+		total := len(lib.Dienes) + len(lib.Dienophiles) + len(in.bad) + int(st.Scored)
+		return &partialError{failed: len(failures), total: total}
+	}
+	return nil
+}
+
+func sourceName(o *screenOptions) string {
+	var parts []string
+	if o.file != "" {
+		if o.file == "-" {
+			parts = append(parts, "stdin")
+		} else {
+			parts = append(parts, o.file)
+		}
+	}
+	if o.dienes != "" {
+		parts = append(parts, "dienes from "+o.dienes)
+	}
+	if o.dienophiles != "" {
+		parts = append(parts, "dienophiles from "+o.dienophiles)
+	}
+	return strings.Join(parts, ", ")
+}
+
+// printFailures lists failed inputs on stderr, one line each, in input order.
+func printFailures(s *streams, failures []error) {
+	for _, f := range failures {
+		fmt.Fprintf(s.err, "cyclopair: %v\n", f)
+	}
+}
