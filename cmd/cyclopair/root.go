@@ -69,6 +69,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newOrbitalsCmd(s),
 		newParamsCmd(s),
 		newDrawCmd(s),
+		newScreenCmd(s),
 	)
 	return root
 }
