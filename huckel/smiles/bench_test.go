@@ -46,3 +46,20 @@ func BenchmarkWrite(b *testing.B) {
 		Write(m)
 	}
 }
+
+// BenchmarkCanonical: a cycloadduct-sized molecule (the Diels–Alder adduct of
+// cyclopentadiene and N-phenylmaleimide, 19 heavy atoms) and warfarin (23).
+func BenchmarkCanonical(b *testing.B) {
+	for _, s := range []string{"O=C1C2C3C=CC(C3)C2C(=O)N1c1ccccc1", "CC(=O)CC(c1ccccc1)c1c(O)c2ccccc2oc1=O"} {
+		m, err := Parse(s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(s, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				Canonical(m)
+			}
+		})
+	}
+}

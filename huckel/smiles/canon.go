@@ -151,37 +151,40 @@ func alternation(m *molecule.Molecule) ([]int8, int) {
 // canonicalRanks returns a permutation rank[atom] in 0..n-1 (see Canonical).
 func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
 	n := len(m.Atoms)
-	rank := make([]int, n)
-	order := make([]int, n)
-	for i := range order {
-		order[i] = i
+	type key [6]int
+	keys := make([]key, n)
+	for i, a := range m.Atoms {
+		keys[i] = key{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map}
 	}
-	inv := func(i int) []int {
-		a := m.Atoms[i]
-		return []int{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map}
-	}
-	slices.SortStableFunc(order, func(x, y int) int {
-		if c := slices.Compare(inv(x), inv(y)); c != 0 {
+	cmpAtoms := func(x, y int) int {
+		if c := slices.Compare(keys[x][:], keys[y][:]); c != 0 {
 			return c
 		}
 		return cmp.Compare(m.Atoms[x].Element, m.Atoms[y].Element)
-	})
+	}
+	ints := make([]int, 3*n)
+	rank, order, newRank := ints[:n], ints[n:2*n], ints[2*n:]
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortStableFunc(order, cmpAtoms)
 	classes := 0
 	for k, i := range order {
-		if k > 0 {
-			x, y := order[k-1], i
-			if slices.Compare(inv(x), inv(y)) != 0 || m.Atoms[x].Element != m.Atoms[y].Element {
-				classes++
-			}
+		if k > 0 && cmpAtoms(order[k-1], i) != 0 {
+			classes++
 		}
 		rank[i] = classes
 	}
 	classes++
 
-	// signature buffers
+	// signature of atom i: its rank, then the sorted (neighbour rank, bond type) codes
+	sigBuf := make([]int, n+2*len(m.Bonds))
 	sig := make([][]int, n)
+	off := 0
 	for i := range sig {
-		sig[i] = make([]int, 0, 1+m.Degree(i))
+		d := 1 + m.Degree(i)
+		sig[i] = sigBuf[off : off : off+d]
+		off += d
 	}
 	refine := func() {
 		for {
@@ -195,7 +198,6 @@ func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
 			}
 			slices.SortStableFunc(order, func(x, y int) int { return slices.Compare(sig[x], sig[y]) })
 			next := 0
-			newRank := make([]int, n)
 			for k, i := range order {
 				if k > 0 && slices.Compare(sig[order[k-1]], sig[i]) != 0 {
 					next++
@@ -212,28 +214,25 @@ func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
 	}
 	refine()
 	for classes < n {
-		// lowest tied class; promote its lowest-index atom
+		// order is sorted by rank: find the lowest tied class and promote its lowest index
 		best := -1
-		for k := 1; k < n; k++ {
-			if rank[order[k]] == rank[order[k-1]] {
-				r := rank[order[k]]
-				// choose the lowest index among atoms of rank r
-				for _, i := range order {
-					if rank[i] == r && (best < 0 || i < best) {
-						best = i
-					}
+		for k := 1; k < n && best < 0; k++ {
+			r := rank[order[k]]
+			if r != rank[order[k-1]] {
+				continue
+			}
+			for j := k - 1; j < n && rank[order[j]] == r; j++ {
+				if best < 0 || order[j] < best {
+					best = order[j]
 				}
-				break
 			}
 		}
 		for i := range rank {
 			rank[i] *= 2
 		}
 		rank[best]--
-		// densify
 		slices.SortStableFunc(order, func(x, y int) int { return rank[x] - rank[y] })
 		next := 0
-		newRank := make([]int, n)
 		for k, i := range order {
 			if k > 0 && rank[order[k-1]] != rank[i] {
 				next++
