@@ -41,6 +41,9 @@ func newTable(w io.Writer, rep Report, lay Layout) (*tableWriter, error) {
 		{"warn", 4, true},
 		{"product", 0, false},
 	}
+	if rep.Title != "" {
+		t.printf("# cyclopair screen: %s\n", orDash(rep.Title))
+	}
 	for _, l := range headerLines(rep) {
 		t.printf("# %s\n", l)
 	}
