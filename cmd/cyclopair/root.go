@@ -70,6 +70,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newParamsCmd(s),
 		newDrawCmd(s),
 		newScreenCmd(s),
+		newDemoCmd(s),
 	)
 	return root
 }
