@@ -61,8 +61,11 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			if !ed.ok {
 				continue
 			}
+			s01 := [2]orientScore{}
+			s01[0], s01[1] = k.scorePair(&dd.fast, &ed.fast)
 			for or := 0; or < 2; or++ {
-				s := k.scoreOrientation(dd, ed, du.Kind == UnitDipole, or)
+				s := s01[or]
+				s.endo = k.endoTerm(&dd.fast, &ed.fast, &diene.endo[di], &dienophile.endo[ei], or)
 				pm, bonds := buildProduct(diene, dienophile, di, ei, or)
 				smi := productSMILES(pm)
 				dAtoms := slices.Clone(du.Atoms)

@@ -441,3 +441,62 @@ func TestPairingTermContinuity(t *testing.T) {
 		t.Errorf("large gap: %g; want 2S/g", e)
 	}
 }
+
+// TestEndoTermBruteForce checks the expanded secondary-orbital formula against the direct sum
+// over frontier set members of (Σ_contacts w·c·c)², from the orbital coefficients.
+func TestEndoTermBruteForce(t *testing.T) {
+	const tol = 1e-12 // |β|
+	o := testOptions(t)
+	for _, c := range [][2]string{{"C1=CC=CC1", "O=C1OC(=O)C=C1"}, {"C=CC(C)=C", "C=CC(=O)OC"}, {"COC=CC=C", "C=CC=O"}} {
+		d := mustPartner(t, c[0], RoleDiene, o)
+		e := mustPartner(t, c[1], RoleDienophile, o)
+		k := o.kernel()
+		for di, du := range d.Units {
+			for ei, eu := range e.Units {
+				dd, ed := &d.data[di], &e.data[ei]
+				for or := 0; or < 2; or++ {
+					got := k.endoTerm(&dd.fast, &ed.fast, &d.endo[di], &e.endo[ei], or)
+					want := bruteEndo(d, e, du, eu, dd, ed, or, o)
+					if math.Abs(got-want) > tol {
+						t.Errorf("%s + %s units %v %v o=%d: endo %.15f; brute force %.15f", c[0], c[1], du.Atoms, eu.Atoms, or, got, want)
+					}
+				}
+			}
+		}
+	}
+}
+
+func bruteEndo(d, e *Partner, du, eu Unit, dd, ed *unitData, or int, o *Options) float64 {
+	x, y := eu.Atoms[0], eu.Atoms[1]
+	xs, ys := ed.slots[2], ed.slots[3]
+	if or == 1 {
+		x, y, xs, ys = y, x, ys, xs
+	}
+	a, b, c, dt := du.Atoms[0], du.Atoms[1], du.Atoms[2], du.Atoms[3]
+	coef := func(p *Partner, level, atom int) float64 {
+		if atom < 0 {
+			return 0
+		}
+		return p.Orb.Coefficient(level, atom)
+	}
+	total := 0.0
+	for _, pr := range [2][2]frontierSet{{dd.homo, ed.lumo}, {dd.lumo, ed.homo}} {
+		g := pr[0].X - pr[1].X
+		if pr[0].X < pr[1].X {
+			g = pr[1].X - pr[0].X
+		}
+		var full, prim float64
+		for _, i := range d.Orb.DegenerateSet(pr[0].Level) {
+			for _, j := range e.Orb.DegenerateSet(pr[1].Level) {
+				vp := o.FormingBeta * (coef(d, i, a)*coef(e, j, x) + coef(d, i, dt)*coef(e, j, y))
+				vs := o.SecondaryBeta * (coef(d, i, b)*coef(e, j, xs) + coef(d, i, c)*coef(e, j, ys))
+				full += (vp + vs) * (vp + vs)
+				prim += vp * vp
+			}
+		}
+		f, _ := term(full, g)
+		p0, _ := term(prim, g)
+		total += f - p0
+	}
+	return total
+}

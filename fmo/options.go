@@ -121,7 +121,8 @@ func (o *Options) check() {
 }
 
 func (o *Options) kernel() kernel {
-	k := kernel{gamma: o.FormingBeta, gammaS: o.SecondaryBeta, locWeight: o.LocalizationWeight}
+	k := kernel{gamma: o.FormingBeta, gammaS: o.SecondaryBeta, locWeight: o.LocalizationWeight,
+		g2: o.FormingBeta * o.FormingBeta}
 	if o.ChargeTerm && o.Dielectric > 0 && o.FormingDistance > 0 && o.BetaEV > 0 {
 		const coulombEVAngstrom = 14.3996 // e²/(4πε₀) in eV·Å (CODATA)
 		k.chargeCoef = coulombEVAngstrom / (o.Dielectric * o.FormingDistance) / o.BetaEV

@@ -28,6 +28,8 @@ type Partner struct {
 	Warnings []string
 
 	data  []unitData // parallel to Units
+	fast  []fastUnit // parallel to Units: data[i].fast, contiguous for the screening loop
+	endo  []endoUnit // parallel to Units: secondary-orbital projector elements
 	sides []*side    // parallel to Units: the partner's half of each adduct
 }
 
@@ -54,6 +56,7 @@ type unitData struct {
 	q     [nSlots]float64 // π charges per slot
 	loc   float64         // localisation energy, |β|
 	ok    bool            // both frontier sets present
+	fast  fastUnit        // the ranking-score part, laid out for the screening loop
 }
 
 // NewPartnerFromMolecule perceives and solves m with opts.Params and finds its reacting
@@ -106,6 +109,12 @@ func (p *Partner) prepare(opts *Options) error {
 		}
 		p.data[i] = d
 	}
+	p.fast = make([]fastUnit, len(units))
+	p.endo = make([]endoUnit, len(units))
+	for i := range p.data {
+		p.fast[i] = p.data[i].fast
+		p.endo[i] = p.data[i].endoUnit(units[i].Kind)
+	}
 	return nil
 }
 
@@ -152,6 +161,8 @@ func (p *Partner) unitData(u Unit) (unitData, error) {
 		return d, err
 	}
 	d.loc = loc
+	tEnd := len(u.Atoms) - 1
+	d.fast = d.fastUnit(tEnd)
 	return d, nil
 }
 

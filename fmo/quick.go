@@ -45,45 +45,55 @@ func (q *QuickKernel) Score(diene, dienophile *Partner) Quick {
 
 func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick {
 	r := Quick{DieneUnit: -1, DienophileUnit: -1}
-	var best, other orientScore
-	for di := range diene.data {
-		dd := &diene.data[di]
+	best, other := 0.0, 0.0
+	bd, be, bo := -1, -1, 0
+	ef := dienophile.fast
+	for di := range diene.fast {
+		dd := &diene.fast[di]
 		if !dd.ok {
 			continue
 		}
-		dipole := diene.Units[di].Kind == UnitDipole
-		for ei := range dienophile.data {
-			ed := &dienophile.data[ei]
+		for ei := range ef {
+			ed := &ef[ei]
 			if !ed.ok {
 				continue
 			}
-			s0 := k.scoreOrientation(dd, ed, dipole, 0)
-			s1 := k.scoreOrientation(dd, ed, dipole, 1)
+			s0, s1 := k.scores(dd, ed)
 			// Analyze sorts stably by score over the enumeration order (di, ei, o), so the
 			// first strictly better candidate wins ties.
-			if !r.OK || s0.score > best.score {
-				best, other = s0, s1
-				r.DieneUnit, r.DienophileUnit, r.Orientation, r.OK = int16(di), int16(ei), 0, true
+			if bd < 0 || s0 > best {
+				best, other, bd, be, bo = s0, s1, di, ei, 0
 			}
-			if s1.score > best.score {
-				best, other = s1, s0
-				r.DieneUnit, r.DienophileUnit, r.Orientation = int16(di), int16(ei), 1
+			if s1 > best {
+				best, other, bd, be, bo = s1, s0, di, ei, 1
 			}
 		}
 	}
-	if !r.OK {
+	if bd < 0 {
 		return r
 	}
-	r.Best = best.score
-	r.Stabilization = best.stab
-	r.RegioMargin = best.score - other.score
-	r.Endo = best.endo
-	r.GapNormal, r.GapInverse = best.gapN, best.gapI
-	r.FirstOrder = best.firstOrder
+	dd, ed := &diene.fast[bd], &ef[be]
+	r.OK = true
+	r.DieneUnit, r.DienophileUnit, r.Orientation = int16(bd), int16(be), int8(bo)
+	r.Best = best
+	r.RegioMargin = best - other
+	r.GapNormal, r.GapInverse = dd.hx-ed.lx, ed.hx-dd.lx
+	r.Stabilization = best + k.locWeight*(dd.loc+ed.loc)
+	// first-order flag of the preferred orientation: g ≤ √S in either pairing
+	x, y := 0, 1
+	if bo == 1 {
+		x, y = 1, 0
+	}
+	sN := k.g2 * (dd.h[0]*ed.l[x] + dd.h[1]*ed.l[y] + 2*dd.h[2]*ed.l[2])
+	sI := k.g2 * (dd.l[0]*ed.h[x] + dd.l[1]*ed.h[y] + 2*dd.l[2]*ed.h[2])
+	_, f1 := term(sN, r.GapNormal)
+	_, f2 := term(sI, r.GapInverse)
+	r.FirstOrder = f1 || f2
+	r.Endo = k.endoTerm(dd, ed, &diene.endo[bd], &dienophile.endo[be], bo)
 	switch {
-	case best.gapI-best.gapN >= threshold:
+	case r.GapInverse-r.GapNormal >= threshold:
 		r.Demand = 1
-	case best.gapN-best.gapI >= threshold:
+	case r.GapNormal-r.GapInverse >= threshold:
 		r.Demand = -1
 	}
 	return r

@@ -23,40 +23,13 @@ import "math"
 // zero gap. The switch point g = √S is where the two forms are equal, so the score is
 // continuous in g.
 
-// coupling is one element of M: diene slot i couples to dienophile slot j with weight w.
-type coupling struct {
-	i, j int8
-	w    float64
-}
-
-// sumSq returns S = Σ_{a,b∈M} w_a w_b P[i_a][i_b] Q[j_a][j_b].
-func sumSq(p, q *[nSlots][nSlots]float64, m *[4]coupling, n int) float64 {
-	s := 0.0
-	for a := 0; a < n; a++ {
-		ca := m[a]
-		for b := 0; b < n; b++ {
-			cb := m[b]
-			s += ca.w * cb.w * p[ca.i][cb.i] * q[ca.j][cb.j]
-		}
-	}
-	return s
-}
-
 // pairingTerm is the stabilisation from one frontier pairing with coupling sum S and gap g.
-func pairingTerm(s, g float64) (e float64, firstOrder bool) {
-	if s <= 0 {
-		return 0, false
-	}
-	r := math.Sqrt(s)
-	if g <= r {
-		return 2 * r, true
-	}
-	return 2 * s / g, false
-}
+func pairingTerm(s, g float64) (e float64, firstOrder bool) { return term(s, g) }
 
 // kernel holds the Options-derived constants of the scoring.
 type kernel struct {
 	gamma, gammaS, locWeight, chargeCoef float64
+	g2                                   float64 // γ²
 }
 
 // orientScore is the scored form of one orientation.
@@ -66,59 +39,167 @@ type orientScore struct {
 	loc                       float64 // localisation energy of both partners, |β|
 	stab                      float64 // frontier + charge
 	score                     float64 // stab − λ·loc
-	endo                      float64
+	endo                      float64 // filled by endoTerm, not by scorePair
 	firstOrder                bool
 	gapN, gapI                float64
 }
 
-// scoreOrientation scores diene unit d against dienophile unit e in orientation o
-// (o = 0: diene terminus a bonds x, the other terminus bonds y; o = 1: a bonds y).
-// dipole selects the three-atom layout of d (termini in slots 0 and 2, no endo term).
-func (k *kernel) scoreOrientation(d, e *unitData, dipole bool, o int) orientScore {
-	var r orientScore
-	tEnd := int8(3)
-	if dipole {
-		tEnd = 2
+// fastUnit is the part of a unit's frontier data the ranking score needs, laid out for the
+// screening loop: projector elements at the two termini (t0, t1) of the HOMO and LUMO sets.
+type fastUnit struct {
+	hx, lx float64    // x of the HOMO and LUMO sets
+	h, l   [3]float64 // [P(t0,t0), P(t1,t1), P(t0,t1)] of the HOMO and LUMO sets
+	q0, q1 float64    // π charges at the termini
+	loc    float64    // localisation energy, |β|
+	ok     bool       // both frontier sets exist
+}
+
+func (d *unitData) fastUnit(tEnd int) fastUnit {
+	return fastUnit{
+		hx: d.homo.X, lx: d.lumo.X,
+		h:  [3]float64{d.homo.P[0][0], d.homo.P[tEnd][tEnd], d.homo.P[0][tEnd]},
+		l:  [3]float64{d.lumo.P[0][0], d.lumo.P[tEnd][tEnd], d.lumo.P[0][tEnd]},
+		q0: d.q[0], q1: d.q[tEnd],
+		loc: d.loc,
+		ok:  d.ok,
 	}
-	x, y := int8(0), int8(1)
-	xs, ys := int8(2), int8(3)
-	if o == 1 {
-		x, y, xs, ys = y, x, ys, xs
+}
+
+// term is pairingTerm without the square root on the common (second-order) path.
+func term(s, g float64) (float64, bool) {
+	if s <= 0 {
+		return 0, false
 	}
-	var m [4]coupling
-	m[0] = coupling{0, x, k.gamma}
-	m[1] = coupling{tEnd, y, k.gamma}
-	n := 2
-	ne := 2
-	if !dipole && k.gammaS != 0 {
-		if e.slots[xs] >= 0 {
-			m[ne] = coupling{1, xs, k.gammaS}
-			ne++
-		}
-		if e.slots[ys] >= 0 {
-			m[ne] = coupling{2, ys, k.gammaS}
-			ne++
-		}
+	if g > 0 && g*g > s {
+		return 2 * s / g, false
 	}
-	r.gapN = d.homo.X - e.lumo.X
-	r.gapI = e.homo.X - d.lumo.X
-	sN := sumSq(&d.homo.P, &e.lumo.P, &m, n)
-	sI := sumSq(&d.lumo.P, &e.homo.P, &m, n)
-	tN, f1 := pairingTerm(sN, r.gapN)
-	tI, f2 := pairingTerm(sI, r.gapI)
-	r.normal, r.inverse = tN, tI
-	r.frontier = tN + tI
-	r.firstOrder = f1 || f2
-	if ne > n {
-		eN, _ := pairingTerm(sumSq(&d.homo.P, &e.lumo.P, &m, ne), r.gapN)
-		eI, _ := pairingTerm(sumSq(&d.lumo.P, &e.homo.P, &m, ne), r.gapI)
-		r.endo = eN + eI - r.frontier
-	}
+	return 2 * math.Sqrt(s), true
+}
+
+// scores returns the ranking scores of both orientations of diene unit d with dienophile
+// unit e: o = 0 joins the diene terminus t0 to dienophile atom x (e's t0), o = 1 joins it to
+// y. It is the whole of the screening inner loop; scorePair (used by Analyze) takes its score
+// from here, so Analyze and QuickScore rank with bit-identical numbers.
+func (k *kernel) scores(d, e *fastUnit) (sc0, sc1 float64) {
+	gN := d.hx - e.lx
+	gI := e.hx - d.lx
+	cN := 2 * d.h[2] * e.l[2]
+	cI := 2 * d.l[2] * e.h[2]
+	n0, _ := term(k.g2*(d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN), gN)
+	i0, _ := term(k.g2*(d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI), gI)
+	n1, _ := term(k.g2*(d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN), gN)
+	i1, _ := term(k.g2*(d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI), gI)
+	pen := k.locWeight * (d.loc + e.loc)
+	sc0 = n0 + i0 - pen
+	sc1 = n1 + i1 - pen
 	if k.chargeCoef != 0 {
-		r.charge = -k.chargeCoef * (d.q[0]*e.q[x] + d.q[tEnd]*e.q[y])
+		sc0 -= k.chargeCoef * (d.q0*e.q0 + d.q1*e.q1)
+		sc1 -= k.chargeCoef * (d.q0*e.q1 + d.q1*e.q0)
 	}
-	r.stab = r.frontier + r.charge
-	r.loc = d.loc + e.loc
-	r.score = r.stab - k.locWeight*r.loc
-	return r
+	return sc0, sc1
+}
+
+// scorePair returns the full breakdown of both orientations (see scores).
+func (k *kernel) scorePair(d, e *fastUnit) (s0, s1 orientScore) {
+	g2 := k.g2
+	gN := d.hx - e.lx
+	gI := e.hx - d.lx
+	cN := 2 * d.h[2] * e.l[2]
+	cI := 2 * d.l[2] * e.h[2]
+	loc := d.loc + e.loc
+	fill := func(r *orientScore, sN, sI, qx, qy float64) {
+		var f1, f2 bool
+		r.gapN, r.gapI = gN, gI
+		r.normal, f1 = term(g2*sN, gN)
+		r.inverse, f2 = term(g2*sI, gI)
+		r.firstOrder = f1 || f2
+		r.frontier = r.normal + r.inverse
+		if k.chargeCoef != 0 {
+			r.charge = -k.chargeCoef * (d.q0*qx + d.q1*qy)
+		}
+		r.stab = r.frontier + r.charge
+		r.loc = loc
+	}
+	fill(&s0, d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN, d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI, e.q0, e.q1)
+	fill(&s1, d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN, d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI, e.q1, e.q0)
+	s0.score, s1.score = k.scores(d, e)
+	return s0, s1
+}
+
+// endoUnit holds the projector elements the secondary-orbital term needs, per frontier set
+// (index 0 HOMO set, 1 LUMO set). For a diene unit a,b,c,d: [P_ab, P_ac, P_db, P_dc, P_bb,
+// P_cc, P_bc]; for a 2π unit x,y with conjugated substituent atoms x', y': [Q_xx', Q_xy',
+// Q_yx', Q_yy', Q_x'x', Q_y'y', Q_x'y'] (zero where a substituent is absent).
+type endoUnit struct {
+	e  [2][7]float64
+	ok bool // a diene unit (not a dipole), or a 2π unit with at least one substituent
+}
+
+func (d *unitData) endoUnit(kind UnitKind) endoUnit {
+	var u endoUnit
+	switch kind {
+	case UnitDiene:
+		u.ok = true
+		for s, fs := range [2]*frontierSet{&d.homo, &d.lumo} {
+			p := &fs.P
+			u.e[s] = [7]float64{p[0][1], p[0][2], p[3][1], p[3][2], p[1][1], p[2][2], p[1][2]}
+		}
+	case UnitPi:
+		u.ok = d.slots[2] >= 0 || d.slots[3] >= 0
+		for s, fs := range [2]*frontierSet{&d.homo, &d.lumo} {
+			q := &fs.P
+			u.e[s] = [7]float64{q[0][2], q[0][3], q[1][2], q[1][3], q[2][2], q[3][3], q[2][3]}
+		}
+	}
+	return u
+}
+
+// endoTerm is the secondary-orbital (endo) term of diene unit d with dienophile unit e in
+// orientation o: the extra stabilisation when the diene's inner atoms b and c also couple,
+// with γ_s, to the dienophile's conjugated substituent atoms x' and y' (b sits over the
+// substituent of the atom a bonds to, c over that of the atom d bonds to), in both frontier
+// pairings, with the same second-/first-order form as the frontier term:
+//
+//	endo = Σ_pairings [E(S_primary + 2γγ_s·X + γ_s²·Y) − E(S_primary)]
+//
+// where, for o = 0 (a–x, d–y) with set projectors P (diene) and Q (dienophile),
+// S_primary = γ²(P_aa Q_xx + P_dd Q_yy + 2 P_ad Q_xy), X = P_ab Q_xx' + P_ac Q_xy' + P_db Q_yx'
+// + P_dc Q_yy' and Y = P_bb Q_x'x' + P_cc Q_y'y' + 2 P_bc Q_x'y' (o = 1 swaps x↔y, x'↔y').
+// This is Σ over set members of (Σ_contacts w c c)² expanded, so it is basis-independent for
+// degenerate sets. Zero for 1,3-dipoles and for dienophiles without a conjugated substituent.
+func (k *kernel) endoTerm(d, e *fastUnit, de, ee *endoUnit, o int) float64 {
+	if !de.ok || !ee.ok || k.gammaS == 0 {
+		return 0
+	}
+	cross := 2 * k.gamma * k.gammaS
+	sec := k.gammaS * k.gammaS
+	total := 0.0
+	// pairing 0: diene HOMO (set 0) × dienophile LUMO (set 1); pairing 1: LUMO × HOMO.
+	for pr := 0; pr < 2; pr++ {
+		ds, es := pr, 1-pr
+		var dh, el *[3]float64
+		var g float64
+		if pr == 0 {
+			dh, el, g = &d.h, &e.l, d.hx-e.lx
+		} else {
+			dh, el, g = &d.l, &e.h, e.hx-d.lx
+		}
+		P, Q := &de.e[ds], &ee.e[es]
+		var prim, x, y float64
+		if o == 0 {
+			prim = dh[0]*el[0] + dh[1]*el[1] + 2*dh[2]*el[2]
+			x = P[0]*Q[0] + P[1]*Q[1] + P[2]*Q[2] + P[3]*Q[3]
+			y = P[4]*Q[4] + P[5]*Q[5] + 2*P[6]*Q[6]
+		} else {
+			prim = dh[0]*el[1] + dh[1]*el[0] + 2*dh[2]*el[2]
+			// x↔y, x'↔y': Q_xx'→Q_yy', Q_xy'→Q_yx', Q_yx'→Q_xy', Q_yy'→Q_xx'
+			x = P[0]*Q[3] + P[1]*Q[2] + P[2]*Q[1] + P[3]*Q[0]
+			y = P[4]*Q[5] + P[5]*Q[4] + 2*P[6]*Q[6]
+		}
+		sp := k.g2 * prim
+		f, _ := term(sp+cross*x+sec*y, g)
+		p0, _ := term(sp, g)
+		total += f - p0
+	}
+	return total
 }

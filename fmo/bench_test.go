@@ -1,0 +1,108 @@
+package fmo
+
+import (
+	"syscall"
+	"testing"
+	"time"
+)
+
+// cpuTime is the process's user+system CPU time. On this shared 2-core machine wall-clock
+// ns/op swings with other jobs' load; CPU time consumed per operation does much less, so the
+// benchmarks report both (pairs/s from wall clock, pairs/cpu-s from CPU time).
+func cpuTime() time.Duration {
+	var ru syscall.Rusage
+	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
+		return 0
+	}
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+func reportPairs(b *testing.B, n int, cpu0 time.Duration) {
+	b.ReportMetric(float64(n)/b.Elapsed().Seconds(), "pairs/s")
+	if c := cpuTime() - cpu0; c > 0 {
+		b.ReportMetric(float64(n)/c.Seconds(), "pairs/cpu-s")
+	}
+}
+
+// BenchmarkQuickScore scores one diene against a rotating set of dienophiles from cached
+// orbitals, the inner loop of a screen. Reported: pairs/s per core.
+func BenchmarkQuickScore(b *testing.B) {
+	o := testOptions(b)
+	d := mustPartner(b, "C=CC(C)=C", RoleDiene, o) // isoprene: one diene unit
+	var es []*Partner
+	for _, s := range []string{"C=CC(=O)OC", "C=CC=O", "O=C1OC(=O)C=C1", "C=CC#N"} {
+		es = append(es, mustPartner(b, s, RoleDienophile, o))
+	}
+	k := NewQuickKernel(o)
+	b.ReportAllocs()
+	n := 0
+	cpu0 := cpuTime()
+	var sink float64
+	for b.Loop() {
+		q := k.Score(d, es[n&3])
+		sink += q.Best
+		n++
+	}
+	reportPairs(b, n, cpu0)
+	_ = sink
+}
+
+// BenchmarkQuickScoreMultiSite is the same kernel with many candidate units per partner
+// (anthracene × p-benzoquinone).
+func BenchmarkQuickScoreMultiSite(b *testing.B) {
+	o := testOptions(b)
+	d := mustPartner(b, "c1ccc2cc3ccccc3cc2c1", RoleDiene, o)
+	e := mustPartner(b, "O=C1C=CC(=O)C=C1", RoleDienophile, o)
+	k := NewQuickKernel(o)
+	b.ReportAllocs()
+	n := 0
+	cpu0 := cpuTime()
+	for b.Loop() {
+		k.Score(d, e)
+		n++
+	}
+	reportPairs(b, n, cpu0)
+	b.ReportMetric(float64(len(d.Units)*len(e.Units)*2), "orientations/pair")
+}
+
+// BenchmarkAnalyze is the full analysis with products of a prepared pair.
+func BenchmarkAnalyze(b *testing.B) {
+	o := testOptions(b)
+	d := mustPartner(b, "C=CC(C)=C", RoleDiene, o)
+	e := mustPartner(b, "C=CC(=O)OC", RoleDienophile, o)
+	b.ReportAllocs()
+	n := 0
+	cpu0 := cpuTime()
+	for b.Loop() {
+		if _, err := Analyze(d, e, o); err != nil {
+			b.Fatal(err)
+		}
+		n++
+	}
+	reportPairs(b, n, cpu0)
+}
+
+// BenchmarkNewPartner is the per-molecule preparation (parse, perceive, solve, units,
+// localisation) that QuickScore amortises: the baseline for the ratios in the report.
+func BenchmarkNewPartner(b *testing.B) {
+	o := testOptions(b)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := NewPartner("", "C=CC(=O)OC", RoleDienophile, o); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func TestQuickScoreAllocs(t *testing.T) {
+	o := testOptions(t)
+	d := mustPartner(t, "C=CC(C)=C", RoleDiene, o)
+	e := mustPartner(t, "C=CC(=O)OC", RoleDienophile, o)
+	k := NewQuickKernel(o)
+	if n := testing.AllocsPerRun(100, func() { k.Score(d, e) }); n != 0 {
+		t.Errorf("QuickKernel.Score allocates %.0f times per call; want 0", n)
+	}
+	if n := testing.AllocsPerRun(100, func() { QuickScore(d, e, o) }); n != 0 {
+		t.Errorf("QuickScore allocates %.0f times per call; want 0", n)
+	}
+}
