@@ -1,0 +1,160 @@
+package fmo
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"cyclopair/huckel/molecule"
+	"cyclopair/huckel/smiles"
+)
+
+// Side-channel kinds.
+const (
+	SideDieneDimerisation = "diene_dimerisation"
+	SideProductDienophile = "product_as_dienophile"
+)
+
+// DefaultSideChannelBeta is the margin (|β|) within which a side channel's controlling gap
+// counts as competing with the pair's: Competes when side gap − pair gap ≤ this value (a side
+// channel with a smaller gap always competes). The value comes from the measured Sauer series
+// in the check set (J. Sauer, H. Wiest, A. Mielert, Chem. Ber. 1964, 97, 3183, rate constants
+// from memory): with the default parameters its rate constants span 10.6 powers of ten over
+// 0.46 |β| of normal gap, about 0.045 |β| per factor of ten, so 0.1 |β| is roughly two
+// orders of magnitude in rate at equal concentrations — close enough that concentrations,
+// temperature and the neglected terms decide. A judgement built on that figure, not a
+// published threshold.
+const DefaultSideChannelBeta = 0.1
+
+// controllingGap is the smaller of the pair's two gaps at its preferred units (the pairing
+// that controls the rate in the FMO picture, whatever the demand label).
+func controllingGap(p *Pair) Energy {
+	if p.GapInverse.Beta < p.GapNormal.Beta {
+		return p.GapInverse
+	}
+	return p.GapNormal
+}
+
+// SideChannels checks the competing reactions of a pair already analysed by Analyze:
+//
+//   - diene_dimerisation: the 4π partner reacting with itself, its own π bonds acting as the
+//     2π partner (cyclopentadiene dimerising to dicyclopentadiene, 1,3-dienes to
+//     vinylcyclohexenes);
+//   - product_as_dienophile: the preferred adduct's remaining π bonds acting as the 2π
+//     partner toward the same 4π partner (a second cycloaddition, e.g. the bis-adduct of a
+//     quinone), only when the adduct has a reacting 2π unit.
+//
+// A channel's gap is the smallest controlling gap (the smaller of normal and inverse) over
+// every pair of its reacting units — its fastest way to react in the FMO picture, whatever
+// unit the ranking score would prefer — and the pair's is the controlling gap at its
+// preferred units. Margin = side gap − pair gap (|β|); the channel Competes when Margin ≤
+// margin (DefaultSideChannelBeta when margin ≤ 0). The comparison is per encounter: the
+// concentrations, which a chemist controls (slow addition, excess of one partner), are not
+// in it. A channel whose partner has no reacting unit is left out; one that fails otherwise
+// is listed with the reason in its Note. The pair is not modified; see
+// (*Pair).AttachSideChannels.
+func SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64) []SideChannel {
+	if diene == nil || pair == nil || len(pair.Orientations) == 0 {
+		panic("fmo.SideChannels: nil diene or unanalysed pair")
+	}
+	if margin <= 0 {
+		margin = DefaultSideChannelBeta
+	}
+	ref := controllingGap(pair)
+	out := []SideChannel{}
+	check := func(kind, what string, m *molecule.Molecule) {
+		sp, err := NewPartnerFromMolecule(m.Name, m, RoleDienophile, opts)
+		if err != nil {
+			if !errors.Is(err, ErrNoUnit) {
+				out = append(out, SideChannel{Kind: kind, Note: what + ": not checked: " + err.Error()})
+			}
+			return
+		}
+		g, site, ok := smallestGap(diene, sp, opts)
+		if !ok {
+			return
+		}
+		sc := SideChannel{Kind: kind, Gap: g, Margin: g.Beta - ref.Beta}
+		sc.Competes = sc.Margin <= margin
+		verdict := "does not compete"
+		if sc.Competes {
+			verdict = "competes"
+		}
+		sc.Note = fmt.Sprintf("%s at %s: controlling gap %.3f |β| against %.3f |β| for the pair (margin %+.3f |β|; competes within %.2f |β|): %s",
+			what, site, g.Beta, ref.Beta, sc.Margin, margin, verdict)
+		out = append(out, sc)
+	}
+
+	// The 4π partner with itself; atom maps (pins) are dropped so any π bond may react.
+	self := diene.Mol.Clone()
+	for i := range self.Atoms {
+		self.Atoms[i].Map = 0
+	}
+	if self.Source != "" {
+		self.Source = smiles.Write(self)
+	}
+	self.Name = diene.Name
+	check(SideDieneDimerisation, diene.Name+" dimerisation", self)
+
+	// The adduct's remaining π bonds with the 4π partner.
+	prodSMILES := pair.Orientations[0].Product
+	if pm, err := smiles.Parse(prodSMILES); err == nil {
+		pm.Name = "adduct " + prodSMILES
+		check(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, pm)
+	} else {
+		out = append(out, SideChannel{Kind: SideProductDienophile, Note: "adduct " + prodSMILES + ": not checked: " + err.Error()})
+	}
+	return out
+}
+
+// smallestGap is the smallest controlling gap between any unit of diene (4π) and any unit of
+// side (2π), with the sites it belongs to.
+func smallestGap(diene, side *Partner, opts *Options) (Energy, string, bool) {
+	best, site, ok := Energy{Beta: math.Inf(1)}, "", false
+	bestW := 0.0
+	for di, du := range diene.Units {
+		dd := &diene.data[di]
+		if !dd.ok {
+			continue
+		}
+		for ei, eu := range side.Units {
+			ed := &side.data[ei]
+			if !ed.ok {
+				continue
+			}
+			gN := dd.homo.X - ed.lumo.X
+			gI := ed.homo.X - dd.lumo.X
+			g := Energy{Beta: gN, EV: opts.ev(ed.lumo.X, false) - opts.ev(dd.homo.X, true)}
+			if gI < gN {
+				g = Energy{Beta: gI, EV: opts.ev(dd.lumo.X, false) - opts.ev(ed.homo.X, true)}
+			}
+			// units of one π system share its frontier levels, so ties are common: the unit
+			// with the larger LUMO weight on its own atoms (the bond that reacts) wins
+			w := ed.lumo.P[0][0] + ed.lumo.P[1][1]
+			if g.Beta < best.Beta-1e-9 || (math.Abs(g.Beta-best.Beta) <= 1e-9 && w > bestW+1e-9) {
+				best, bestW, site, ok = g, w, du.Describe(diene.Mol)+" + "+eu.Describe(side.Mol), true
+			}
+		}
+	}
+	return best, site, ok
+}
+
+// AttachSideChannels stores channels in the pair and adds a warning for each competing one.
+func (p *Pair) AttachSideChannels(channels []SideChannel) {
+	p.SideChannels = append(p.SideChannels[:0], channels...)
+	for _, c := range channels {
+		if !c.Competes {
+			continue
+		}
+		var w string
+		switch c.Kind {
+		case SideDieneDimerisation:
+			w = fmt.Sprintf("side channel: the diene may dimerise — its self-cycloaddition gap (%.3f |β|) is within %+.3f |β| of the pair's; keep the diene cold and dilute, add it slowly to excess dienophile, or crack it fresh (common practice, no source)", c.Gap.Beta, c.Margin)
+		case SideProductDienophile:
+			w = fmt.Sprintf("side channel: the adduct's remaining π bond can take a second equivalent of the diene (gap %.3f |β|, %+.3f |β| from the pair's); use the dienophile in excess to limit the bis-adduct (common practice, no source)", c.Gap.Beta, c.Margin)
+		default:
+			w = "side channel competes: " + c.Note
+		}
+		p.Warnings = append(p.Warnings, w)
+	}
+}
