@@ -182,3 +182,39 @@ func TestPairPictures(t *testing.T) {
 		dump(t, "pair"+string(rune('a'+i))+".svg", svg)
 	}
 }
+
+// TestPairClearance checks that the two partners never overlap in the pair picture, also
+// for ring dienes whose other rings hang below the reacting termini (anthracene).
+func TestPairClearance(t *testing.T) {
+	opts, err := fmo.DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct{ diene, dienophile string }{
+		{"c1ccc2cc3ccccc3cc2c1", "O=C1C=CC(=O)C=C1"},
+		{"c1ccc2cc3ccccc3cc2c1", "O=C1OC(=O)C=C1"},
+		{"C1=CC=CC1", "O=C1OC(=O)C=C1"},
+		{"c1ccoc1", "O=C1OC(=O)C=C1"},
+		{"C=C(C)C(C)=C", "C=CC(=O)OC"},
+	} {
+		d, err := fmo.NewPartner("", tc.diene, fmo.RoleDiene, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		e, err := fmo.NewPartner("", tc.dienophile, fmo.RoleDienophile, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, err := fmo.Analyze(d, e, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		g, err := pairGeometry(d, e, p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if md := minDist(g.top.pos, g.bot.pos); md < clearance-1e-9 {
+			t.Errorf("%s + %s: partners %.2f bond lengths apart, want at least %.2f", tc.diene, tc.dienophile, md, clearance)
+		}
+	}
+}

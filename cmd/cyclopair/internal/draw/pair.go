@@ -25,6 +25,10 @@ type PairOptions struct {
 // (about 2.2 Å against 1.5 Å; common practice, no source), drawn somewhat longer for room.
 const approach = 2.2
 
+// clearance is the least distance kept between an atom of the diene and one of the
+// dienophile in the pair picture, bond lengths.
+const clearance = 1.0
+
 // Pair draws the preferred orientation of p (p.Orientations[0]): the 4π partner on top with
 // its reacting termini facing down, the 2π partner below with its reacting bond parallel, the
 // two forming bonds dashed, the endo secondary contact dotted with a label, and the frontier
@@ -47,59 +51,15 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	cv := newCanvas()
 	cv.defs.WriteString(hatchDef(id))
 
-	normal := p.Demand == "normal" || p.Demand == "neutral" && p.GapNormal.Beta <= p.GapInverse.Beta
-	dLevel, eLevel := p.DieneHOMO, p.DienophileLUMO
-	dWord, eWord := "HOMO", "LUMO"
-	if !normal {
-		dLevel, eLevel = p.DieneLUMO, p.DienophileHOMO
-		dWord, eWord = "LUMO", "HOMO"
-	}
-
-	top, err := newFigure(diene.Active)
+	g, err := pairGeometry(diene, dienophile, p)
 	if err != nil {
 		return nil, err
 	}
-	bot, err := newFigure(dienophile.Active)
-	if err != nil {
-		return nil, err
-	}
-	da := or.DieneAtoms
-	a, d := da[0], da[len(da)-1]
-	if len(da) == 4 {
-		makeCis(top, da)
-	}
-	// diene: termini on a horizontal line, a on the left, the unit bulging upwards (y up)
-	orient(top.pos, a, d, depict.Point{})
-	inner := da[1 : len(da)-1]
-	if meanY(top.pos, inner) < 0 || (meanY(top.pos, inner) == 0 && meanY(top.pos, all(len(top.pos))) < 0) {
-		mirrorY(top.pos)
-	}
-	// dienophile: reacting bond parallel below, e under a and f under d
-	e, f := or.DienophileAtoms[0], or.DienophileAtoms[1]
-	for _, b := range or.Bonds {
-		if b[0] == a {
-			e = b[1]
-		}
-		if b[0] == d {
-			f = b[1]
-		}
-	}
-	mid := depict.Point{X: (top.pos[a].X + top.pos[d].X) / 2, Y: -approach}
-	orient(bot.pos, e, f, depict.Point{})
-	ef := bot.pos[f].X - bot.pos[e].X
-	shift(bot.pos, depict.Point{X: mid.X - ef/2 - bot.pos[e].X, Y: mid.Y - bot.pos[e].Y})
-	// endo: the dienophile's conjugated substituent tucked under the diene if that does not
-	// crowd the diene; otherwise (and for exo or no preference) the bulk points away
-	sec, secDiene := endoContact(diene, dienophile, p, or, e, f, dLevel.Index, eLevel.Index)
-	wantUp := p.Endo != "no" && sec >= 0
-	flipIfNeeded(bot.pos, e, f, sec, wantUp)
-	if wantUp && minDist(top.pos, bot.pos) < 0.9 {
-		flipIfNeeded(bot.pos, e, f, sec, false)
-		wantUp = false
-	}
-	if minDist(top.pos, bot.pos) < 0.9 { // still crowded: move the dienophile further down
-		shift(bot.pos, depict.Point{Y: -(0.9 - minDist(top.pos, bot.pos)) - 0.3})
-	}
+	top, bot := g.top, g.bot
+	a, d, e := g.a, g.d, g.e
+	sec, secDiene := g.sec, g.secDiene
+	normal, dLevel, eLevel, dWord, eWord := g.normal, g.dLevel, g.eLevel, g.dWord, g.eWord
+	_ = g.f
 
 	// headings and frames
 	const headH = 24.0
@@ -365,6 +325,22 @@ func flipIfNeeded(pos []depict.Point, e, f, sec int, up bool) {
 	}
 }
 
+func lowY(pos []depict.Point) float64 {
+	m := math.Inf(1)
+	for _, p := range pos {
+		m = math.Min(m, p.Y)
+	}
+	return m
+}
+
+func highY(pos []depict.Point) float64 {
+	m := math.Inf(-1)
+	for _, p := range pos {
+		m = math.Max(m, p.Y)
+	}
+	return m
+}
+
 func meanY(pos []depict.Point, atoms []int) float64 {
 	s := 0.0
 	for _, i := range atoms {
@@ -409,4 +385,82 @@ func gapText(g fmo.Energy, cal string) string {
 		s += " ≈ " + fixed(g.EV, 2) + " eV (calibration: " + cal + ")"
 	}
 	return s
+}
+
+// pairGeo is the arrangement of a pair picture in bond units (y up): both molecules laid
+// out and moved into place, the reacting atoms, the endo contact and the frontier levels.
+type pairGeo struct {
+	top, bot       *figure
+	a, d, e, f     int // diene termini and the dienophile atoms bonded to them
+	sec, secDiene  int // endo contact atoms, -1 when none
+	normal         bool
+	dLevel, eLevel fmo.Frontier
+	dWord, eWord   string
+}
+
+func pairGeometry(diene, dienophile *fmo.Partner, p *fmo.Pair) (*pairGeo, error) {
+	or := p.Orientations[0]
+	normal := p.Demand == "normal" || p.Demand == "neutral" && p.GapNormal.Beta <= p.GapInverse.Beta
+	dLevel, eLevel := p.DieneHOMO, p.DienophileLUMO
+	dWord, eWord := "HOMO", "LUMO"
+	if !normal {
+		dLevel, eLevel = p.DieneLUMO, p.DienophileHOMO
+		dWord, eWord = "LUMO", "HOMO"
+	}
+
+	top, err := newFigure(diene.Active)
+	if err != nil {
+		return nil, err
+	}
+	bot, err := newFigure(dienophile.Active)
+	if err != nil {
+		return nil, err
+	}
+	da := or.DieneAtoms
+	a, d := da[0], da[len(da)-1]
+	if len(da) == 4 {
+		makeCis(top, da)
+	}
+	// diene: termini on a horizontal line, a on the left, the unit bulging upwards (y up)
+	orient(top.pos, a, d, depict.Point{})
+	// The unit bulges upwards (inner atoms above the termini line) unless that leaves much
+	// more of the molecule hanging below the line, where the dienophile goes.
+	inner := da[1 : len(da)-1]
+	if meanY(top.pos, inner) < 0 {
+		mirrorY(top.pos)
+	}
+	if lowY(top.pos) < -highY(top.pos)-0.3 {
+		mirrorY(top.pos)
+	}
+	// dienophile: reacting bond parallel below, e under a and f under d
+	e, f := or.DienophileAtoms[0], or.DienophileAtoms[1]
+	for _, b := range or.Bonds {
+		if b[0] == a {
+			e = b[1]
+		}
+		if b[0] == d {
+			f = b[1]
+		}
+	}
+	mid := depict.Point{X: (top.pos[a].X + top.pos[d].X) / 2, Y: -approach}
+	orient(bot.pos, e, f, depict.Point{})
+	ef := bot.pos[f].X - bot.pos[e].X
+	shift(bot.pos, depict.Point{X: mid.X - ef/2 - bot.pos[e].X, Y: mid.Y - bot.pos[e].Y})
+	// endo: the dienophile's conjugated substituent tucked under the diene if that does not
+	// crowd the diene; otherwise (and for exo or no preference) the bulk points away
+	sec, secDiene := endoContact(diene, dienophile, p, or, e, f, dLevel.Index, eLevel.Index)
+	wantUp := p.Endo != "no" && sec >= 0
+	flipIfNeeded(bot.pos, e, f, sec, wantUp)
+	if wantUp && minDist(top.pos, bot.pos) < clearance {
+		flipIfNeeded(bot.pos, e, f, sec, false)
+		wantUp = false
+	}
+	// still crowded (a ring diene whose other rings hang below the termini, as anthracene):
+	// move the dienophile down until it clears the diene
+	for k := 0; k < 60 && minDist(top.pos, bot.pos) < clearance; k++ {
+		shift(bot.pos, depict.Point{Y: -0.25})
+	}
+
+	return &pairGeo{top: top, bot: bot, a: a, d: d, e: e, f: f, sec: sec, secDiene: secDiene,
+		normal: normal, dLevel: dLevel, eLevel: eLevel, dWord: dWord, eWord: eWord}, nil
 }

@@ -47,9 +47,12 @@ type Config struct {
 	Calibration *huckel.Calibration
 	// Figures is how many top rows get pictures (0: DefaultFigures; negative: none).
 	Figures int
-	// Validation is the literature check-set run to summarise; nil omits the section with a
-	// sentence saying it was not run.
+	// Validation is the literature check-set run to summarise. When nil, Close runs the
+	// bundled check set (fmo.BundledCheckSet, a few tens of milliseconds) with Options, so the
+	// accuracy shown is that of the parameter set and options of this report.
 	Validation *fmo.ValidationReport
+	// NoValidation leaves the check set out (the section then says it was not run).
+	NoValidation bool
 	// Diagram, if set, draws the energy-level diagram (inline SVG) of the rows.
 	Diagram func(rows []render.Row) ([]byte, error)
 	// Kind is "screen" or "pair"; it only changes headings.
@@ -459,6 +462,15 @@ func (w *Writer) validation(b *page) {
 	b.el("h2", "", "Accuracy on the literature check set")
 	b.raw("\n")
 	v := w.cfg.Validation
+	if v == nil && !w.cfg.NoValidation {
+		set, err := fmo.BundledCheckSet()
+		if err != nil {
+			b.el("p", `class="error"`, "The bundled literature check set could not be loaded: "+err.Error())
+			b.raw("\n</section>\n")
+			return
+		}
+		v = fmo.Validate(set, w.cfg.Options)
+	}
 	if v == nil {
 		b.el("p", "", "The literature check set was not run for this report ('cyclopair validate' runs it).")
 		b.raw("\n</section>\n")

@@ -131,7 +131,7 @@ func TestWellFormedAndEscaped(t *testing.T) {
 func TestEmptyReport(t *testing.T) {
 	p, _ := presets.Params(presets.DefaultParams)
 	var buf bytes.Buffer
-	w := New(&buf, render.Report{Params: p.Name}, Config{Options: fmo.NewOptions(p, nil, "")})
+	w := New(&buf, render.Report{Params: p.Name}, Config{Options: fmo.NewOptions(p, nil, ""), NoValidation: true})
 	if err := w.Close(render.Summary{}); err != nil {
 		t.Fatal(err)
 	}
@@ -141,5 +141,25 @@ func TestEmptyReport(t *testing.T) {
 	}
 	if !strings.Contains(s, "was not run for this report") {
 		t.Errorf("missing validation is not stated")
+	}
+}
+
+// TestRunsCheckSet: without a Validation the report runs the bundled check set itself and
+// shows one row per category.
+func TestRunsCheckSet(t *testing.T) {
+	p, _ := presets.Params(presets.DefaultParams)
+	var buf bytes.Buffer
+	w := New(&buf, render.Report{Params: p.Name}, Config{Options: fmo.NewOptions(p, nil, "")})
+	if err := w.Close(render.Summary{}); err != nil {
+		t.Fatal(err)
+	}
+	s := buf.String()
+	if !strings.Contains(s, "hit rate") {
+		t.Fatal("check-set table missing")
+	}
+	for _, c := range fmo.Categories() {
+		if !strings.Contains(s, "<td>"+c+"</td>") {
+			t.Errorf("category %q missing from the accuracy table", c)
+		}
 	}
 }
