@@ -48,12 +48,18 @@ func controllingGap(p *Pair) Energy {
 // every pair of its reacting units — its fastest way to react in the FMO picture, whatever
 // unit the ranking score would prefer — and the pair's is the controlling gap at its
 // preferred units. Margin = side gap − pair gap (|β|); the channel Competes when Margin ≤
-// margin (DefaultSideChannelBeta when margin ≤ 0). The comparison is per encounter: the
+// DefaultSideChannelBeta (SideChannelsWithin takes another margin). The comparison is per encounter: the
 // concentrations, which a chemist controls (slow addition, excess of one partner), are not
 // in it. A channel whose partner has no reacting unit is left out; one that fails otherwise
 // is listed with the reason in its Note. The pair is not modified; see
 // (*Pair).AttachSideChannels.
-func SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64) []SideChannel {
+func SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options) []SideChannel {
+	return SideChannelsWithin(diene, dienophile, pair, opts, DefaultSideChannelBeta)
+}
+
+// SideChannelsWithin is SideChannels with a competition margin of margin |β|
+// (DefaultSideChannelBeta when margin ≤ 0).
+func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64) []SideChannel {
 	if diene == nil || pair == nil || len(pair.Orientations) == 0 {
 		panic("fmo.SideChannels: nil diene or unanalysed pair")
 	}

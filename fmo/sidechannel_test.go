@@ -20,7 +20,7 @@ func sideFor(t *testing.T, diene, dienophile string) (*Pair, []SideChannel) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	sc := SideChannels(d, e, p, opts, 0)
+	sc := SideChannels(d, e, p, opts)
 	p.AttachSideChannels(sc)
 	return p, sc
 }
