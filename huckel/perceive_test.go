@@ -299,3 +299,43 @@ func TestInvariantsOnMolecules(t *testing.T) {
 		checkInvariants(t, smi+" (Solver)", ps, &into)
 	}
 }
+
+// ω = 5 (far above the recommended 1.4) makes the allyl cation iteration oscillate; the
+// failure is an error wrapping ErrNoConvergence, never a silent result.
+func TestOmegaNonConvergence(t *testing.T) {
+	ps := perceive(t, "C=C[CH2+]", noAlkyl(t))
+	ps.Omega = 5
+	if _, err := huckel.Solve(ps); !errors.Is(err, huckel.ErrNoConvergence) {
+		t.Errorf("err = %v, want ErrNoConvergence", err)
+	}
+}
+
+func TestLargeSystemWarns(t *testing.T) {
+	smi := strings.Repeat("C=C", 151) // 302 centres
+	ps := perceive(t, smi, noAlkyl(t))
+	found := false
+	for _, w := range ps.Warnings {
+		found = found || strings.Contains(w, "O(n³)")
+	}
+	if len(ps.Centres) != 302 || !found {
+		t.Errorf("%d centres, warnings %q", len(ps.Centres), ps.Warnings)
+	}
+}
+
+// The bond-alternation variant (k = 0.9 single / 1.1 double): for the chain with weights
+// a, b, a (a = 1.1 double, b = 0.9 single) the secular equation is
+// x⁴ − (2a² + b²)x² + a⁴ = 0 (expansion of the 4×4 tridiagonal determinant), so the
+// HOMO is x² = ((2a²+b²) − √((2a²+b²)² − 4a⁴))/2.
+func TestBondOrderVariantButadiene(t *testing.T) {
+	bo, err := presets.Params("streitwieser1961-bondorder")
+	if err != nil {
+		t.Fatal(err)
+	}
+	o := mustSolve(t, perceive(t, "C=CC=C", bo))
+	k1, k2 := 0.9, 1.1
+	b := 2*k2*k2 + k1*k1
+	homo := math.Sqrt((b - math.Sqrt(b*b-4*k2*k2*k2*k2)) / 2)
+	if !scalar.EqualWithinAbs(o.Levels[o.HOMO].X, homo, tolX) {
+		t.Errorf("HOMO x = %.10f, want %.10f", o.Levels[o.HOMO].X, homo)
+	}
+}
