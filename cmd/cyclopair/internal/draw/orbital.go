@@ -76,12 +76,13 @@ func Orbital(orb *huckel.Orbitals, level int, o OrbitalOptions) ([]byte, error) 
 		bottom = math.Max(bottom, by1+lobeRadius*scale)
 	}
 
-	lines := []string{
-		fmt.Sprintf("Level %d of %d (0-based, most bonding first), %s (%s e): E = α %sβ, x = %s",
-			level, len(orb.Levels), occupancyWord(lv.Occupancy), fixed(lv.Occupancy, 1), signed(lv.X), fixed(lv.X, 3)),
-	}
+	energy := fmt.Sprintf("E = α %sβ (x = %s)", signed(lv.X), fixed(lv.X, 3))
 	if o.Calibration != nil {
-		lines = append(lines, fmt.Sprintf("E ≈ %s eV (calibration: %s)", fixed(o.Calibration.EV(lv.X, lv.Occupancy > 0), 2), o.CalName))
+		energy += fmt.Sprintf(" ≈ %s eV (calibration: %s)", fixed(o.Calibration.EV(lv.X, lv.Occupancy > 0), 2), o.CalName)
+	}
+	lines := []string{
+		energy,
+		fmt.Sprintf("level %d of %d (0-based, bonding first), %s (%s e)", level, len(orb.Levels), occupancyWord(lv.Occupancy), fixed(lv.Occupancy, 1)),
 	}
 	if len(set) > 1 {
 		lines = append(lines, fmt.Sprintf("Degenerate set of %d levels, all drawn: any orthonormal mix of them is an equally valid orbital.", len(set)))
@@ -113,7 +114,7 @@ func legend(cv *canvas, x, y float64, id string, withGrey bool) {
 		cv.text(x+2*r+5, y, "density of a degenerate set (no phase)", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
 	}
 	_ = x
-	cv.text(x0, y+lineHeight+2, "circle area ∝ c², the π density on the atom; no circle: |c| < 0.02 (node)", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
+	cv.text(x0, y+lineHeight+2, "circle area ∝ c² (π density on the atom); no circle: |c| < 0.02", textSize, "start", `dominant-baseline="central" fill="`+ink+`"`)
 }
 
 func occupancyWord(n float64) string {
