@@ -120,6 +120,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		Activation:          dienophile.Activation,
 		Params:              opts.Params.Name,
 		Calibration:         opts.CalibrationName,
+		CalibrationDetail:   opts.calibrationDetail(),
 		FormingBeta:         opts.FormingBeta,
 		SecondaryBeta:       opts.SecondaryBeta,
 		LocalizationWeight:  opts.LocalizationWeight,

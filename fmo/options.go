@@ -138,11 +138,24 @@ func (o *Options) ev(x float64, occupied bool) float64 {
 	return o.Calibration.EV(x, occupied)
 }
 
-// DefaultOptions returns the defaults with the default parameter set (presets.DefaultParams).
+// DefaultOptions returns the defaults with the default parameter set (presets.DefaultParams)
+// and its default calibration (presets.Calibration).
 func DefaultOptions() (*Options, error) {
 	p, err := presets.Params(presets.DefaultParams)
 	if err != nil {
 		return nil, err
 	}
-	return NewOptions(p, nil, ""), nil
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		return nil, fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+	}
+	return NewOptions(p, cal, cal.Name), nil
+}
+
+// calibrationDetail describes the calibration in one line when it can (fmt.Stringer).
+func (o *Options) calibrationDetail() string {
+	if s, ok := o.Calibration.(fmt.Stringer); ok {
+		return s.String()
+	}
+	return ""
 }

@@ -104,13 +104,14 @@ type Pair struct {
 	FormingBeta float64  `json:"forming_beta"` // resonance integral assumed for each forming σ bond, units of β
 	Warnings    []string `json:"warnings"`
 
-	SecondaryBeta       float64    `json:"secondary_beta"`       // resonance integral of the secondary (endo) contacts, units of β
-	LocalizationWeight  float64    `json:"localization_weight"`  // λ in score = stabilization − λ·localization
-	ScoreFormula        string     `json:"score_formula"`        // how the ranking score is built
-	ChargeTermOn        bool       `json:"charge_term_on"`       // whether the Coulomb term was included
-	RegioThresholds     [2]float64 `json:"regio_thresholds"`     // [clear, slight] on regio_margin / frontier_term of the best
-	EndoThresholds      [2]float64 `json:"endo_thresholds"`      // [yes, weak] on endo_overlap / frontier_term of the preferred
-	PreferredSite       string     `json:"preferred_site"`       // the winning reacting units
-	PreferredKind       string     `json:"preferred_kind"`       // "[4+2]" or "[3+2]"
-	OrientationsChecked int        `json:"orientations_checked"` // unit pairs × 2 orientations scored
+	SecondaryBeta       float64    `json:"secondary_beta"`               // resonance integral of the secondary (endo) contacts, units of β
+	LocalizationWeight  float64    `json:"localization_weight"`          // λ in score = stabilization − λ·localization
+	ScoreFormula        string     `json:"score_formula"`                // how the ranking score is built
+	ChargeTermOn        bool       `json:"charge_term_on"`               // whether the Coulomb term was included
+	RegioThresholds     [2]float64 `json:"regio_thresholds"`             // [clear, slight] on regio_margin / frontier_term of the best
+	EndoThresholds      [2]float64 `json:"endo_thresholds"`              // [yes, weak] on endo_overlap / frontier_term of the preferred
+	PreferredSite       string     `json:"preferred_site"`               // the winning reacting units
+	PreferredKind       string     `json:"preferred_kind"`               // "[4+2]" or "[3+2]"
+	OrientationsChecked int        `json:"orientations_checked"`         // unit pairs × 2 orientations scored
+	CalibrationDetail   string     `json:"calibration_detail,omitempty"` // the calibration's lines and fit statistics
 }
