@@ -537,3 +537,12 @@ func (p *Params) clone() *Params {
 // Compile precomputes the lookup tables of a Params built as a literal. ParseParams and
 // Merge call it themselves; call it again after editing the entry lists.
 func (p *Params) Compile() { p.compile() }
+
+// WithH returns a copy of p in which type t has Coulomb parameter h (with the given
+// source), e.g. to vary the Lewis-acid strength through h(O=LA). p is not modified.
+func (p *Params) WithH(t CentreType, h float64, source string) *Params {
+	if typeIndex(t) < 0 {
+		panic(fmt.Sprintf("huckel: WithH: unknown centre type %q", t))
+	}
+	return p.Merge(&Params{HEntries: []HEntry{{Type: t, H: h, Source: source}}, compiled: true})
+}

@@ -109,3 +109,40 @@ k:
 		t.Errorf("replace: %q with %d h entries", r.Name, len(r.HEntries))
 	}
 }
+
+func TestWithH(t *testing.T) {
+	p := defaultParams(t)
+	strong := p.WithH(huckel.OLewis, 2.4, "test scenario: a stronger Lewis acid")
+	if h, _ := strong.H(huckel.OLewis); h != 2.4 {
+		t.Errorf("h(O=LA) = %g", h)
+	}
+	if h, _ := p.H(huckel.OLewis); h != 2.0 {
+		t.Errorf("WithH modified its receiver: %g", h)
+	}
+	if !strong.Alkyl || strong.Name != p.Name {
+		t.Errorf("WithH lost settings: alkyl %v name %q", strong.Alkyl, strong.Name)
+	}
+}
+
+// FuzzParseParams: arbitrary bytes never panic the parameter loader; anything accepted
+// can be merged and queried.
+func FuzzParseParams(f *testing.F) {
+	f.Add([]byte("name: x\nh:\n  - {type: C, h: 0, source: s}\nk:\n  - {types: [C, C], k: 1, source: s}\n"))
+	f.Add([]byte("alkyl: false\nomega: 1.4\n"))
+	f.Add([]byte("replace: true\nk_like: {\"C+\": C}\nk_fallback: geometric-mean\n"))
+	f.Add([]byte("name: [x\n"))
+	f.Add([]byte("a: &a [*a]\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		p, err := huckel.ParseParams(data, "fuzz.yaml")
+		if err != nil {
+			return
+		}
+		m := (&huckel.Params{}).Merge(p)
+		for _, a := range huckel.AllCentreTypes {
+			m.H(a)
+			for _, b := range huckel.AllCentreTypes {
+				m.K(a, b, 2)
+			}
+		}
+	})
+}
