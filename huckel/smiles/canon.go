@@ -17,8 +17,11 @@ const bondAlt = 4
 //
 // Method. Atoms are ranked by a Morgan-style refinement (H. L. Morgan, J. Chem. Doc. 5,
 // 107–113, 1965; here in the iterated partition-refinement form): the initial class of an
-// atom is (atomic number, isotope, charge, hydrogens, degree, atom map), and classes are
-// split by the sorted multiset of (neighbour class, bond type) until stable. When atoms
+// atom is (atomic number, isotope, charge, hydrogens, degree, atom map, smallest ring
+// through it), and classes are split by the sorted multiset of (neighbour class, bond
+// type, smallest ring through the bond) until stable. The ring sizes are there because
+// refinement alone cannot tell, for example, a phenyl ipso carbon from a ring-fusion carbon
+// of a larger ring with the same neighbours (a case the fuzzer found). When atoms
 // are still tied, the tied class with the lowest rank is split by promoting its
 // lowest-index atom, and refinement resumes, until every atom has its own rank. The
 // molecule is then written with Write in rank order.
@@ -46,7 +49,7 @@ func Canonical(m *molecule.Molecule) string {
 		return ""
 	}
 	btype, inAlt := alternation(m)
-	rank := canonicalRanks(m, btype)
+	rank := canonicalRanks(m, btype, smallestRings(m))
 
 	// Build the molecule in rank order.
 	c := &molecule.Molecule{Atoms: make([]molecule.Atom, n), Bonds: make([]molecule.Bond, 0, len(m.Bonds))}
@@ -148,14 +151,55 @@ func alternation(m *molecule.Molecule) ([]int8, int) {
 	return btype, count
 }
 
-// canonicalRanks returns a permutation rank[atom] in 0..n-1 (see Canonical).
-func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
+// smallestRings returns for each bond the size of the smallest ring containing it (0 for
+// a bond in no ring): one breadth-first search per ring bond for the shortest path between
+// its ends that avoids it.
+func smallestRings(m *molecule.Molecule) []int {
 	n := len(m.Atoms)
-	type key [6]int
+	size := make([]int, len(m.Bonds))
+	inRing := ringBondsInto(m, make([]bool, len(m.Bonds)))
+	dist := make([]int, n)
+	queue := make([]int, 0, n)
+	for bi, b := range m.Bonds {
+		if !inRing[bi] {
+			continue
+		}
+		for i := range dist {
+			dist[i] = -1
+		}
+		dist[b.A] = 0
+		queue = append(queue[:0], b.A)
+		for q := 0; q < len(queue) && dist[b.B] < 0; q++ {
+			v := queue[q]
+			for _, e := range m.Neighbors(v) {
+				if e.Bond == bi || dist[e.To] >= 0 || !inRing[e.Bond] {
+					continue
+				}
+				dist[e.To] = dist[v] + 1
+				queue = append(queue, e.To)
+			}
+		}
+		size[bi] = dist[b.B] + 1
+	}
+	return size
+}
+
+// canonicalRanks returns a permutation rank[atom] in 0..n-1 (see Canonical).
+func canonicalRanks(m *molecule.Molecule, btype []int8, ring []int) []int {
+	n := len(m.Atoms)
+	type key [7]int
 	keys := make([]key, n)
 	for i, a := range m.Atoms {
-		keys[i] = key{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map}
+		small := 0 // smallest ring through the atom
+		for _, e := range m.Neighbors(i) {
+			if r := ring[e.Bond]; r > 0 && (small == 0 || r < small) {
+				small = r
+			}
+		}
+		keys[i] = key{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map, small}
 	}
+	// bond code: type and smallest ring size (capped; 0 outside rings)
+	code := func(bi int) int { return int(btype[bi]) + 8*min(ring[bi], 255) }
 	cmpAtoms := func(x, y int) int {
 		if c := slices.Compare(keys[x][:], keys[y][:]); c != 0 {
 			return c
@@ -191,7 +235,7 @@ func canonicalRanks(m *molecule.Molecule, btype []int8) []int {
 			for i := range m.Atoms {
 				s := append(sig[i][:0], rank[i])
 				for _, e := range m.Neighbors(i) {
-					s = append(s, rank[e.To]*8+int(btype[e.Bond]))
+					s = append(s, rank[e.To]*2048+code(e.Bond))
 				}
 				slices.Sort(s[1:])
 				sig[i] = s
