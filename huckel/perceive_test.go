@@ -339,3 +339,23 @@ func TestBondOrderVariantButadiene(t *testing.T) {
 		t.Errorf("HOMO x = %.10f, want %.10f", o.Levels[o.HOMO].X, homo)
 	}
 }
+
+// Coulson bond orders: butadiene p12 = 0.894, p23 = 0.447; benzene 0.667 (Coulson, Proc. R.
+// Soc. A 1939, 169, 413; Streitwieser 1961, ch. 2). Gap of butadiene 2·0.618 = 1.236|β|.
+func TestBondOrdersAndGap(t *testing.T) {
+	p := noAlkyl(t)
+	o := mustSolve(t, perceive(t, "C=CC=C", p))
+	if !scalar.EqualWithinAbs(o.BondOrder(0, 1), 0.894, tolPub) || !scalar.EqualWithinAbs(o.BondOrder(1, 2), 0.447, tolPub) ||
+		!scalar.EqualWithinAbs(o.BondOrder(0, 0), 1, tolQ) || o.BondOrder(0, 1) != o.BondOrder(1, 0) {
+		t.Errorf("butadiene p12 %.4f p23 %.4f p11 %.4f", o.BondOrder(0, 1), o.BondOrder(1, 2), o.BondOrder(0, 0))
+	}
+	if g, ok := o.Gap(); !ok || !scalar.EqualWithinAbs(g, 1.236, tolPub) {
+		t.Errorf("gap %g %v", g, ok)
+	}
+	bz := mustSolve(t, perceive(t, "c1ccccc1", p))
+	for i := range 6 {
+		if !scalar.EqualWithinAbs(bz.BondOrder(i, (i+1)%6), 2.0/3, tolQ) {
+			t.Errorf("benzene p(%d,%d) = %g, want 2/3", i, (i+1)%6, bz.BondOrder(i, (i+1)%6))
+		}
+	}
+}
