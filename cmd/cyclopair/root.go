@@ -71,6 +71,8 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newDrawCmd(s),
 		newScreenCmd(s),
 		newDemoCmd(s),
+		newDiagramCmd(s),
+		newPairCmd(s),
 	)
 	return root
 }
