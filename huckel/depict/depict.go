@@ -217,7 +217,7 @@ func normalizeOrientation(pos []Point, comp []int) {
 	}
 	// principal axis angle of the 2×2 covariance; skip near-isotropic shapes (benzene)
 	disc := math.Hypot(sxx-syy, 2*sxy)
-	if disc < 0.15*(sxx+syy) {
+	if disc < 0.5*(sxx+syy) { // only clearly elongated shapes (λ1/λ2 > 3) are turned
 		return
 	}
 	a := 0.5 * math.Atan2(2*sxy, sxx-syy)

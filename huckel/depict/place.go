@@ -248,15 +248,29 @@ func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
 		angs[i] = math.Atan2(d.Y, d.X)
 	}
 	slices.Sort(angs)
-	bestGap, bestStart := -1.0, 0.0
+	// Among the widest gaps (within 10°: the three equal gaps at a ring-fusion atom) take the
+	// one whose middle is least crowded, so a substituent never points into a ring.
+	type gapT struct{ start, size float64 }
+	var gaps []gapT
+	widest := 0.0
 	for i := range angs {
 		a, b := angs[i], angs[(i+1)%len(angs)]
 		gap := b - a
 		if i == len(angs)-1 {
 			gap += 2 * math.Pi
 		}
-		if gap > bestGap+1e-9 {
-			bestGap, bestStart = gap, a
+		gaps = append(gaps, gapT{a, gap})
+		widest = math.Max(widest, gap)
+	}
+	bestGap, bestStart, bestCrowd := -1.0, 0.0, math.Inf(1)
+	for _, g := range gaps {
+		if g.size < widest-10*math.Pi/180 {
+			continue
+		}
+		mid := g.start + g.size/2
+		c := l.crowding(l.pos[v].add(Point{math.Cos(mid), math.Sin(mid)}))
+		if c < bestCrowd-1e-9 || (math.Abs(c-bestCrowd) <= 1e-9 && g.size > bestGap+1e-9) {
+			bestGap, bestStart, bestCrowd = g.size, g.start, c
 		}
 	}
 	for i := 0; i < k; i++ {

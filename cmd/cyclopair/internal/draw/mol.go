@@ -203,15 +203,17 @@ func (f *figure) drawLabel(cv *canvas, i int) {
 		for _, e := range m.Neighbors(i) {
 			dx += f.pos[e.To].X - f.pos[i].X
 		}
-		h := "H"
-		if a.HCount > 1 {
-			h += strconv.Itoa(a.HCount)
+		left := dx > 0.1 // bonds to the right: write H on the left
+		if m.Degree(i) == 0 && a.Element != "C" && a.Element != "N" && a.Element != "B" {
+			left = true // H2O, H2S, HCl: hydrogens first, as usually written
 		}
-		if dx > 0.1 { // bonds to the right: write H on the left
-			cv.text(x-ew, y, h, labelSize, "end", halo)
-		} else {
-			cv.text(x+ew, y, h, labelSize, "start", halo)
-			chargeX += 0.62 * labelSize * float64(len(h))
+		cv.hydrogens(x, y, ew, a.HCount, left, halo)
+		if !left {
+			digits := 0
+			if a.HCount > 1 {
+				digits = len(strconv.Itoa(a.HCount))
+			}
+			chargeX += 0.62 * labelSize * (1 + 0.7*float64(digits))
 		}
 	}
 	if a.Charge != 0 {
@@ -224,4 +226,23 @@ func (f *figure) drawLabel(cv *canvas, i int) {
 		}
 		cv.text(chargeX, y-8, s, 10, "start", halo)
 	}
+}
+
+// hydrogens writes "H" or "H" with a subscript count beside an element symbol of half width
+// ew centred at (x, y): on the left (anchored at its end) or on the right.
+func (c *canvas) hydrogens(x, y, ew float64, n int, left bool, attrs string) {
+	sub, digits := "", 0
+	if n > 1 {
+		sub = `<tspan font-size="` + num(labelSize*0.72) + `" dy="4">` + strconv.Itoa(n) + `</tspan>`
+		digits = len(strconv.Itoa(n))
+	}
+	w := 0.62 * labelSize * (1 + 0.7*float64(digits))
+	anchor, hx := "start", x+ew
+	if left {
+		anchor, hx = "end", x-ew
+		c.extend(hx-w, y, labelSize/2)
+	} else {
+		c.extend(hx+w, y, labelSize/2)
+	}
+	c.body.WriteString(`<text x="` + num(hx) + `" y="` + num(y) + `" font-size="` + num(labelSize) + `" text-anchor="` + anchor + `" ` + attrs + `>H` + sub + "</text>\n")
 }
