@@ -304,7 +304,7 @@ func (p *Partner) WithActivation(mode string, act *ActivateOptions, opts *Option
 	}
 	am, warns, err := Activate(p.Mol, mode, act)
 	if err != nil {
-		return nil, fmt.Errorf("%s: %w", p.Name, err)
+		return nil, err // Activate names the molecule
 	}
 	o := opts
 	if mode == ActivateLewis && act != nil && act.LewisStrength != 0 {

@@ -81,12 +81,12 @@ func (u Unit) RingSize() int {
 	return 0
 }
 
-// Describe names the unit by element and 1-based atom number, e.g. "C1=C2-C3=C4" style
-// without bond orders: "C1-C2-C3-C4".
+// Describe names the unit by element and 0-based atom index (the numbering of every other
+// output), terminus first, e.g. "C0-C1-C2-C3" for butadiene.
 func (u Unit) Describe(m *molecule.Molecule) string {
 	parts := make([]string, len(u.Atoms))
 	for i, a := range u.Atoms {
-		parts[i] = fmt.Sprintf("%s%d", m.Atoms[a].Element, a+1)
+		parts[i] = fmt.Sprintf("%s%d", m.Atoms[a].Element, a)
 	}
 	return strings.Join(parts, "-")
 }
@@ -116,10 +116,13 @@ func (e *SiteError) Error() string {
 	fmt.Fprintf(&b, "%s (%s): %v", e.Partner, e.Role, e.Err)
 	if len(e.Mapped) > 0 {
 		b.WriteString(" (mapped atoms")
-		for _, a := range e.Mapped {
-			fmt.Fprintf(&b, " %d", a+1)
+		for i, a := range e.Mapped {
+			if i > 0 {
+				b.WriteString(",")
+			}
+			fmt.Fprintf(&b, " %d", a)
 		}
-		b.WriteString(")")
+		b.WriteString(", 0-based)")
 	}
 	if e.Detail != "" {
 		b.WriteString(": " + e.Detail)
@@ -195,12 +198,11 @@ func Sites(name string, mol *molecule.Molecule, pi *huckel.PiSystem, role Role) 
 		}
 	}
 	if len(units) == 0 {
-		want := "a 4π unit (diene, hetero-diene or 1,3-dipole)"
+		want := "it needs a conjugated 4π unit: a diene, hetero-diene or charge-separated 1,3-dipole"
 		if role == RoleDienophile {
-			want = "a 2π unit (C=C, C≡C, C=O, C=N, N=N)"
+			want = "it needs a 2π unit: C=C, C≡C, C=O, C=N or N=N"
 		}
-		return nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrNoUnit,
-			Detail: "found no " + want + " that can react"}
+		return nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrNoUnit, Detail: want}
 	}
 	if len(mapped) == 0 {
 		return units, nil

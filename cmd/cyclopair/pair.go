@@ -1,0 +1,192 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"slices"
+	"strings"
+
+	"cyclopair/fmo"
+	"cyclopair/huckel/smiles"
+	"cyclopair/presets"
+
+	"github.com/spf13/cobra"
+)
+
+// pairOptions are the flags of 'cyclopair pair'.
+type pairOptions struct {
+	diene, dienophile string
+	activate          []string
+	amine             string
+	params            string
+	format            string
+	chargeTerm        bool
+}
+
+func newPairCmd(s *streams) *cobra.Command {
+	opts := &pairOptions{}
+	cmd := &cobra.Command{
+		Use:   "pair --diene SMILES --dienophile SMILES",
+		Short: "Frontier-orbital analysis of one cycloaddition pair",
+		Long: `Analyse one 4π partner (--diene: a diene, hetero-diene or 1,3-dipole) with one 2π partner
+(--dienophile) by Hückel frontier-orbital perturbation theory: the normal and inverse
+frontier gaps (x in E = α + xβ, reported in |β| and in eV through the named calibration),
+the demand and Sustmann type, every candidate pair of reacting units in both
+regio-orientations ranked best first with the adduct SMILES, the regio margin and
+confidence, the endo (secondary-orbital) verdict, whether the supra–supra thermal pairing is
+symmetry-allowed, and warnings.
+
+Ranking score, per orientation (all in |β|):
+  score = frontier_term + charge_term − λ·localization
+  frontier_term = Σ over both frontier pairings of 2(γ Σ_bonds c_r c_s)² / gap,
+                  first-order 2|γ Σ c c| where the gap is at or below |γ Σ c c|
+with γ (forming_beta) and λ (localization_weight) printed with every result.
+
+Atom numbers are 0-based positions in each SMILES as written. Atom maps ([CH2:1]) pin the
+reacting atoms: map both termini of the unit you mean. With several --activate modes one
+result is printed per mode (JSON: one object per line, each with its "activation").
+
+Results are estimates for planning, not safety assessments: check the SDS, a hazard review
+and local rules before any lab work.`,
+		Example: `  cyclopair pair --diene 'C=CC(C)=C' --dienophile 'C=CC(=O)OC'
+  cyclopair pair --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --format json
+  cyclopair pair --diene 'C=CC=C' --dienophile 'C=CC=O' --activate none,lewis,iminium
+  cyclopair pair --diene 'COC(=O)c1nnc(C(=O)OC)nn1' --dienophile 'C=COCC'`,
+		Args: cobra.NoArgs,
+		RunE: func(c *cobra.Command, args []string) error {
+			switch opts.format {
+			case "table", "json":
+			default:
+				return &usageError{fmt.Errorf("--format %q: want table or json", opts.format)}
+			}
+			if strings.TrimSpace(opts.diene) == "" || strings.TrimSpace(opts.dienophile) == "" {
+				return &usageError{errors.New("both --diene and --dienophile are required")}
+			}
+			if len(opts.activate) == 0 {
+				opts.activate = []string{fmo.ActivateNone}
+			}
+			for _, m := range opts.activate {
+				if !slices.Contains(fmo.Modes(), m) {
+					return &usageError{fmt.Errorf("--activate %q: unknown mode (want %s)", m, strings.Join(fmo.Modes(), ", "))}
+				}
+			}
+			if opts.amine != "" && !slices.Contains(opts.activate, fmo.ActivateIminium) {
+				return &usageError{errors.New("--amine is only used with --activate iminium")}
+			}
+			return runPair(s, opts)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&opts.diene, "diene", "", "SMILES of the 4π partner (diene, hetero-diene or 1,3-dipole)")
+	f.StringVar(&opts.dienophile, "dienophile", "", "SMILES of the 2π partner")
+	f.StringSliceVar(&opts.activate, "activate", []string{fmo.ActivateNone}, "dienophile activation(s), comma-separated: "+strings.Join(fmo.Modes(), ", "))
+	f.StringVar(&opts.amine, "amine", "", "secondary amine SMILES for --activate iminium (default pyrrolidine, "+fmo.DefaultAmineSMILES+")")
+	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
+	f.StringVar(&opts.format, "format", "table", "output format: table or json (JSON Lines, one object per activation)")
+	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
+	return cmd
+}
+
+// runPair is the testable body of 'cyclopair pair'.
+func runPair(s *streams, opts *pairOptions) error {
+	p, err := resolveParams(opts.params)
+	if err != nil {
+		return err
+	}
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+	}
+	fo := fmo.NewOptions(p, cal, cal.Name)
+	fo.ChargeTerm = opts.chargeTerm
+	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo)
+	if err != nil {
+		return err
+	}
+	dienophile, err := pairPartner(opts.dienophile, fmo.RoleDienophile, fo)
+	if err != nil {
+		return err
+	}
+	var act *fmo.ActivateOptions
+	if opts.amine != "" {
+		am, err := smiles.Parse(opts.amine)
+		if err != nil {
+			return smilesErr(opts.amine, err)
+		}
+		act = &fmo.ActivateOptions{Amine: am}
+	}
+	variants := fmo.AnalyzeVariants(diene, dienophile, opts.activate, act, fo)
+	failed := 0
+	var firstErr error
+	for _, v := range variants {
+		if v.Err != nil {
+			failed++
+			err := fmt.Errorf("%s: --activate %s: %v", opts.dienophile, v.Mode, v.Err)
+			if firstErr == nil {
+				firstErr = err
+			}
+			if len(variants) > 1 {
+				fmt.Fprintf(s.err, "cyclopair: %v\n", err)
+			}
+			continue
+		}
+		pair := v.Pair
+		pair.AttachSideChannels(fmo.SideChannels(diene, dienophile, pair, fo))
+		switch opts.format {
+		case "json":
+			b, err := json.Marshal(pair)
+			if err != nil {
+				return err
+			}
+			s.out.Write(append(b, '\n'))
+		default:
+			writePairTable(s, pair, cal.String())
+		}
+	}
+	switch {
+	case failed == len(variants):
+		return &inputError{firstErr}
+	case failed > 0:
+		return &partialError{failed: failed, total: len(variants)}
+	}
+	return nil
+}
+
+// pairPartner reads one partner; errors come back in the CLI's one-line form naming the SMILES.
+func pairPartner(smi string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) {
+	m, err := smiles.Parse(smi)
+	if err != nil {
+		return nil, smilesErr(smi, err)
+	}
+	m.Name = smi
+	pt, err := fmo.NewPartnerFromMolecule(smi, m, role, o)
+	if err != nil {
+		var se *fmo.SiteError
+		if errors.As(err, &se) {
+			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, role, pairSiteMessage(se))}
+		}
+		return nil, &inputError{fmt.Errorf("%s: %v", smi, strings.TrimPrefix(err.Error(), smi+": "))}
+	}
+	pt.SMILES = smi
+	return pt, nil
+}
+
+// pairSiteMessage is the site error without the partner name (the CLI prefixes the SMILES).
+func pairSiteMessage(se *fmo.SiteError) string {
+	msg := se.Err.Error()
+	if len(se.Mapped) > 0 {
+		var b strings.Builder
+		for i, a := range se.Mapped {
+			if i > 0 {
+				b.WriteString(", ")
+			}
+			fmt.Fprintf(&b, "%d", a)
+		}
+		msg += " (mapped atoms " + b.String() + ")"
+	}
+	if se.Detail != "" {
+		msg += " (" + se.Detail + ")"
+	}
+	return msg
+}
