@@ -80,7 +80,6 @@ Results are estimates for planning, not safety assessments.`,
 	addScreenFlags(cmd, o)
 	cmd.Flags().StringVar(&o.dienes, "dienes", "", "CSV (name,smiles) or one-SMILES-per-line `file` of 4π partners (replaces the file's dienes)")
 	cmd.Flags().StringVar(&o.dienophiles, "dienophiles", "", "CSV or one-SMILES-per-line `file` of 2π partners (replaces the file's dienophiles)")
-	cmd.Flags().StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 	_ = cmd.MarkFlagFilename("dienes", "csv", "txt", "smi")
 	_ = cmd.MarkFlagFilename("dienophiles", "csv", "txt", "smi")
 	return cmd
@@ -99,6 +98,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
 	f.IntVar(&o.workers, "workers", 0, "worker goroutines (0: all cores)")
+	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 }
 
 // screenInput is a loaded screen: the library plus the rows that failed to load.
