@@ -172,6 +172,7 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 	if err := dec.Decode(&fp); err != nil {
 		line := 0
 		msg := strings.TrimPrefix(err.Error(), "yaml: ")
+		col := 1
 		var te *yaml.TypeError
 		if errors.As(err, &te) && len(te.Errors) > 0 {
 			msg = te.Errors[0]
@@ -179,8 +180,9 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 			if line > 0 {
 				msg = strings.TrimSpace(msg[strings.Index(msg, ":")+1:])
 			}
+			msg, col = friendlyTypeError(&root, line, msg)
 		}
-		return nil, &ParamsError{File: filename, Line: line, Col: 1, Msg: msg}
+		return nil, &ParamsError{File: filename, Line: line, Col: col, Msg: msg}
 	}
 	top := root.Content[0]
 	p := &Params{
@@ -280,6 +282,49 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 	}
 	p.compile()
 	return p, nil
+}
+
+// friendlyTypeError rewrites yaml.v3's decoder messages (which name Go types) in the
+// file's own terms and finds the column of the offending key or value on that line.
+func friendlyTypeError(root *yaml.Node, line int, msg string) (string, int) {
+	where := map[string]string{
+		"huckel.fileParams": "at the top level (keys: name, title, source, notes, alkyl, omega, replace, base, k_like, k_fallback, k_fallback_source, h, k)",
+		"huckel.fileH":      "in an h entry (keys: type, h, source)",
+		"huckel.fileK":      "in a k entry (keys: types, order, k, source)",
+	}
+	var token string
+	if f, t, ok := strings.Cut(msg, " not found in type "); ok && strings.HasPrefix(f, "field ") {
+		token = strings.TrimPrefix(f, "field ")
+		if w, ok := where[t]; ok {
+			msg = fmt.Sprintf("unknown key %q %s", token, w)
+		}
+	} else if i := strings.Index(msg, "`"); i >= 0 {
+		if j := strings.Index(msg[i+1:], "`"); j >= 0 {
+			token = msg[i+1 : i+1+j]
+		}
+		msg = strings.ReplaceAll(msg, "float64", "a number")
+		msg = strings.ReplaceAll(msg, "bool", "true or false")
+		msg = strings.ReplaceAll(msg, "[]huckel.fileH", "a list of h entries")
+		msg = strings.ReplaceAll(msg, "[]huckel.fileK", "a list of k entries")
+		msg = strings.ReplaceAll(msg, "[]string", "a list")
+		msg = strings.ReplaceAll(msg, "map[string]string", "a mapping")
+	}
+	col := 1
+	var walk func(n *yaml.Node) bool
+	walk = func(n *yaml.Node) bool {
+		if n.Line == line && n.Kind == yaml.ScalarNode && (token == "" || n.Value == token) {
+			col = n.Column
+			return true
+		}
+		for _, c := range n.Content {
+			if walk(c) {
+				return true
+			}
+		}
+		return false
+	}
+	walk(root)
+	return msg, col
 }
 
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
