@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"slices"
+	"strings"
 
 	"cyclopair/huckel/molecule"
 )
@@ -106,13 +107,17 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			st[i].excluded = true
 		}
 		if st[i].excluded {
+			var partners []string
 			for _, e := range m.Neighbors(i) {
 				if m.Bonds[e.Bond].Order > 1 {
 					dropped[e.Bond] = true
-					ps.Warnings = append(ps.Warnings, fmt.Sprintf(
-						"atom %d (%s): no π parameters for this atom; its multiple bond to atom %d is left out of the π system",
-						i, atomLabel(a), e.To))
+					partners = append(partners, fmt.Sprint(e.To))
 				}
+			}
+			if len(partners) > 0 {
+				ps.Warnings = append(ps.Warnings, fmt.Sprintf(
+					"atom %d (%s): no π parameters for this atom; its multiple bonds (to atom %s) are left out of the π system and its inductive effect is not modelled",
+					i, atomLabel(a), strings.Join(partners, ", ")))
 			}
 		}
 	}
