@@ -23,6 +23,7 @@ import (
 	"encoding/xml"
 	"fmt"
 	"io"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -278,7 +279,7 @@ func (w *Writer) diagram(b *page) {
 	if err != nil {
 		b.el("p", `class="error"`, "The energy-level diagram could not be drawn: "+err.Error())
 	} else {
-		b.raw("<figure class=\"diagram\">\n" + string(svg) + "</figure>\n")
+		b.raw("<figure class=\"diagram\">\n" + string(inlineSVG(svg, "levels")) + "</figure>\n")
 	}
 	b.raw("</section>\n")
 }
@@ -357,6 +358,11 @@ func (w *Writer) pictures(p *fmo.Pair, id string) ([]fig, error) {
 		return nil, err
 	}
 	out = append(out, fig{"wide", "The pair in its preferred orientation with the frontier orbitals of the controlling pairing.", svg})
+	if dg, err := levelDiagram(d, e, q, id); err == nil {
+		out = append(out, fig{"wide", "π energy levels of both partners with the normal and inverse frontier gaps.", dg})
+	} else {
+		return out, err
+	}
 	for k, part := range []*fmo.Partner{d, e} {
 		for _, which := range []string{"HOMO", "LUMO"} {
 			lv := part.Orb.HOMO
@@ -386,6 +392,59 @@ func (w *Writer) pictures(p *fmo.Pair, id string) ([]fig, error) {
 		}
 	}
 	return out, nil
+}
+
+// levelDiagram draws the π levels of the two partners with both frontier gaps (the render
+// package's diagram). The SVG is made ready for inlining: its XML declaration is dropped and
+// its ids get the figure's prefix, so several diagrams can share the page.
+func levelDiagram(d, e *fmo.Partner, q *fmo.Pair, id string) ([]byte, error) {
+	col := func(p *fmo.Partner, sub string, homo, lumo fmo.Frontier) render.DiagramColumn {
+		c := render.DiagramColumn{Title: nameOr(p.Name, p.SMILES), Subtitle: sub, HOMO: homo.Index, LUMO: lumo.Index, HOMOEV: homo.EV, LUMOEV: lumo.EV}
+		for _, l := range p.Orb.Levels {
+			c.Levels = append(c.Levels, render.DiagramLevel{X: l.X, Occupancy: l.Occupancy, Degenerate: l.Degenerate})
+		}
+		return c
+	}
+	sub := "free"
+	if e.Activation != "" && e.Activation != fmo.ActivateNone {
+		sub = "activation: " + e.Activation
+	}
+	dg := &render.Diagram{
+		Title:       "π levels: " + nameOr(d.Name, d.SMILES) + " + " + nameOr(e.Name, e.SMILES),
+		Params:      q.Params,
+		Calibration: q.Calibration,
+		Columns:     []render.DiagramColumn{col(d, d.SMILES, q.DieneHOMO, q.DieneLUMO), col(e, sub, q.DienophileHOMO, q.DienophileLUMO)},
+		Gaps: []render.DiagramGap{{Column: 1,
+			Normal:      render.Energy{Beta: q.GapNormal.Beta, EV: q.GapNormal.EV},
+			Inverse:     render.Energy{Beta: q.GapInverse.Beta, EV: q.GapInverse.EV},
+			Controlling: q.Demand}},
+	}
+	var buf bytes.Buffer
+	if err := render.WriteDiagram(&buf, dg); err != nil {
+		return nil, err
+	}
+	return inlineSVG(buf.Bytes(), id), nil
+}
+
+var idAttr = regexp.MustCompile(`\bid="([^"]+)"`)
+
+// inlineSVG drops an XML declaration and prefixes every id (and its url(#…) and href="#…"
+// references) with prefix, so the picture can be inlined next to others.
+func inlineSVG(svg []byte, prefix string) []byte {
+	if i := bytes.Index(svg, []byte("?>")); bytes.HasPrefix(svg, []byte("<?xml")) && i >= 0 {
+		svg = bytes.TrimLeft(svg[i+2:], "\r\n")
+	}
+	var ids [][]byte
+	for _, m := range idAttr.FindAllSubmatch(svg, -1) {
+		ids = append(ids, m[1])
+	}
+	for _, old := range ids {
+		nu := []byte(prefix + "-" + string(old))
+		svg = bytes.ReplaceAll(svg, []byte(`id="`+string(old)+`"`), []byte(`id="`+string(nu)+`"`))
+		svg = bytes.ReplaceAll(svg, []byte(`url(#`+string(old)+`)`), []byte(`url(#`+string(nu)+`)`))
+		svg = bytes.ReplaceAll(svg, []byte(`href="#`+string(old)+`"`), []byte(`href="#`+string(nu)+`"`))
+	}
+	return svg
 }
 
 func (w *Writer) params(b *page) {

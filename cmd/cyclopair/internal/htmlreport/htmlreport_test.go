@@ -122,9 +122,12 @@ func TestWellFormedAndEscaped(t *testing.T) {
 		}
 		seen[m[1]] = true
 	}
-	// three pair pictures plus 4 orbital pictures each
-	if n := strings.Count(s, "<svg "); n != 15 {
-		t.Errorf("%d inline SVG pictures, want 15 (3 pairs × (1 + 4 orbitals))", n)
+	// three pairs, each: pair picture, level diagram, 4 orbital pictures
+	if n := strings.Count(s, "<svg "); n != 18 {
+		t.Errorf("%d inline SVG pictures, want 18 (3 pairs × (pair + levels + 4 orbitals))", n)
+	}
+	if strings.Contains(s, "<?xml") {
+		t.Error("an inlined SVG kept its XML declaration")
 	}
 }
 
