@@ -24,7 +24,7 @@ type Frontier struct {
 // the product and the scores. Bonds are the two new σ bonds, diene (4π partner) atom first,
 // as 0-based atom indices in each partner's own SMILES.
 type Orientation struct {
-	Site            string    `json:"site"`             // human description of the reacting units, e.g. "C0-C1-C2-C3 + C4-C5" (element + 0-based atom index)
+	Site            string    `json:"site"`             // human description of the reacting units, e.g. "C1-C2-C3-C4 + C1-C2" (element + 1-based atom number in each partner's SMILES)
 	DieneAtoms      []int     `json:"diene_atoms"`      // reacting unit of the 4π partner, terminus first (4 atoms, or 3 for a dipole)
 	DienophileAtoms []int     `json:"dienophile_atoms"` // reacting 2π unit (2 atoms), in bond order: DieneAtoms[0] bonds to DienophileAtoms[0]
 	Bonds           [2][2]int `json:"bonds"`            // [[diene atom, dienophile atom], [diene atom, dienophile atom]]

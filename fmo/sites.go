@@ -81,12 +81,13 @@ func (u Unit) RingSize() int {
 	return 0
 }
 
-// Describe names the unit by element and 0-based atom index (the numbering of every other
-// output), terminus first, e.g. "C0-C1-C2-C3" for butadiene.
+// Describe names the unit by element and 1-based atom number (atom index + 1, the way
+// chemists count atoms in a SMILES), terminus first, e.g. "C1-C2-C3-C4" for butadiene.
+// Numeric fields (Atoms, Bonds) stay 0-based.
 func (u Unit) Describe(m *molecule.Molecule) string {
 	parts := make([]string, len(u.Atoms))
 	for i, a := range u.Atoms {
-		parts[i] = fmt.Sprintf("%s%d", m.Atoms[a].Element, a)
+		parts[i] = fmt.Sprintf("%s%d", m.Atoms[a].Element, a+1)
 	}
 	return strings.Join(parts, "-")
 }

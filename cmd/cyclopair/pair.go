@@ -22,6 +22,7 @@ type pairOptions struct {
 	params            string
 	format            string
 	chargeTerm        bool
+	svg               string // --svg FILE: also write the energy-level diagram (diagram.go)
 }
 
 func newPairCmd(s *streams) *cobra.Command {
@@ -43,7 +44,8 @@ Ranking score, per orientation (all in |β|):
                   first-order 2|γ Σ c c| where the gap is at or below |γ Σ c c|
 with γ (forming_beta) and λ (localization_weight) printed with every result.
 
-Atom numbers are 0-based positions in each SMILES as written. Atom maps ([CH2:1]) pin the
+Atom indices (bonds, diene_atoms, dienophile_atoms) are 0-based positions in each SMILES as
+written; site names count from 1 (C1 is atom 0), as chemists number atoms. Atom maps ([CH2:1]) pin the
 reacting atoms: map both termini of the unit you mean. With several --activate modes one
 result is printed per mode (JSON: one object per line, each with its "activation").
 
@@ -84,6 +86,7 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.amine, "amine", "", "secondary amine SMILES for --activate iminium (default pyrrolidine, "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
 	f.StringVar(&opts.format, "format", "table", "output format: table or json (JSON Lines, one object per activation)")
+	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
 	return cmd
 }
@@ -117,6 +120,11 @@ func runPair(s *streams, opts *pairOptions) error {
 		act = &fmo.ActivateOptions{Amine: am}
 	}
 	variants := fmo.AnalyzeVariants(diene, dienophile, opts.activate, act, fo)
+	if opts.svg != "" {
+		if err := writePairSVG(s, opts.svg, diene, dienophile, variants, act, fo, cal); err != nil {
+			return err
+		}
+	}
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
