@@ -338,6 +338,30 @@ func (s *Solver) eigen(m int) error {
 		}
 		return nil
 	}
+	switch m {
+	case 1: // a single centre: x = h
+		s.w[0], s.a[0] = s.a[0], 1
+		return nil
+	case 2: // closed form of [[p, r], [r, q]] (r = k > 0 for a two-centre fragment)
+		p, r, q := s.a[0], s.a[1], s.a[3]
+		mid, half := (p+q)/2, math.Hypot((p-q)/2, r)
+		lo, hi := mid-half, mid+half
+		s.w[0], s.w[1] = lo, hi
+		// (r, λ−p) and (λ−q, r) are both eigenvectors for λ; take the longer one, which
+		// avoids cancellation when |p − q| ≫ r.
+		for c, l := range [2]float64{lo, hi} {
+			v0, v1 := r, l-p
+			if u0, u1 := l-q, r; math.Hypot(u0, u1) > math.Hypot(v0, v1) {
+				v0, v1 = u0, u1
+			}
+			if math.Abs(v0)+math.Abs(v1) < 1e-300 { // r = 0 cannot happen in a fragment
+				v0, v1 = float64(1-c), float64(c)
+			}
+			nv := math.Hypot(v0, v1)
+			s.a[0*2+c], s.a[1*2+c] = v0/nv, v1/nv
+		}
+		return nil
+	}
 	a := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: s.a[:m*m]}
 	lapack64.Syev(lapack.EVCompute, a, s.w[:m], s.q[:], -1)
 	s.work = growF(s.work, int(s.q[0]))

@@ -478,3 +478,35 @@ func TestTooManyElectrons(t *testing.T) {
 		t.Error("3 electrons on one centre: no error")
 	}
 }
+
+// The Solver's closed-form two-centre path agrees with mat.EigenSym on random two-centre
+// systems (different h, any k), including equal-h ethylene.
+func TestTwoCentreClosedForm(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(3, 4))
+	var s huckel.Solver
+	var into huckel.Orbitals
+	for trial := range 200 {
+		h0, h1 := float64(rnd.IntN(7))*0.5-1, float64(rnd.IntN(7))*0.5-1
+		if trial == 0 {
+			h0, h1 = 0, 0
+		}
+		k := 0.2 + rnd.Float64()
+		ps := huckel.NewPiSystem([]huckel.Centre{{Atom: 0, H: h0, Electrons: 1}, {Atom: 1, H: h1, Electrons: 1 + rnd.IntN(2)}},
+			[]huckel.PiBond{{I: 0, J: 1, K: k}})
+		want := mustSolve(t, ps)
+		if err := s.Solve(ps, &into); err != nil {
+			t.Fatal(err)
+		}
+		for i := range 2 {
+			if !scalar.EqualWithinAbs(want.Levels[i].X, into.Levels[i].X, 1e-12) {
+				t.Errorf("trial %d level %d: x %g vs %g", trial, i, into.Levels[i].X, want.Levels[i].X)
+			}
+			for c := range 2 {
+				if !scalar.EqualWithinAbs(want.Levels[i].Coeffs[c], into.Levels[i].Coeffs[c], 1e-12) {
+					t.Errorf("trial %d level %d c%d: %g vs %g", trial, i, c, into.Levels[i].Coeffs[c], want.Levels[i].Coeffs[c])
+				}
+			}
+		}
+		checkInvariants(t, "two-centre", ps, &into)
+	}
+}
