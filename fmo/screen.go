@@ -312,7 +312,7 @@ func (j *preparedJob) analyze(_ int, k int64) (*Pair, error) {
 // AnalyzeAt runs the full analysis of diene d with dienophile e under activation a (indices
 // into Dienes, Dienophiles and Activations), as the pair command does: an activated pair
 // carries the activation effect against the free dienophile and the diene cautions of the
-// mode.
+// mode, and the side channels (diene dimerisation, product as dienophile) are checked.
 func (p *Prepared) AnalyzeAt(d, e, a int) (*Pair, error) {
 	v := p.Variants[e][a]
 	if v == nil {
@@ -335,6 +335,7 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*Pair, error) {
 			}
 		}
 	}
+	pair.AttachSideChannels(SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
 	pair.DieneName = p.DieneRows[d].Name
 	pair.DienophileName = p.DphRows[e].Name
 	return pair, nil

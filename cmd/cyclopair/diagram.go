@@ -158,3 +158,39 @@ func pairDiagram(diene *fmo.Partner, variants []*fmo.Partner, pairs []*fmo.Pair,
 	dg.Title = "π levels: " + diene.Name + " + " + strings.Join(names, ", ")
 	return dg
 }
+
+// writePairSVG writes the energy-level diagram of a pair command's results to path: the
+// diene and one column per activation variant that succeeded (rebuilt from dienophile).
+// It is the --svg option of 'cyclopair pair'.
+func writePairSVG(s *streams, path string, diene, dienophile *fmo.Partner, variants []fmo.Variant,
+	act *fmo.ActivateOptions, opts *fmo.Options, cal huckel.Calibration) error {
+	var parts []*fmo.Partner
+	var pairs []*fmo.Pair
+	for _, v := range variants {
+		if v.Err != nil || v.Pair == nil {
+			continue
+		}
+		vp, err := dienophile.WithActivation(v.Mode, act, opts)
+		if err != nil {
+			continue
+		}
+		parts = append(parts, vp)
+		pairs = append(pairs, v.Pair)
+	}
+	if len(parts) == 0 {
+		return &inputError{fmt.Errorf("%s: --svg: no analysis to draw", path)}
+	}
+	var buf bytes.Buffer
+	if err := render.WriteDiagram(&buf, pairDiagram(diene, parts, pairs, opts.Params.Name, cal)); err != nil {
+		return err
+	}
+	if path == "-" {
+		_, err := s.out.Write(buf.Bytes())
+		return err
+	}
+	if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
+		return &inputError{fmt.Errorf("%s: cannot write (%v)", path, unwrapPathError(err))}
+	}
+	fmt.Fprintf(s.err, "cyclopair: wrote %s\n", path)
+	return nil
+}

@@ -115,7 +115,7 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 	if o.file != "" {
 		if data == nil {
 			var err error
-			data, err = readInput(s, o.file, fmo.DefaultMaxFileBytes)
+			data, err = screenReadInput(s, o.file, fmo.DefaultMaxFileBytes)
 			if err != nil {
 				return nil, err
 			}
@@ -146,7 +146,7 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 		if side.file == "" {
 			continue
 		}
-		r, closeFn, err := openInput(s, side.file)
+		r, closeFn, err := screenOpenInput(s, side.file)
 		if err != nil {
 			return nil, err
 		}
@@ -163,8 +163,8 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 	return in, nil
 }
 
-// openInput opens a file, or stdin for "-".
-func openInput(s *streams, name string) (io.Reader, func(), error) {
+// screenOpenInput opens a file, or stdin for "-".
+func screenOpenInput(s *streams, name string) (io.Reader, func(), error) {
 	if name == "-" {
 		return s.in, func() {}, nil
 	}
@@ -175,9 +175,9 @@ func openInput(s *streams, name string) (io.Reader, func(), error) {
 	return f, func() { f.Close() }, nil
 }
 
-// readInput reads a whole file (or stdin) up to max bytes.
-func readInput(s *streams, name string, max int64) ([]byte, error) {
-	r, closeFn, err := openInput(s, name)
+// screenReadInput reads a whole file (or stdin) up to max bytes.
+func screenReadInput(s *streams, name string, max int64) ([]byte, error) {
+	r, closeFn, err := screenOpenInput(s, name)
 	if err != nil {
 		return nil, err
 	}

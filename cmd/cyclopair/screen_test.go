@@ -214,3 +214,22 @@ func levelCount(t *testing.T, smi string) int {
 	}
 	return len(o.Levels)
 }
+
+// pair --svg writes the diagram with one 2π column per activation that applies.
+func TestPairSVG(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "p.svg")
+	_, errOut, code := runCLI(t, "", "pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--activate", "none,lewis", "--svg", path)
+	if code != exitOK {
+		t.Fatalf("code %d: %s", code, errOut)
+	}
+	svg, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := bytes.Count(svg, []byte(`class="column"`)); n != 3 {
+		t.Errorf("%d columns, want 3 (diene, free, lewis)", n)
+	}
+	if err := xml.Unmarshal(svg, new(struct{})); err != nil {
+		t.Errorf("not XML: %v", err)
+	}
+}
