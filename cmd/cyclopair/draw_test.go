@@ -9,6 +9,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"cyclopair/fmo"
+	"cyclopair/presets"
 )
 
 // drawRun runs the whole CLI in-process and returns exit code, stdout and stderr.
@@ -89,6 +92,47 @@ func TestDrawErrors(t *testing.T) {
 		}
 		if !strings.HasPrefix(errs, "cyclopair: ") || !strings.Contains(errs, tc.want) {
 			t.Errorf("%v: stderr %q, want a cyclopair: line containing %q", tc.args, errs, tc.want)
+		}
+	}
+}
+
+// TestPairHTML builds the pair command's HTML page through its helper (the same calls
+// runPair makes for --format html) and checks it is well-formed and complete.
+func TestPairHTML(t *testing.T) {
+	p, err := resolveParams("")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal, err := presets.Calibration(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fo := fmo.NewOptions(p, cal, cal.Name)
+	d, err := fmo.NewPartner("cyclopentadiene", "C1=CC=CC1", fmo.RoleDiene, fo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, err := fmo.NewPartner("acrolein <i>", "C=CC=O", fmo.RoleDienophile, fo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out bytes.Buffer
+	h := newPairHTML(&streams{out: &out, err: io.Discard}, d, e, fo, nil, cal)
+	for _, v := range fmo.AnalyzeVariants(d, e, []string{"none", "lewis"}, nil, fo) {
+		if v.Err != nil {
+			t.Fatal(v.Err)
+		}
+		if err := h.add(v.Pair); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := h.close(); err != nil {
+		t.Fatal(err)
+	}
+	xmlOK(t, out.String())
+	for _, want := range []string{"cyclopair pair: cyclopentadiene + acrolein &lt;i&gt;", "lewis", "Accuracy on the literature check set", "SDS"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("pair HTML lacks %q", want)
 		}
 	}
 }
