@@ -249,6 +249,19 @@ func TestPublishedValues(t *testing.T) {
 			}
 		}
 	})
+	t.Run("fulvene, styrene, anthracene", func(t *testing.T) {
+		// Fulvene x = 2.115, 1.000, 0.618, −0.254, −1.618, −1.861; styrene HOMO 0.662 /
+		// LUMO −0.662; anthracene HOMO 0.414 / LUMO −0.414 (Coulson & Streitwieser,
+		// Dictionary of π-Electron Calculations, 1965; from memory).
+		o := mustSolve(t, perceive(t, "C=C1C=CC=C1", p))
+		for i, w := range []float64{2.115, 1.000, 0.618, -0.254, -1.618, -1.861} {
+			if !scalar.EqualWithinAbs(o.Levels[i].X, w, tolPub) {
+				t.Errorf("fulvene level %d: x = %.4f, want %.3f", i, o.Levels[i].X, w)
+			}
+		}
+		checkFrontier(t, mustSolve(t, perceive(t, "C=Cc1ccccc1", p)), 0.662, -0.662)
+		checkFrontier(t, mustSolve(t, perceive(t, "c1ccc2cc3ccccc3cc2c1", p)), 0.414, -0.414)
+	})
 	t.Run("cyclopentadienyl anion", func(t *testing.T) {
 		// 6 π electrons; x = 2, 0.618 (×2), −1.618 (×2); the HOMO pair is degenerate and full.
 		o := mustSolve(t, perceive(t, "C1=CC=C[CH-]1", p))
