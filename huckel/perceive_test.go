@@ -372,3 +372,48 @@ func TestBondOrdersAndGap(t *testing.T) {
 		}
 	}
 }
+
+// Qualitative frontier-orbital facts behind the ortho/para rule (Houk, J. Am. Chem. Soc.
+// 1973, 95, 4092; Fleming 1976, ch. 4; Houk & Strozier, J. Am. Chem. Soc. 1973, 95, 4094
+// for Lewis-acid complexation): which terminus carries the larger frontier coefficient.
+func TestFrontierCoefficientFacts(t *testing.T) {
+	p := defaultParams(t)
+	tests := []struct {
+		name, smiles string
+		homo         bool // HOMO (true) or LUMO
+		big, small   int  // atom indices: |c(big)| > |c(small)|
+	}{
+		{"1-methoxybutadiene HOMO: remote terminus C4", "C=CC=COC", true, 0, 3},
+		{"2-methoxybutadiene HOMO: C1 next to C2–OMe", "C=C(OC)C=C", true, 0, 5},
+		{"isoprene HOMO: C1 next to C2–Me", "C=C(C)C=C", true, 0, 4},
+		{"piperylene HOMO: remote terminus", "C=CC=CC", true, 0, 3},
+		{"methyl vinyl ether HOMO: β carbon", "C=COC", true, 0, 1},
+		{"methyl acrylate LUMO: β carbon", "C=CC(=O)OC", false, 0, 1},
+		{"acrylonitrile LUMO: β carbon", "C=CC#N", false, 0, 1},
+		{"nitroethylene LUMO: β carbon", "C=C[N+](=O)[O-]", false, 0, 1},
+		{"BF3–acrolein LUMO: β carbon", "C=CC=[O+][B-](F)(F)F", false, 0, 1},
+	}
+	for _, tc := range tests {
+		o := mustSolve(t, perceive(t, tc.smiles, p))
+		lv := o.LUMO
+		if tc.homo {
+			lv = o.HOMO
+		}
+		if o.Levels[lv].Degenerate != 1 {
+			t.Errorf("%s: frontier level degenerate", tc.name)
+			continue
+		}
+		b, s := math.Abs(o.Coefficient(lv, tc.big)), math.Abs(o.Coefficient(lv, tc.small))
+		if b <= s {
+			t.Errorf("%s: |c%d| = %.3f ≤ |c%d| = %.3f", tc.name, tc.big, b, tc.small, s)
+		}
+	}
+	// Complexation lowers the LUMO and raises the β-carbon coefficient (Houk & Strozier 1973).
+	free := mustSolve(t, perceive(t, "C=CC=O", p))
+	bound := mustSolve(t, perceive(t, "C=CC=[O+][B-](F)(F)F", p))
+	if bound.Levels[bound.LUMO].X <= free.Levels[free.LUMO].X ||
+		math.Abs(bound.Coefficient(bound.LUMO, 0)) <= math.Abs(free.Coefficient(free.LUMO, 0)) {
+		t.Errorf("BF3 complexation: LUMO x %.3f → %.3f, c(β) %.3f → %.3f",
+			free.Levels[free.LUMO].X, bound.Levels[bound.LUMO].X, free.Coefficient(free.LUMO, 0), bound.Coefficient(bound.LUMO, 0))
+	}
+}
