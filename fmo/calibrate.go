@@ -204,6 +204,9 @@ func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, b
 			switch k.Value {
 			case "molecule":
 				row.molLine, row.molCol = v.Line, v.Column
+				if v.Style&(yaml.DoubleQuotedStyle|yaml.SingleQuotedStyle) != 0 {
+					row.molCol++ // the SMILES starts after the quote
+				}
 			case "kind":
 				row.kindLine, row.kindCol = v.Line, v.Column
 			case "value_eV":
@@ -294,7 +297,7 @@ func FitCalibrationData(rows []CalibrationRow, p *huckel.Params, dataFile, name 
 			msg := err.Error()
 			var se *smiles.Error
 			if errors.As(err, &se) {
-				c += se.Pos // the SMILES starts at the value's column (unquoted)
+				c += se.Pos // molCol is the column of the SMILES' first character
 				msg = fmt.Sprintf("SMILES %q: %s", r.Molecule, se.Msg)
 				bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: msg, Hint: se.Hint})
 				continue

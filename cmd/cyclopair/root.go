@@ -73,6 +73,8 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newDemoCmd(s),
 		newDiagramCmd(s),
 		newPairCmd(s),
+		newCalibrateCmd(s),
+		newValidateCmd(s),
 	)
 	return root
 }
