@@ -753,66 +753,16 @@ func sameMolecule(a, b string) bool {
 	return err == nil && ca == cb
 }
 
-// canonicalNoMaps returns a constitution invariant of s: the sorted multiset of atom colours
-// after Weisfeiler–Lehman colour refinement (element, charge, H count; neighbours with
-// their Kekulé bond orders), each colour a 64-bit FNV-1a hash of the previous colour and
-// the sorted neighbour colours, run until the partition is stable. Isomorphic graphs always
-// agree; the regioisomers compared here are told apart because refinement separates atoms by
-// their distance pattern to the substituents.
+// canonicalNoMaps returns smiles.Canonical of s with atom maps cleared.
 func canonicalNoMaps(s string) (string, error) {
 	m, err := smiles.Parse(s)
 	if err != nil {
 		return "", err
 	}
-	return wlInvariant(m), nil
-}
-
-func wlInvariant(m *molecule.Molecule) string {
-	n := len(m.Atoms)
-	col := make([]uint64, n)
-	for i, a := range m.Atoms {
-		col[i] = fnv(fmt.Sprintf("%s%+dH%d", a.Element, a.Charge, a.HCount))
+	for i := range m.Atoms {
+		m.Atoms[i].Map = 0
 	}
-	distinct := func(c []uint64) int {
-		x := slices.Clone(c)
-		slices.Sort(x)
-		return len(slices.Compact(x))
-	}
-	prev := distinct(col)
-	for range n + 1 {
-		next := make([]uint64, n)
-		for i := range n {
-			nb := make([]string, 0, 4)
-			for _, e := range m.Neighbors(i) {
-				nb = append(nb, fmt.Sprintf("%d:%016x", m.Bonds[e.Bond].Order, col[e.To]))
-			}
-			slices.Sort(nb)
-			next[i] = fnv(fmt.Sprintf("%016x|%s", col[i], strings.Join(nb, ",")))
-		}
-		col = next
-		d := distinct(col)
-		if d == prev {
-			break
-		}
-		prev = d
-	}
-	out := slices.Clone(col)
-	slices.Sort(out)
-	var b strings.Builder
-	fmt.Fprintf(&b, "%d", n)
-	for _, c := range out {
-		fmt.Fprintf(&b, " %016x", c)
-	}
-	return b.String()
-}
-
-func fnv(s string) uint64 {
-	h := uint64(14695981039346656037)
-	for i := 0; i < len(s); i++ {
-		h ^= uint64(s[i])
-		h *= 1099511628211
-	}
-	return h
+	return smiles.Canonical(m), nil
 }
 
 func runSeries(s Series, opts *Options) SeriesResult {

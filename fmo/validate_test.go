@@ -163,7 +163,8 @@ func TestLoadCheckSetErrors(t *testing.T) {
 	}
 }
 
-// TestWLInvariant: isomorphic SMILES (different atom orders) agree, regioisomers differ.
+// TestSameMolecule: isomorphic SMILES (different atom orders, Kekulé forms or atom maps)
+// agree, regioisomers differ.
 func TestSameMolecule(t *testing.T) {
 	for _, tc := range []struct {
 		a, b string
@@ -174,6 +175,7 @@ func TestSameMolecule(t *testing.T) {
 		{"COC(=O)C1CCC=CC1C(=O)OC", "COC(=O)C1C=CCCC1C(=O)OC", true},
 		{"c1ccc(cc1)C1=NOC(C1)c1ccccc1", "c1ccc(cc1)C1=NOCC1c1ccccc1", false}, // 5- vs 4-phenyl
 		{"[CH3:1]C", "CC", true},
+		{"C1=CC=CC=C1C1CC=CCC1", "c1ccc(cc1)C1CCC=CC1", true}, // two Kekulé forms of the phenyl
 		{"C1CC1", "C(", false},
 	} {
 		if got := sameMolecule(tc.a, tc.b); got != tc.same {
