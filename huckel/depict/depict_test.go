@@ -32,7 +32,7 @@ type setEntry struct {
 	knownMiss bool
 }
 
-func loadSet(t *testing.T) []setEntry {
+func loadSet(t testing.TB) []setEntry {
 	t.Helper()
 	f, err := os.Open(filepath.Join("..", "..", "testdata", "depict", "smiles.txt"))
 	if err != nil {

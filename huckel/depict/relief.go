@@ -33,6 +33,32 @@ func (l *layouter) relieve(comp []int) {
 		}
 		return s
 	}
+	// cross is the part of the penalty between the atoms of side and the rest: a rigid move
+	// of side changes only that part, so candidates are scored in O(|side|·n).
+	inSide := make([]bool, l.g.n)
+	cross := func(side []int) float64 {
+		for _, a := range side {
+			inSide[a] = true
+		}
+		s := 0.0
+		for _, a := range side {
+			for _, b := range comp {
+				if inSide[b] {
+					continue
+				}
+				if d := l.pos[a].dist(l.pos[b]); d < clashDistance && !bonded(a, b) {
+					s += (clashDistance - d) * (clashDistance - d)
+					if d < 0.5 {
+						s++
+					}
+				}
+			}
+		}
+		for _, a := range side {
+			inSide[a] = false
+		}
+		return s
+	}
 	tried := map[[2]int]bool{} // looked up only
 	cur := penalty()
 	scratch := make([]Point, len(l.pos))
@@ -82,6 +108,7 @@ func (l *layouter) relieve(comp []int) {
 				qq := q
 				moves = append(moves, func(x Point) Point { return x.sub(l.pos[qq]).rot(c, s).add(l.pos[qq]) })
 			}
+			base := cur - cross(side)
 			for mi, mv := range moves {
 				copy(scratch, l.pos)
 				for _, a := range side {
@@ -90,7 +117,7 @@ func (l *layouter) relieve(comp []int) {
 					}
 					l.pos[a] = mv(l.pos[a])
 				}
-				if pen := penalty(); pen < bestPen-1e-9 {
+				if pen := base + cross(side); pen < bestPen-1e-9 {
 					bestPen = pen
 					bestPos = append(bestPos[:0], l.pos...)
 				}
@@ -102,7 +129,7 @@ func (l *layouter) relieve(comp []int) {
 			continue
 		}
 		copy(l.pos, bestPos)
-		cur = bestPen
+		cur = penalty() // recomputed in full so rounding never accumulates
 		clear(tried)
 	}
 }
