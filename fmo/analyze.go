@@ -13,8 +13,10 @@ import (
 // Ranking. Each orientation gets
 //
 //	stabilization = FrontierTerm + ChargeTerm                      (perturbation energy, |β|)
-//	score         = stabilization − λ·Localization                 (λ = Options.LocalizationWeight)
+//	score         = stabilization − λ·Localization − w·min(gap_normal, gap_inverse)
 //
+// with λ = Options.LocalizationWeight and w = Options.GapWeight (see there for why each is
+// there and how its value was chosen).
 // FrontierTerm is the Klopman–Salem orbital term over the frontier levels only (HOMO(diene)–
 // LUMO(dienophile) plus LUMO(diene)–HOMO(dienophile), degenerate sets summed), with the
 // first-order form where a gap is too small (see score.go); Localization is the π energy both
@@ -124,6 +126,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		FormingBeta:         opts.FormingBeta,
 		SecondaryBeta:       opts.SecondaryBeta,
 		LocalizationWeight:  opts.LocalizationWeight,
+		GapWeight:           opts.GapWeight,
 		DemandThreshold:     opts.DemandThreshold,
 		ScoreFormula:        ScoreFormula,
 		SideChannels:        []SideChannel{},
@@ -230,7 +233,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 }
 
 // ScoreFormula is the ranking formula, reported in every Pair.
-const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization; " +
+const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
 	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
 
 func cycloKind(u Unit) string {

@@ -38,7 +38,7 @@ type Orientation struct {
 	EndoOverlap     float64   `json:"endo_overlap"`     // secondary-orbital term, |β|
 	Preferred       bool      `json:"preferred"`
 
-	Score       float64 `json:"score"`        // ranking score: stabilization − localization_weight·localization, |β|
+	Score       float64 `json:"score"`        // ranking score (Pair.ScoreFormula), |β|
 	NormalTerm  float64 `json:"normal_term"`  // orbital term of the HOMO(diene)–LUMO(dienophile) pairing, |β|
 	InverseTerm float64 `json:"inverse_term"` // orbital term of the LUMO(diene)–HOMO(dienophile) pairing, |β|
 	Kind        string  `json:"kind"`         // "[4+2]" or "[3+2]"
@@ -105,7 +105,8 @@ type Pair struct {
 	Warnings    []string `json:"warnings"`
 
 	SecondaryBeta       float64    `json:"secondary_beta"`               // resonance integral of the secondary (endo) contacts, units of β
-	LocalizationWeight  float64    `json:"localization_weight"`          // λ in score = stabilization − λ·localization
+	LocalizationWeight  float64    `json:"localization_weight"`          // λ in score = stabilization − λ·localization − w·controlling gap
+	GapWeight           float64    `json:"gap_weight"`                   // w in the same formula
 	ScoreFormula        string     `json:"score_formula"`                // how the ranking score is built
 	ChargeTermOn        bool       `json:"charge_term_on"`               // whether the Coulomb term was included
 	RegioThresholds     [2]float64 `json:"regio_thresholds"`             // [clear, slight] on regio_margin / frontier_term of the best

@@ -78,7 +78,7 @@ func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick 
 	r.Best = best
 	r.RegioMargin = best - other
 	r.GapNormal, r.GapInverse = dd.hx-ed.lx, ed.hx-dd.lx
-	r.Stabilization = best + k.locWeight*(dd.loc+ed.loc)
+	r.Stabilization = best + k.locWeight*(dd.loc+ed.loc) + k.gapWeight*min(r.GapNormal, r.GapInverse)
 	// first-order flag of the preferred orientation: g ≤ √S in either pairing
 	x, y := 0, 1
 	if bo == 1 {

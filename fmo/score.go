@@ -30,6 +30,7 @@ func pairingTerm(s, g float64) (e float64, firstOrder bool) { return term(s, g) 
 type kernel struct {
 	gamma, gammaS, locWeight, chargeCoef float64
 	g2                                   float64 // γ²
+	gapWeight                            float64 // w in −w·min(gap_normal, gap_inverse)
 }
 
 // orientScore is the scored form of one orientation.
@@ -89,7 +90,7 @@ func (k *kernel) scores(d, e *fastUnit) (sc0, sc1 float64) {
 	i0, _ := term(k.g2*(d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI), gI)
 	n1, _ := term(k.g2*(d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN), gN)
 	i1, _ := term(k.g2*(d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI), gI)
-	pen := k.locWeight * (d.loc + e.loc)
+	pen := k.locWeight*(d.loc+e.loc) + k.gapWeight*min(gN, gI)
 	sc0 = n0 + i0 - pen
 	sc1 = n1 + i1 - pen
 	if k.chargeCoef != 0 {

@@ -39,10 +39,12 @@ confidence, the endo (secondary-orbital) verdict, whether the supra–supra ther
 symmetry-allowed, and warnings.
 
 Ranking score, per orientation (all in |β|):
-  score = frontier_term + charge_term − λ·localization
+  score = frontier_term + charge_term − λ·localization − w·min(gap_normal, gap_inverse)
   frontier_term = Σ over both frontier pairings of 2(γ Σ_bonds c_r c_s)² / gap,
                   first-order 2|γ Σ c c| where the gap is at or below |γ Σ c c|
-with γ (forming_beta) and λ (localization_weight) printed with every result.
+with γ (forming_beta), λ (localization_weight) and w (gap_weight) printed with every result.
+The localisation and gap terms are equal for both orientations of one site, so
+regiochemistry comes from the frontier term alone.
 
 Atom indices (bonds, diene_atoms, dienophile_atoms) are 0-based positions in each SMILES as
 written; site names count from 1 (C1 is atom 0), as chemists number atoms. Atom maps ([CH2:1]) pin the

@@ -63,7 +63,7 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	if p.ChargeTermOn {
 		charge = "on"
 	}
-	fmt.Fprintf(w, "score: frontier + charge (%s) − %.2f·localization; forming bonds γ = %.2f β\n", charge, p.LocalizationWeight, p.FormingBeta)
+	fmt.Fprintf(w, "score: frontier + charge (%s) − %.2f·localization − %.2f·controlling gap; forming bonds γ = %.2f β\n", charge, p.LocalizationWeight, p.GapWeight, p.FormingBeta)
 
 	fmt.Fprintln(w)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
