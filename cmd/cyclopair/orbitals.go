@@ -61,6 +61,7 @@ Results are estimates for planning, not safety assessments.`,
 	}
 	cmd.Flags().StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines) or csv")
 	cmd.Flags().StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
+	_ = cmd.RegisterFlagCompletionFunc("params", completeParams)
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
 	return cmd
 }

@@ -229,3 +229,10 @@ func showParams(w io.Writer, p *huckel.Params, format string) error {
 	}
 	return tw.Flush()
 }
+
+// completeParams offers the built-in set names for a --params flag (files are completed
+// by the shell as usual). Register it with
+// cmd.RegisterFlagCompletionFunc("params", completeParams).
+func completeParams(*cobra.Command, []string, string) ([]cobra.Completion, cobra.ShellCompDirective) {
+	return presets.ParamNames(), cobra.ShellCompDirectiveDefault
+}
