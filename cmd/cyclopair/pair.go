@@ -60,9 +60,9 @@ and local rules before any lab work.`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
-			case "table", "json":
+			case "table", "json", "html":
 			default:
-				return &usageError{fmt.Errorf("--format %q: want table or json", opts.format)}
+				return &usageError{fmt.Errorf("--format %q: want table, json or html", opts.format)}
 			}
 			if strings.TrimSpace(opts.diene) == "" || strings.TrimSpace(opts.dienophile) == "" {
 				return &usageError{errors.New("both --diene and --dienophile are required")}
@@ -87,7 +87,7 @@ and local rules before any lab work.`,
 	f.StringSliceVar(&opts.activate, "activate", []string{fmo.ActivateNone}, "dienophile activation(s), comma-separated: "+strings.Join(fmo.Modes(), ", "))
 	f.StringVar(&opts.amine, "amine", "", "secondary amine SMILES for --activate iminium (default pyrrolidine, "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
-	f.StringVar(&opts.format, "format", "table", "output format: table or json (JSON Lines, one object per activation)")
+	f.StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines, one object per activation) or html (one self-contained page with pictures)")
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
 	return cmd
@@ -127,6 +127,10 @@ func runPair(s *streams, opts *pairOptions) error {
 			return err
 		}
 	}
+	var page *pairHTML // --format html (draw_html.go)
+	if opts.format == "html" {
+		page = newPairHTML(s, diene, dienophile, fo, act, cal)
+	}
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
@@ -150,8 +154,17 @@ func runPair(s *streams, opts *pairOptions) error {
 				return err
 			}
 			s.out.Write(append(b, '\n'))
+		case "html":
+			if err := page.add(pair); err != nil {
+				return err
+			}
 		default:
 			writePairTable(s, pair, cal.String())
+		}
+	}
+	if page != nil {
+		if err := page.close(); err != nil {
+			return err
 		}
 	}
 	switch {
