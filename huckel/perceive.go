@@ -207,7 +207,12 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			case np > 0 && a.Charge == 1:
 				set(roleCore, CSp, 1) // vinyl cation: the empty orbital lies in the σ plane
 			case np > 0 && a.Charge == -1:
-				set(roleCore, CSp2, 1) // vinyl anion: the lone pair lies in the σ plane
+				// vinyl anion or isocyanide carbon: the lone pair lies in the σ plane
+				if maxOrder == 3 || cumulated {
+					set(roleCore, CSp, 1)
+				} else {
+					set(roleCore, CSp2, 1)
+				}
 			case np > 0:
 				return nil, unsupported(fmt.Sprintf("carbon with charge %+d and a multiple bond is not supported", a.Charge))
 			case a.Charge == 1 && val == 3:

@@ -71,15 +71,16 @@ func TestPerceiveTypes(t *testing.T) {
 		{"C=C[CH2-]", "C:1 C:1 C-:2", 1},
 		{"C#N", "C#:1 N#:1", 1},
 		{"CC#CC", "Me:2 C#:1 C#:1 Me:2", 1},
-		{"[N-]=[N+]=NC", "N-:2 N+#:1 N=:1 Me:2", 1},       // azide: keeps N1=N2 (substituted side)
-		{"C=[N+]=[N-]", "C:1 N+#:1 N-:2", 1},              // diazomethane
-		{"CC#[N+][O-]", "Me:2 C#:1 N+#:1 O-:2", 1},        // nitrile oxide
-		{"C[N+]([O-])=C", "Me:2 N+=:1 O-:2 C:1", 1},       // nitrone
-		{"C=C=O", "C:1 C#:1 O::2", 1},                     // ketene: C=C set, in-plane O lone pair
-		{"CC(C)=C=C", "Me:2 C:1 Me:2 C#:1 -", 1},          // allene: the substituted C=C is kept
-		{"C=C.C=C", "C:1 C:1 C:1 C:1", 2},                 // separate molecules
-		{"C=CCCC=C", "C:1 C:1 Me:2 Me:2 C:1 C:1", 2},      // two alkyl pseudo-atoms are not bonded
-		{"CCOC", "- - - -", 0},                            // nothing conjugated
+		{"[N-]=[N+]=NC", "N-:2 N+#:1 N=:1 Me:2", 1},  // azide: keeps N1=N2 (substituted side)
+		{"C=[N+]=[N-]", "C:1 N+#:1 N-:2", 1},         // diazomethane
+		{"CC#[N+][O-]", "Me:2 C#:1 N+#:1 O-:2", 1},   // nitrile oxide
+		{"C[N+]([O-])=C", "Me:2 N+=:1 O-:2 C:1", 1},  // nitrone
+		{"C=C=O", "C:1 C#:1 O::2", 1},                // ketene: C=C set, in-plane O lone pair
+		{"CC(C)=C=C", "Me:2 C:1 Me:2 C#:1 -", 1},     // allene: the substituted C=C is kept
+		{"C=C.C=C", "C:1 C:1 C:1 C:1", 2},            // separate molecules
+		{"C=CCCC=C", "C:1 C:1 Me:2 Me:2 C:1 C:1", 2}, // two alkyl pseudo-atoms are not bonded
+		{"CCOC", "- - - -", 0},
+		{"C[N+]#[C-]", "Me:2 N+#:1 C#:1", 1},              // methyl isocyanide                            // nothing conjugated
 		{"N1=NN=NC=C1", "N=:1 N=:1 N=:1 N=:1 C:1 C:1", 1}, // 1,2,3,4-tetrazine
 	}
 	p := defaultParams(t)
