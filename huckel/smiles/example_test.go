@@ -66,3 +66,15 @@ func ExampleWrite() {
 	// C=CC=[O+][B-](F)(F)F
 	// [CH2:1]=[CH:2]C=C
 }
+
+func ExampleCanonical() {
+	// The same cycloadduct written from two ends, and with a different Kekulé structure
+	// of its phenyl ring, gives one canonical string.
+	a, _ := smiles.Parse("O=C1C2C3C=CC(C3)C2C(=O)N1C1=CC=CC=C1")
+	b, _ := smiles.Parse("C1=CC=C(C=C1)N1C(=O)C2C3CC(C=C3)C2C1=O")
+	fmt.Println(smiles.Canonical(a) == smiles.Canonical(b))
+	fmt.Println(smiles.Canonical(a))
+	// Output:
+	// true
+	// C1(C2C(C(N1C1=CC=CC=C1)=O)C1C=CC2C1)=O
+}
