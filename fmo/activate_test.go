@@ -357,3 +357,33 @@ func TestLewisStrength(t *testing.T) {
 		t.Errorf("LewisParams(h=0) must return the base set unchanged")
 	}
 }
+
+// Activation keeps the atoms of the input at their indices and appends the Lewis acid (drawn
+// as BF3), so bonds found on the activated molecule map back to the user's SMILES.
+func ExampleActivate() {
+	m, _ := smiles.Parse("C=CC=O") // acrolein
+	act, warnings, err := Activate(m, ActivateLewis, nil)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(smiles.Write(act), len(act.Atoms)-len(m.Atoms), "atoms appended,", len(warnings), "warnings")
+	site, _ := FindActivationSite(m, ActivateLewis)
+	fmt.Printf("complexed O %d, carbonyl C %d, α-C %d, β-C %d (%s)\n", site.Acceptor, site.Carbon, site.Alpha, site.Beta, site.Kind)
+
+	_, _, err = Activate(mustParseExample("C=C"), ActivateLewis, nil)
+	fmt.Println(err)
+	// Output:
+	// C=CC=[O+][B-](F)(F)F 4 atoms appended, 0 warnings
+	// complexed O 3, carbonyl C 2, α-C 1, β-C 0 (aldehyde)
+	// dienophile C=C has no carbonyl or imine to activate (use --activate none): nothing to activate
+}
+
+func mustParseExample(s string) *molecule.Molecule {
+	m, err := smiles.Parse(s)
+	if err != nil {
+		panic(err)
+	}
+	m.Source = s
+	return m
+}

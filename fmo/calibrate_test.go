@@ -184,3 +184,38 @@ func TestLoadCalibrationDataFatal(t *testing.T) {
 		t.Errorf("one point: err = %v, want huckel.ErrCalibration", err)
 	}
 }
+
+// FuzzLoadCalibrationData: the data and calibration-file readers never panic, and every
+// error they return is positioned in the named file.
+func FuzzLoadCalibrationData(f *testing.F) {
+	seed, err := os.ReadFile("testdata/calibration/polyenes.yaml")
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(string(seed))
+	f.Add("entries:\n- {kind: ionization_energy, molecule: C=C, value_eV: 10.5}\n")
+	f.Add("format: cyclopair-calibration/1\nname: x\nhomo: {intercept: -6, slope: -2}\nlumo: {intercept: 1, slope: -2}\n")
+	f.Add("entries: [{kind: electron_affinity, molecule: '[Xx]', value_eV: .nan}]")
+	f.Fuzz(func(t *testing.T, s string) {
+		rows, bad, err := LoadCalibrationData(strings.NewReader(s), "f.yaml")
+		for _, e := range append(bad, asRowError(err)...) {
+			if !strings.HasPrefix(e.Error(), "f.yaml") {
+				t.Fatalf("unpositioned error %q", e)
+			}
+		}
+		if err == nil && len(rows) > 0 && len(rows) < 50 {
+			_, _, _ = FitCalibrationData(rows, defaultOpts(t).Params, "f.yaml", "")
+		}
+		if _, err := LoadCalibrationFile(strings.NewReader(s), "f.yaml"); err != nil && !strings.HasPrefix(err.Error(), "f.yaml") {
+			t.Fatalf("unpositioned error %q", err)
+		}
+	})
+}
+
+func asRowError(err error) []*RowError {
+	var re *RowError
+	if errors.As(err, &re) {
+		return []*RowError{re}
+	}
+	return nil
+}

@@ -2,9 +2,12 @@ package fmo
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
+
+	"cyclopair/presets/literature"
 )
 
 // runBundled runs the shipped literature check set (presets/literature/cases.yaml) with the
@@ -182,4 +185,25 @@ func TestSameMolecule(t *testing.T) {
 			t.Errorf("sameMolecule(%s, %s) = %v, want %v", tc.a, tc.b, got, tc.same)
 		}
 	}
+}
+
+func ExampleSpearman() {
+	logk := []float64{-5, -4.1, -4.0, -0.3, 2.7, 5.6} // measured, increasing
+	figure := []float64{1, 2, 2, 4, 5, 6}             // predicted, one tie
+	fmt.Printf("%.4f\n", Spearman(logk, figure))
+	// Output:
+	// 0.9856
+}
+
+// FuzzLoadCheckSet: the check-set reader never panics and returns positioned errors.
+func FuzzLoadCheckSet(f *testing.F) {
+	f.Add(string(literature.CasesYAML))
+	f.Add("cases:\n- id: a\n  category: endo\n  diene: {name: cp, smiles: C1=CCC=C1}\n  dienophile: {name: e, smiles: C=C}\n  expect: {endo: endo}\n  source: x\n  confidence: from memory\n")
+	f.Add("series: [{id: s, figure: gap_normal, source: x, confidence: from memory, diene: {smiles: C=CC=C}, members: [{smiles: C=C, k: 1}]}]")
+	f.Fuzz(func(t *testing.T, s string) {
+		_, err := LoadCheckSet(strings.NewReader(s), "f.yaml")
+		if err != nil && (!errors.Is(err, ErrCheckSet) || !strings.HasPrefix(err.Error(), "f.yaml")) {
+			t.Fatalf("error %q not a positioned ErrCheckSet", err)
+		}
+	})
 }
