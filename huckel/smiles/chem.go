@@ -165,14 +165,37 @@ func (p *parser) kekuliseAll() bool {
 			need[i] = true
 		}
 	}
+	needCopy := append([]bool(nil), need...) // kekulise's scratch may reuse need's memory
 	unmatched := kekulise(m, need, &p.sc)
 	if unmatched >= 0 {
 		a := m.Atoms[unmatched]
+		why := ""
+		if k := systemSize(m, needCopy, unmatched); k%2 == 1 {
+			why = fmt.Sprintf("; %d atoms of this ring system need one, an odd number", k)
+		}
 		p.errorf(a.Pos, ErrKekulize, kekuleHint(a),
-			"aromatic ring cannot be kekulised: atom %d %s gets no double bond", unmatched+1, p.atomText(unmatched))
+			"aromatic ring cannot be kekulised: atom %d %s gets no double bond%s", unmatched+1, p.atomText(unmatched), why)
 		return false
 	}
 	return true
+}
+
+// systemSize counts the atoms with need set that are joined to start through aromatic
+// bonds between such atoms.
+func systemSize(m *molecule.Molecule, need []bool, start int) int {
+	seen := map[int]bool{start: true}
+	stack := []int{start}
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		for _, e := range m.Neighbors(v) {
+			if m.Bonds[e.Bond].Aromatic && need[e.To] && !seen[e.To] {
+				seen[e.To] = true
+				stack = append(stack, e.To)
+			}
+		}
+	}
+	return len(seen)
 }
 
 func kekuleHint(a molecule.Atom) string {
