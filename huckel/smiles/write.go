@@ -18,9 +18,10 @@ import (
 // not kept by the reader and so never written.
 //
 // The output depends only on the graph and the atom order, not on the order of m.Bonds:
-// each fragment starts at its lowest-numbered atom, neighbours are visited in index order,
-// the last neighbour continues the chain and earlier ones become branches, and ring
-// closures take the lowest free number. Fragments are joined with '.' in the order of
+// each fragment starts at its lowest-numbered atom, a depth-first search visits
+// neighbours in index order, and at each atom the smaller subtrees are written first as
+// branches while the largest continues the chain; ring closures take the lowest free
+// number. Fragments are joined with '.' in the order of
 // their lowest atom.
 //
 // Write panics if a bond order is not 1, 2 or 3 (molecules from Parse never have one).
@@ -45,6 +46,7 @@ type writer struct {
 	parent  []int32           // bond to the DFS parent, -1 for a root, -2 unvisited
 	ring    []bool            // bond closes a ring (not a DFS tree edge)
 	digit   []int32           // ring number of a ring bond while open, 0 before, -1 after
+	size    []int32           // atoms in the DFS subtree of each atom
 	inUse   []bool            // ring numbers in use (index = number)
 	order   []int             // atoms in output order, when asked for
 	inUseBf [16]bool
@@ -65,9 +67,10 @@ func newWriter(m *molecule.Molecule) *writer {
 		}
 		w.adj[v] = seg
 	}
-	state := make([]int32, n+nb)
+	state := make([]int32, 2*n+nb)
 	w.parent = state[:n]
-	w.digit = state[n:]
+	w.size = state[n : 2*n]
+	w.digit = state[2*n:]
 	for i := range w.parent {
 		w.parent[i] = -2
 	}
@@ -104,6 +107,7 @@ func (w *writer) write() string {
 // walk is the first pass: a depth-first search from v that marks tree edges (through
 // parent) and ring-closure bonds.
 func (w *writer) walk(v int, seen []bool) {
+	w.size[v] = 1
 	for _, e := range w.adj[v] {
 		if seen[e.Bond] {
 			continue
@@ -115,6 +119,7 @@ func (w *writer) walk(v int, seen []bool) {
 		}
 		w.parent[e.To] = int32(e.Bond)
 		w.walk(e.To, seen)
+		w.size[v] += w.size[e.To]
 	}
 }
 
@@ -151,18 +156,20 @@ func (w *writer) emit(v, from, inBond int) {
 	for _, d := range freed {
 		w.inUse[d] = false
 	}
-	// children in index order; the last continues the chain
-	last := -1
-	for k, e := range w.adj[v] {
+	// children smallest subtree first (ties by index), so side groups become short
+	// branches, C(=O)..., and the largest subtree continues the chain
+	var kidBuf [8]molecule.Edge
+	kids := kidBuf[:0]
+	for _, e := range w.adj[v] {
 		if w.parent[e.To] == int32(e.Bond) && e.To != from {
-			last = k
+			kids = append(kids, e)
 		}
 	}
-	for k, e := range w.adj[v] {
-		if w.parent[e.To] != int32(e.Bond) || e.To == from {
-			continue
-		}
-		if k < last {
+	if len(kids) > 1 {
+		slices.SortStableFunc(kids, func(a, b molecule.Edge) int { return int(w.size[a.To] - w.size[b.To]) })
+	}
+	for k, e := range kids {
+		if k < len(kids)-1 {
 			w.b.WriteByte('(')
 			w.emit(e.To, v, e.Bond)
 			w.b.WriteByte(')')
