@@ -24,7 +24,16 @@
 // aromatic atoms that lies in no ring (the biaryl bond of c1ccccc1c1ccccc1) is single.
 //
 // Implicit hydrogen counts follow the default valences after kekulisation: the smallest
-// default valence that is at least the sum of bond orders.
+// default valence that is at least the sum of bond orders. Bracket atoms of the main-group
+// elements H B C N O F Si P S Cl Ge As Se Br Sb Te I are checked: bond orders plus the
+// written hydrogens must be a valence of the isoelectronic neutral element (N+ bonds like
+// C, O+ like N, C- like N, B- like C; period-2 atoms keep the octet, heavier ones may
+// expand by twos). Short of that valence the atom has unpaired electrons (ErrRadical);
+// beyond the largest it is ErrValence.
+//
+// Parse is safe for concurrent use; it keeps per-call work space in a sync.Pool, so the
+// only allocations are those of the returned molecule (six or seven for a typical
+// substrate).
 //
 // # Failure modes
 //
