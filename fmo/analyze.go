@@ -2,7 +2,6 @@ package fmo
 
 import (
 	"fmt"
-	"math"
 	"slices"
 	"strings"
 )
@@ -268,8 +267,28 @@ func frontierOut(fs frontierSet, occupied bool, opts *Options) Frontier {
 	return Frontier{Index: fs.Level, X: fs.X, EV: opts.ev(fs.X, occupied), Degenerate: fs.N > 1}
 }
 
-// phaseTol: a terminus coefficient product below this counts as a node (no overlap).
-const phaseTol = 1e-6
+// nodeRatio: a frontier set whose smaller terminus amplitude is below this fraction of the
+// larger one (|c_min|/|c_max|, from the set projector's diagonal) has a node at a terminus and
+// cannot decide the phase question; the other pairing then decides (judgement, no source).
+const nodeRatio = 0.1
+
+// phasePairing is one frontier pairing's terminus phases: prod = (Σ c_a c_d)(Σ c_1 c_2) over
+// the two sets, nodal when either set has (nearly) no amplitude at one terminus.
+type phasePairing struct {
+	name  string
+	prod  float64
+	nodal bool
+}
+
+func nodal(paa, pdd float64) bool {
+	lo, hi := min(paa, pdd), max(paa, pdd)
+	return hi <= 0 || lo < nodeRatio*nodeRatio*hi
+}
+
+func pairingPhase(name string, p, q *[nSlots][nSlots]float64, tEnd int) phasePairing {
+	return phasePairing{name: name, prod: p[0][tEnd] * q[0][1],
+		nodal: nodal(p[0][0], p[tEnd][tEnd]) || nodal(q[0][0], q[1][1])}
+}
 
 // allowedness decides whether the supra–supra thermal pairing is symmetry-allowed from the
 // phases of the frontier orbitals at the termini: with both partners approaching suprafacially,
@@ -277,41 +296,53 @@ const phaseTol = 1e-6
 // (c_a·c_d of one partner's level) and (c_1·c_2 of the other's) have the same sign. For a
 // degenerate set the products are the projector elements Σ_members c_a c_d, which do not
 // depend on the basis chosen inside the set. The verdict is taken from the pairing that
-// contributes more to the orbital term; a disagreement between the two pairings is stated.
+// contributes more to the orbital term, unless that pairing has a node at a terminus
+// (nodeRatio), when the other pairing decides; a disagreement is stated in the reason.
 // This gives [4+2] and [3+2] allowed and [2+2] and [4+4] forbidden without a rule table.
 func allowedness(d, e *unitData, dipole bool, s orientScore) (bool, string) {
 	tEnd := 3
 	if dipole {
 		tEnd = 2
 	}
-	pN := d.homo.P[0][tEnd] * e.lumo.P[0][1]
-	pI := d.lumo.P[0][tEnd] * e.homo.P[0][1]
-	return phaseVerdict(pN, pI, s.normal >= s.inverse)
+	n := pairingPhase("HOMO(diene)–LUMO(dienophile)", &d.homo.P, &e.lumo.P, tEnd)
+	i := pairingPhase("LUMO(diene)–HOMO(dienophile)", &d.lumo.P, &e.homo.P, tEnd)
+	return phaseVerdict(n, i, s.normal >= s.inverse)
 }
 
-func phaseVerdict(pN, pI float64, normalDominant bool) (bool, string) {
-	verdict := func(p float64) string {
+func phaseVerdict(n, i phasePairing, normalDominant bool) (bool, string) {
+	describe := func(p phasePairing) string {
 		switch {
-		case math.Abs(p) < phaseTol:
-			return "node at a terminus"
-		case p > 0:
-			return "in phase at both termini"
+		case p.nodal:
+			return fmt.Sprintf("%s: node at a terminus (%+.4f)", p.name, p.prod)
+		case p.prod > 0:
+			return fmt.Sprintf("%s: in phase at both termini (c_a·c_d × c_1·c_2 = %+.4f)", p.name, p.prod)
 		}
-		return "out of phase at one terminus"
+		return fmt.Sprintf("%s: out of phase at one terminus (c_a·c_d × c_1·c_2 = %+.4f)", p.name, p.prod)
 	}
-	dom, other := pN, pI
-	domName, otherName := "HOMO(diene)–LUMO(dienophile)", "LUMO(diene)–HOMO(dienophile)"
+	dom, other := n, i
 	if !normalDominant {
-		dom, other = pI, pN
-		domName, otherName = otherName, domName
+		dom, other = i, n
 	}
-	allowed := dom > phaseTol
-	reason := fmt.Sprintf("%s: %s (c_a·c_d × c_1·c_2 = %+.4f); %s: %s (%+.4f)",
-		domName, verdict(dom), dom, otherName, verdict(other), other)
-	if allowed {
-		reason = "supra–supra allowed: " + reason
-	} else {
-		reason = "supra–supra forbidden: " + reason
+	decider := dom
+	if dom.nodal && !other.nodal {
+		decider = other
+	}
+	allowed := !decider.nodal && decider.prod > 0
+	var verdict string
+	switch {
+	case decider.nodal:
+		verdict = "supra–supra undetermined (both pairings have a node at a terminus; treated as not allowed): "
+	case allowed:
+		verdict = "supra–supra allowed: "
+	default:
+		verdict = "supra–supra forbidden: "
+	}
+	reason := verdict + describe(dom) + "; " + describe(other)
+	if decider.name != dom.name {
+		reason += "; decided by the second pairing"
+	}
+	if !dom.nodal && !other.nodal && (dom.prod > 0) != (other.prod > 0) {
+		reason += "; the two pairings disagree, the larger orbital term decides"
 	}
 	return allowed, reason
 }
@@ -322,23 +353,24 @@ func phaseVerdict(pN, pI float64, normalDominant bool) (bool, string) {
 // the π fragments containing the termini; a is taken as the donor of the dominant pairing
 // when its HOMO–LUMO(b) gap is the smaller one.
 func SupraSupra(a *Partner, ta [2]int, b *Partner, tb [2]int) (bool, string) {
-	proj := func(p *Partner, t [2]int) (homo, lumo float64, hx, lx float64) {
+	type sets struct {
+		homo, lumo [nSlots][nSlots]float64
+		hx, lx     float64
+	}
+	proj := func(p *Partner, t [2]int) sets {
+		var s sets
 		f := p.Pi.Centres[p.Pi.CentreOf(t[0])].Fragment
 		h, l := fragmentFrontier(p.Orb, f)
 		if h < 0 || l < 0 {
-			return 0, 0, 0, 0
+			return s
 		}
-		for _, li := range p.Orb.DegenerateSet(h) {
-			homo += p.Orb.Coefficient(li, t[0]) * p.Orb.Coefficient(li, t[1])
-		}
-		for _, li := range p.Orb.DegenerateSet(l) {
-			lumo += p.Orb.Coefficient(li, t[0]) * p.Orb.Coefficient(li, t[1])
-		}
-		return homo, lumo, p.Orb.Levels[h].X, p.Orb.Levels[l].X
+		slots := [nSlots]int{t[0], t[1], -1, -1}
+		hs, ls := p.frontier(h, slots), p.frontier(l, slots)
+		s.homo, s.lumo, s.hx, s.lx = hs.P, ls.P, hs.X, ls.X
+		return s
 	}
-	ah, al, ahx, alx := proj(a, ta)
-	bh, bl, bhx, blx := proj(b, tb)
-	gN := ahx - blx
-	gI := bhx - alx
-	return phaseVerdict(ah*bl, al*bh, gN <= gI)
+	sa, sb := proj(a, ta), proj(b, tb)
+	n := pairingPhase("HOMO(first)–LUMO(second)", &sa.homo, &sb.lumo, 1)
+	i := pairingPhase("LUMO(first)–HOMO(second)", &sa.lumo, &sb.homo, 1)
+	return phaseVerdict(n, i, sa.hx-sb.lx <= sb.hx-sa.lx)
 }

@@ -532,3 +532,60 @@ func TestScoreTracksSauerSeries(t *testing.T) {
 		t.Errorf("Spearman(score, log k) = %.3f; want ≥ 0.8 (scores %v)", rho, sc)
 	}
 }
+
+func TestFirstOrderSwitch(t *testing.T) {
+	// A strong donor with a strong acceptor: 1-oxidobutadiene (a dienolate) with nitroethylene.
+	// Their frontier levels nearly touch (Hückel gap below the coupling), so the normal pairing
+	// must use the first-order form and the pair must carry a warning. Closed-form check of
+	// the switch itself is in TestPairingTermContinuity; this one checks the plumbing.
+	p, _, _ := mustAnalyze(t, "C=CC=C[O-]", "C=C[N+](=O)[O-]")
+	best := p.Orientations[0]
+	if best.Method != "first-order" {
+		t.Errorf("method %q (normal gap %.3f |β|); want first-order", best.Method, p.GapNormal.Beta)
+	}
+	found := false
+	for _, w := range p.Warnings {
+		found = found || strings.Contains(w, "second-order perturbation theory breaks down")
+	}
+	if !found {
+		t.Errorf("no first-order warning in %q", p.Warnings)
+	}
+	// The nitro N=O is never a dienophile unit.
+	for _, o := range p.Orientations {
+		if slices.Contains(o.DienophileAtoms, 3) || slices.Contains(o.DienophileAtoms, 4) {
+			t.Errorf("orientation %s uses the nitro N=O", o.Site)
+		}
+	}
+	// Ordinary pairs stay second-order.
+	p, _, _ = mustAnalyze(t, "C=CC=C", "C=CC=O")
+	if p.Orientations[0].Method != "second-order" {
+		t.Errorf("butadiene + acrolein: method %q; want second-order", p.Orientations[0].Method)
+	}
+}
+
+func TestChargeTerm(t *testing.T) {
+	// Off by default (Stabilization = FrontierTerm); when on, it is reported and enters the
+	// stabilization, and the Pair says so.
+	o := testOptions(t)
+	d := mustPartner(t, "COC=CC=C", RoleDiene, o)
+	e := mustPartner(t, "C=CC=O", RoleDienophile, o)
+	p, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.ChargeTermOn || p.Orientations[0].ChargeTerm != 0 || p.Orientations[0].Stabilization != p.Orientations[0].FrontierTerm {
+		t.Errorf("charge term off: %+v", p.Orientations[0])
+	}
+	o.ChargeTerm = true
+	p, err = Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := p.Orientations[0]
+	if !p.ChargeTermOn || b.ChargeTerm == 0 || math.Abs(b.Stabilization-b.FrontierTerm-b.ChargeTerm) > tolScore {
+		t.Errorf("charge term on: %+v", b)
+	}
+	if q := QuickScore(d, e, o); math.Abs(q.Best-b.Score) > tolScore {
+		t.Errorf("charge term on: quick %.12f, analyze %.12f", q.Best, b.Score)
+	}
+}

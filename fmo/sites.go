@@ -166,7 +166,8 @@ func terminusElement(el string) bool {
 //     Nitro groups (centre type N+nitro) are excluded.
 //   - 2π units (RoleDienophile): pairs of bonded one-electron π centres (C=C, C≡C, C=O, C=N,
 //     N=N, C=S), again over π centres rather than the written Kekulé form; nitrile C≡N and
-//     other sp units except C≡C are excluded (see spCentre), as are sp centres in diene units.
+//     other sp units except C≡C are excluded (see spCentre), as are sp centres in diene units,
+//     and so is the N=O of a nitro group (see nitroCentre).
 //
 // Every candidate must leave a valid Kekulé structure for the rest of the partner once its
 // termini become sp3 (the adduct must be a closed-shell molecule): this removes, for example,
@@ -264,6 +265,14 @@ func spCentre(c huckel.Centre) bool {
 	return false
 }
 
+// nitroCentre reports the N and O centres of a nitro group. Its N=O is never a 2π unit
+// (nitro compounds add dienes at their C=C, never at the N=O; common practice, no source);
+// a nitroalkene may still be a 4π hetero-diene C=C–N=O (cyclic nitronates: Denmark &
+// Thorarensen, Chem. Rev. 1996, 96, 137; from memory).
+func nitroCentre(c huckel.Centre) bool {
+	return c.Type == huckel.NNitro || c.Type == huckel.ONitro
+}
+
 func dieneAtom(mol *molecule.Molecule, pi *huckel.PiSystem, c int) bool {
 	return reactive(mol, pi, c) && !spCentre(pi.Centres[c])
 }
@@ -354,6 +363,9 @@ func piUnits(mol *molecule.Molecule, pi *huckel.PiSystem) []Unit {
 		ci, cj := pi.Centres[b.I], pi.Centres[b.J]
 		if (spCentre(ci) || spCentre(cj)) && !(ci.Type == huckel.CSp && cj.Type == huckel.CSp) {
 			continue // only C≡C among sp units
+		}
+		if nitroCentre(ci) || nitroCentre(cj) {
+			continue // a nitro N=O is no dienophile (nitroso N=O, type N=, is)
 		}
 		x, y := ci.Atom, cj.Atom
 		if !terminusElement(mol.Atoms[x].Element) || !terminusElement(mol.Atoms[y].Element) {
