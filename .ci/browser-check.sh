@@ -34,6 +34,12 @@ else
 fi
 "$bin" draw --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --svg "$out/pair.svg" 2>/dev/null
 "$bin" draw c1ccccc1 --orbital homo --svg "$out/benzene-homo.svg" 2>/dev/null
+files="$report $out/pair.svg $out/benzene-homo.svg"
+if "$bin" pair --diene 'COC=CC=C' --dienophile 'C=CC(=O)OC' --activate none,lewis --format html >"$out/pair.html" 2>"$out/pair.stderr"; then
+	files="$files $out/pair.html"
+else
+	echo "browser-check: pair --format html unavailable ($(head -n1 "$out/pair.stderr"))"
+fi
 
 shot() { # shot FILE PNG WIDTH HEIGHT: screenshot, console lines to PNG.console
 	local profile
@@ -65,5 +71,6 @@ if [ "$size" -lt 30000 ]; then
 	exit 1
 fi
 
-CYCLOPAIR_SCREENSHOT="$out/report-test.png" go test -count=1 -tags browser -run Browser ./cmd/cyclopair/internal/htmlreport
+CYCLOPAIR_BROWSER_FILES="$files" CYCLOPAIR_SCREENSHOT="$out/report-test.png" \
+	go test -count=1 -tags browser -run Browser -v ./cmd/cyclopair/internal/htmlreport | grep -E '^(---|ok|FAIL|PASS)|non-white' 
 echo "browser-check: passed; report, SVGs and screenshots in $out"

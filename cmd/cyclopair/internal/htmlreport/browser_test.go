@@ -9,8 +9,11 @@ package htmlreport
 import (
 	"bytes"
 	"context"
+	"encoding/xml"
+	"errors"
 	"image"
 	"image/png"
+	"io"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -131,5 +134,65 @@ func TestBrowserControl(t *testing.T) {
 	}
 	if frac := inkFraction(img); frac > 0.001 {
 		t.Errorf("blank control page has %.2f %% ink: the blank check is blind", 100*frac)
+	}
+}
+
+// TestBrowserFiles renders the pages and pictures .ci/browser-check.sh built with the real
+// commands (space-separated paths in $CYCLOPAIR_BROWSER_FILES): each must be well-formed XML,
+// load without console messages and not be blank.
+func TestBrowserFiles(t *testing.T) {
+	files := strings.Fields(os.Getenv("CYCLOPAIR_BROWSER_FILES"))
+	if len(files) == 0 {
+		t.Skip("CYCLOPAIR_BROWSER_FILES not set (.ci/browser-check.sh sets it)")
+	}
+	for _, file := range files {
+		doc, err := os.ReadFile(file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d := xml.NewDecoder(bytes.NewReader(doc))
+		d.Strict = true
+		w, h := 1280, 1600
+		first := true
+		for {
+			tok, err := d.Token()
+			if errors.Is(err, io.EOF) {
+				break
+			}
+			if err != nil {
+				t.Fatalf("%s is not well-formed: %v", file, err)
+			}
+			// a standalone SVG is shot at its own size, so the ink share is the picture's
+			if se, ok := tok.(xml.StartElement); ok && first {
+				first = false
+				if se.Name.Local == "svg" {
+					for _, a := range se.Attr {
+						v, err := strconv.ParseFloat(a.Value, 64)
+						if err != nil {
+							continue
+						}
+						switch a.Name.Local {
+						case "width":
+							w = int(v + 0.5)
+						case "height":
+							h = int(v + 0.5)
+						}
+					}
+				}
+			}
+		}
+		abs, err := filepath.Abs(file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		img, console := shoot(t, abs, w, h)
+		if len(console) > 0 {
+			t.Errorf("%s: console messages:\n%s", file, strings.Join(console, "\n"))
+		}
+		if frac := inkFraction(img); frac < 0.01 {
+			t.Errorf("%s renders (nearly) blank: %.2f %% non-white pixels", file, 100*frac)
+		} else {
+			t.Logf("%s: %.1f %% non-white pixels", file, 100*frac)
+		}
 	}
 }
