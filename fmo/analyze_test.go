@@ -589,3 +589,66 @@ func TestChargeTerm(t *testing.T) {
 		t.Errorf("charge term on: quick %.12f, analyze %.12f", q.Best, b.Score)
 	}
 }
+
+func TestDegenerateFrontierSets(t *testing.T) {
+	// Benzene's HOMO and LUMO are doubly degenerate (x = ±1). Summed over each set, the
+	// para-terminus projector elements are P_aa = P_dd = 1/3, P_ad = −1/3 (HOMO set) and +1/3
+	// (LUMO set), independent of the basis chosen in the set; with ethylene's π, π* the two
+	// pairings give S = 2γ²/3 each at gap 2, so the frontier term is 4γ²/3 (closed form from
+	// the Hückel benzene orbitals, Streitwieser 1961, ch. 2).
+	const tol = 1e-12 // |β|
+	p, d, _ := mustAnalyze(t, "c1ccccc1", "C=C")
+	g := DefaultFormingBeta
+	if got, want := p.Orientations[0].FrontierTerm, 4*g*g/3; math.Abs(got-want) > tol {
+		t.Errorf("benzene + ethylene frontier term %.15f; want 4γ²/3 = %.15f", got, want)
+	}
+	if !p.DieneHOMO.Degenerate || !p.DieneLUMO.Degenerate {
+		t.Errorf("benzene frontier levels not reported degenerate: %+v %+v", p.DieneHOMO, p.DieneLUMO)
+	}
+	// The three para units are equivalent: equal scores to rounding.
+	if len(d.Units) != 3 {
+		t.Fatalf("benzene: %d diene units; want 3 (the para pairs)", len(d.Units))
+	}
+	for _, o := range p.Orientations[1:] {
+		if math.Abs(o.Score-p.Orientations[0].Score) > tolSym {
+			t.Errorf("benzene orientation %s score %.15f differs from %.15f", o.Site, o.Score, p.Orientations[0].Score)
+		}
+	}
+}
+
+func TestLocalizationEnergies(t *testing.T) {
+	// Para-localisation energies: L = E_π(parent) − E_π(residue), in |β|. Closed forms:
+	// ethylene 2, butadiene 2√5 − 2, benzene 8 − 4 = 4; anthracene 9,10: 19.3137 − 16 =
+	// 3.3137 (R. D. Brown, J. Chem. Soc. 1950, 691 and 3249: para-localisation energies,
+	// anthracene 9,10 the lowest; E_π of anthracene from Coulson & Streitwieser's tables;
+	// both from memory).
+	const tol = 1e-4 // |β|: the anthracene value is quoted to four decimals
+	o := testOptions(t)
+	cases := []struct {
+		smi     string
+		role    Role
+		termini [2]int
+		want    float64
+	}{
+		{"C=C", RoleDienophile, [2]int{0, 1}, 2},
+		{"C=CC=C", RoleDiene, [2]int{0, 3}, 2*math.Sqrt(5) - 2},
+		{"c1ccccc1", RoleDiene, [2]int{0, 3}, 4},
+		{"c1ccc2cc3ccccc3cc2c1", RoleDiene, [2]int{4, 11}, 3.3137},
+	}
+	for _, c := range cases {
+		p := mustPartner(t, c.smi, c.role, o)
+		found := false
+		for i, u := range p.Units {
+			a, d := u.Termini()
+			if a == c.termini[0] && d == c.termini[1] {
+				found = true
+				if got := p.data[i].loc; math.Abs(got-c.want) > tol {
+					t.Errorf("%s at %v: localisation %.5f; want %.5f", c.smi, c.termini, got, c.want)
+				}
+			}
+		}
+		if !found {
+			t.Errorf("%s: no unit with termini %v", c.smi, c.termini)
+		}
+	}
+}
