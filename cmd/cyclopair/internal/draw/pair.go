@@ -93,6 +93,7 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 		x1, y1 := top.px(b[0])
 		x2, y2 := bot.px(b[1])
 		x1, y1, x2, y2 = trimSeg(x1, y1, x2, y2, 4)
+		cv.line(x1, y1, x2, y2, `stroke="#ffffff" stroke-width="4.5" stroke-linecap="butt"`) // halo over lobes
 		cv.line(x1, y1, x2, y2, `stroke="`+ink+`" stroke-width="2" stroke-dasharray="7 4" stroke-linecap="butt"`)
 	}
 	// endo secondary contact, dotted, with its label
@@ -108,8 +109,9 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 			cx = mx + 0.6*scale
 		}
 		cv.extend(cx, my, 2)
-		cv.raw(`<path d="M ` + num(x1) + ` ` + num(y1) + ` Q ` + num(cx) + ` ` + num(my) + ` ` + num(x2) + ` ` + num(y2) +
-			`" fill="none" stroke="` + ink + `" stroke-width="1.6" stroke-dasharray="1.5 3.5" stroke-linecap="round"/>` + "\n")
+		pathD := `M ` + num(x1) + ` ` + num(y1) + ` Q ` + num(cx) + ` ` + num(my) + ` ` + num(x2) + ` ` + num(y2)
+		cv.raw(`<path d="` + pathD + `" fill="none" stroke="#ffffff" stroke-width="4" stroke-linecap="round"/>` + "\n")
+		cv.raw(`<path d="` + pathD + `" fill="none" stroke="` + ink + `" stroke-width="1.8" stroke-dasharray="1.5 3.5" stroke-linecap="round"/>` + "\n")
 		endoLabel = fmt.Sprintf("Dotted: endo secondary contact %s%d···%s%d, secondary-orbital term %s |β|.",
 			diene.Active.Atoms[secDiene].Element, secDiene+1, dienophile.Active.Atoms[sec].Element, sec+1, fixed(or.EndoOverlap, 3))
 	}
