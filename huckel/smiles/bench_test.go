@@ -63,3 +63,20 @@ func BenchmarkCanonical(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkCanonicalSymmetric: molecules whose ties need the search (benzene: 12
+// leaves; tri-tert-butylbenzene; cubane: 48).
+func BenchmarkCanonicalSymmetric(b *testing.B) {
+	for _, s := range []string{"c1ccccc1", "CC(C)(C)c1cc(C(C)(C)C)cc(C(C)(C)C)c1", "C12C3C4C1C5C2C3C45"} {
+		m, err := Parse(s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(s, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				Canonical(m)
+			}
+		})
+	}
+}

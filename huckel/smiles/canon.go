@@ -19,12 +19,12 @@ const bondAlt = 4
 // 107–113, 1965; here in the iterated partition-refinement form): the initial class of an
 // atom is (atomic number, isotope, charge, hydrogens, degree, atom map, smallest ring
 // through it), and classes are split by the sorted multiset of (neighbour class, bond
-// type, smallest ring through the bond) until stable. The ring sizes are there because
-// refinement alone cannot tell, for example, a phenyl ipso carbon from a ring-fusion carbon
-// of a larger ring with the same neighbours (a case the fuzzer found). When atoms
-// are still tied, the tied class with the lowest rank is split by promoting its
-// lowest-index atom, and refinement resumes, until every atom has its own rank. The
-// molecule is then written with Write in rank order.
+// type, smallest ring through the bond) until stable. Where atoms are still tied, the
+// first tied class is split by individualising each of its atoms in turn and refining
+// again, recursively, and every leaf of that search tree (a complete ranking) is written
+// with Write in rank order; the smallest string wins (the individualisation-refinement
+// scheme of canonical labelling programs, with the simplest automorphism pruning). The
+// set of leaves depends only on the graph, so the result is canonical.
 //
 // Kekulé structures. Two Kekulé structures of the same ring system (benzene written
 // C1=CC=CC=C1 from different starting atoms, or naphthalene's three forms) are different
@@ -32,30 +32,107 @@ const bondAlt = 4
 // exactly one double bond, lying in a ring, no triple bond, whose double-bond partner is
 // such an atom too, joined by their ring bonds of order 1 or 2. Every Kekulé structure of
 // the molecule is a perfect matching of that same graph, so its bonds get one common type
-// for ranking, and after ranking the double bonds are placed again by a perfect matching
+// for ranking, and for each leaf the double bonds are placed again by a perfect matching
 // computed in rank order (greedy then Edmonds augmentation, both deterministic). Charge
 // -separated resonance forms (a nitro group written N(=O)=O versus [N+](=O)[O-]) are
 // different graphs and stay different.
 //
-// Limitations. Ties are broken by input index after refinement has converged; when the
-// tied atoms are symmetry-equivalent (the usual case) every choice gives the same string,
-// but colour refinement cannot separate every pair of non-equivalent atoms (some highly
-// regular polycyclic graphs), and there two atom orders of one molecule could give two
-// strings. The error is one-sided: the result is always a faithful SMILES of m (Parse
-// reads it back to m's graph), so two different molecules never share a string; a
-// deduplication can at worst keep a duplicate. Cost grows roughly as n² log n for n atoms
-// in the worst (highly symmetric) case: tens of microseconds for cycloadduct-sized
-// molecules, seconds for symmetric molecules of thousands of atoms. Stereo marks, chirality and the Aromatic flags are ignored; atom maps count (clear
-// Atom.Map first to compare structures without them).
+// Limitations. Even with the pruning the search grows with the symmetry of the molecule.
+// Beyond 256 leaves Canonical stops searching and breaks each remaining tie by promoting
+// the lowest-index atom of the first tied class. That is still canonical when the tied
+// atoms are symmetry-equivalent, which is the usual reason for a tie, but where
+// refinement cannot separate non-equivalent atoms of such a highly symmetric molecule,
+// two atom orders could give two strings. The error is one-sided: the result is always a
+// faithful SMILES of m (Parse reads it back to m's graph), so two different molecules
+// never share a string; a deduplication can at worst keep a duplicate. Stereo marks,
+// chirality and the Aromatic flags are ignored; atom maps count (clear Atom.Map first to
+// compare structures without them).
 func Canonical(m *molecule.Molecule) string {
-	n := len(m.Atoms)
-	if n == 0 {
+	if len(m.Atoms) == 0 {
 		return ""
 	}
-	btype, inAlt := alternation(m)
-	rank := canonicalRanks(m, btype, smallestRings(m))
+	s, _ := canonical(m, smallestRings(m))
+	return s
+}
 
-	// Build the molecule in rank order.
+// canonical is Canonical with the ring-size invariants given (tests pass zeros to check
+// the search on its own); exact is false when the search gave up.
+func canonical(m *molecule.Molecule, ringSizes []int) (s string, exact bool) {
+	btype, inAlt := alternation(m)
+	r := newRanker(m, btype, ringSizes)
+	rank := r.initial()
+	r.refine(rank)
+	if r.classes(rank) == len(rank) {
+		return writeRanked(m, btype, inAlt, rank), true
+	}
+	// Depth-first search over individualisations. A leaf whose string equals an earlier
+	// leaf's reveals an automorphism mapping the earlier path onto this one, so the
+	// subtree below their deepest common node is a copy of one already searched and is
+	// skipped (the automorphism pruning of B. D. McKay, "Practical graph isomorphism",
+	// Congressus Numerantium 30, 45–87, 1981, in its simplest form).
+	best, leaves := "", 0
+	seen := map[string][]int{} // leaf string → path that produced it
+	var path []int
+	const abort = -2
+	// search returns -1 to go on, abort to give up, or the depth of the node whose next
+	// child the search should continue with.
+	var search func(rank []int) int
+	search = func(rank []int) int {
+		cell := r.firstTiedCell(rank)
+		if cell == nil {
+			leaves++
+			s := writeRanked(m, btype, inAlt, rank)
+			if p, ok := seen[s]; ok {
+				d := 0
+				for d < len(p) && d < len(path) && p[d] == path[d] {
+					d++
+				}
+				return d
+			}
+			seen[s] = slices.Clone(path)
+			if best == "" || s < best {
+				best = s
+			}
+			if leaves > maxCanonicalLeaves {
+				return abort
+			}
+			return -1
+		}
+		depth := len(path)
+		for k, c := range cell {
+			next := slices.Clone(rank)
+			r.individualise(next, c)
+			r.refine(next)
+			path = append(path, k)
+			res := search(next)
+			path = path[:depth]
+			if res == abort || (res >= 0 && res < depth) {
+				return res
+			}
+		}
+		return -1
+	}
+	if search(rank) != abort {
+		return best, true
+	}
+	// too symmetric to search: promote the lowest-index atom of each first tied class
+	for {
+		cell := r.firstTiedCell(rank)
+		if cell == nil {
+			return writeRanked(m, btype, inAlt, rank), false
+		}
+		r.individualise(rank, cell[0])
+		r.refine(rank)
+	}
+}
+
+// maxCanonicalLeaves bounds the search of Canonical (see its Limitations).
+const maxCanonicalLeaves = 256
+
+// writeRanked writes m with atoms renumbered by rank (a permutation), re-kekulising the
+// alternation graph in rank order.
+func writeRanked(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
+	n := len(m.Atoms)
 	c := &molecule.Molecule{Atoms: make([]molecule.Atom, n), Bonds: make([]molecule.Bond, 0, len(m.Bonds))}
 	for i, a := range m.Atoms {
 		c.Atoms[rank[i]] = molecule.Atom{Element: a.Element, Isotope: a.Isotope, Charge: a.Charge, HCount: a.HCount, Map: a.Map, Pos: -1}
@@ -188,108 +265,153 @@ func smallestRings(m *molecule.Molecule) []int {
 	return size
 }
 
-// canonicalRanks returns a permutation rank[atom] in 0..n-1 (see Canonical).
-func canonicalRanks(m *molecule.Molecule, btype []int8, ring []int) []int {
+// ranker holds the invariants and work space of the refinement.
+type ranker struct {
+	m       *molecule.Molecule
+	keys    [][7]int
+	code    []int // per bond: type + 8·smallest ring size
+	sig     [][]int
+	order   []int
+	newRank []int
+	count   []int
+}
+
+func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
 	n := len(m.Atoms)
-	type key [7]int
-	keys := make([]key, n)
+	r := &ranker{m: m, keys: make([][7]int, n), code: make([]int, len(m.Bonds))}
+	for bi := range m.Bonds {
+		r.code[bi] = int(btype[bi]) + 8*min(ring[bi], 255)
+	}
 	for i, a := range m.Atoms {
 		small := 0 // smallest ring through the atom
 		for _, e := range m.Neighbors(i) {
-			if r := ring[e.Bond]; r > 0 && (small == 0 || r < small) {
-				small = r
+			if s := ring[e.Bond]; s > 0 && (small == 0 || s < small) {
+				small = s
 			}
 		}
-		keys[i] = key{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map, small}
+		r.keys[i] = [7]int{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map, small}
 	}
-	// bond code: type and smallest ring size (capped; 0 outside rings)
-	code := func(bi int) int { return int(btype[bi]) + 8*min(ring[bi], 255) }
+	ints := make([]int, 3*n)
+	r.order, r.newRank, r.count = ints[:n], ints[n:2*n], ints[2*n:]
+	sigBuf := make([]int, n+2*len(m.Bonds))
+	r.sig = make([][]int, n)
+	off := 0
+	for i := range r.sig {
+		d := 1 + m.Degree(i)
+		r.sig[i] = sigBuf[off : off : off+d]
+		off += d
+	}
+	return r
+}
+
+// initial ranks atoms by their invariants (dense ranks from 0).
+func (r *ranker) initial() []int {
+	m := r.m
 	cmpAtoms := func(x, y int) int {
-		if c := slices.Compare(keys[x][:], keys[y][:]); c != 0 {
+		if c := slices.Compare(r.keys[x][:], r.keys[y][:]); c != 0 {
 			return c
 		}
 		return cmp.Compare(m.Atoms[x].Element, m.Atoms[y].Element)
 	}
-	ints := make([]int, 3*n)
-	rank, order, newRank := ints[:n], ints[n:2*n], ints[2*n:]
-	for i := range order {
-		order[i] = i
+	for i := range r.order {
+		r.order[i] = i
 	}
-	slices.SortStableFunc(order, cmpAtoms)
-	classes := 0
-	for k, i := range order {
-		if k > 0 && cmpAtoms(order[k-1], i) != 0 {
-			classes++
-		}
-		rank[i] = classes
-	}
-	classes++
-
-	// signature of atom i: its rank, then the sorted (neighbour rank, bond type) codes
-	sigBuf := make([]int, n+2*len(m.Bonds))
-	sig := make([][]int, n)
-	off := 0
-	for i := range sig {
-		d := 1 + m.Degree(i)
-		sig[i] = sigBuf[off : off : off+d]
-		off += d
-	}
-	refine := func() {
-		for {
-			for i := range m.Atoms {
-				s := append(sig[i][:0], rank[i])
-				for _, e := range m.Neighbors(i) {
-					s = append(s, rank[e.To]*2048+code(e.Bond))
-				}
-				slices.Sort(s[1:])
-				sig[i] = s
-			}
-			slices.SortStableFunc(order, func(x, y int) int { return slices.Compare(sig[x], sig[y]) })
-			next := 0
-			for k, i := range order {
-				if k > 0 && slices.Compare(sig[order[k-1]], sig[i]) != 0 {
-					next++
-				}
-				newRank[i] = next
-			}
+	slices.SortFunc(r.order, cmpAtoms)
+	rank := make([]int, len(m.Atoms))
+	next := 0
+	for k, i := range r.order {
+		if k > 0 && cmpAtoms(r.order[k-1], i) != 0 {
 			next++
-			copy(rank, newRank)
-			if next == classes {
-				return
-			}
-			classes = next
 		}
-	}
-	refine()
-	for classes < n {
-		// order is sorted by rank: find the lowest tied class and promote its lowest index
-		best := -1
-		for k := 1; k < n && best < 0; k++ {
-			r := rank[order[k]]
-			if r != rank[order[k-1]] {
-				continue
-			}
-			for j := k - 1; j < n && rank[order[j]] == r; j++ {
-				if best < 0 || order[j] < best {
-					best = order[j]
-				}
-			}
-		}
-		for i := range rank {
-			rank[i] *= 2
-		}
-		rank[best]--
-		slices.SortStableFunc(order, func(x, y int) int { return rank[x] - rank[y] })
-		next := 0
-		for k, i := range order {
-			if k > 0 && rank[order[k-1]] != rank[i] {
-				next++
-			}
-			newRank[i] = next
-		}
-		copy(rank, newRank)
-		classes = next + 1
-		refine()
+		rank[i] = next
 	}
 	return rank
+}
+
+func (r *ranker) classes(rank []int) int {
+	clear(r.count)
+	k := 0
+	for _, x := range rank {
+		if r.count[x] == 0 {
+			k++
+		}
+		r.count[x]++
+	}
+	return k
+}
+
+// refine splits rank classes by neighbour classes until stable; ranks stay dense and keep
+// their relative order (a refinement never reorders existing classes).
+func (r *ranker) refine(rank []int) {
+	m := r.m
+	classes := r.classes(rank)
+	for {
+		for i := range m.Atoms {
+			s := append(r.sig[i][:0], rank[i])
+			for _, e := range m.Neighbors(i) {
+				s = append(s, rank[e.To]*2048+r.code[e.Bond])
+			}
+			slices.Sort(s[1:])
+			r.sig[i] = s
+		}
+		for i := range r.order {
+			r.order[i] = i
+		}
+		slices.SortFunc(r.order, func(x, y int) int { return slices.Compare(r.sig[x], r.sig[y]) })
+		next := 0
+		for k, i := range r.order {
+			if k > 0 && slices.Compare(r.sig[r.order[k-1]], r.sig[i]) != 0 {
+				next++
+			}
+			r.newRank[i] = next
+		}
+		next++
+		copy(rank, r.newRank)
+		if next == classes {
+			return
+		}
+		classes = next
+	}
+}
+
+// firstTiedCell returns, in index order, the atoms of the lowest-ranked class with more
+// than one atom, or nil when every atom has its own rank.
+func (r *ranker) firstTiedCell(rank []int) []int {
+	clear(r.count)
+	for _, x := range rank {
+		r.count[x]++
+	}
+	for x, c := range r.count {
+		if c > 1 {
+			var cell []int
+			for i, y := range rank {
+				if y == x {
+					cell = append(cell, i)
+				}
+			}
+			return cell
+		}
+	}
+	return nil
+}
+
+// individualise gives atom c a rank of its own just below the rest of its class.
+func (r *ranker) individualise(rank []int, c int) {
+	for i := range rank {
+		rank[i] *= 2
+	}
+	rank[c]--
+	// densify, keeping the order
+	for i := range r.order {
+		r.order[i] = i
+	}
+	slices.SortFunc(r.order, func(x, y int) int { return rank[x] - rank[y] })
+	next := 0
+	for k, i := range r.order {
+		if k > 0 && rank[r.order[k-1]] != rank[i] {
+			next++
+		}
+		r.newRank[i] = next
+	}
+	copy(rank, r.newRank)
 }

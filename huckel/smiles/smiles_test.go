@@ -367,6 +367,38 @@ func TestCanonicalKekule(t *testing.T) {
 	}
 }
 
+// TestCanonicalSearch checks that the individualisation search alone, without the
+// ring-size invariants, separates what colour refinement cannot: in the boron compound the
+// fuzzer found, the phenyl ipso carbon and the two ring carbons bonded to B look alike to
+// refinement. It also checks that no fixture molecule is too symmetric for the search.
+func TestCanonicalSearch(t *testing.T) {
+	m, err := Parse("c1ccc(B(c2ccccc2)2)cccccc2cc1")
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(5, 5))
+	noRings := make([]int, len(m.Bonds))
+	want, exact := canonical(m, noRings)
+	if !exact {
+		t.Fatal("search gave up")
+	}
+	for k := 0; k < 20; k++ {
+		p := permute(m, rng)
+		if got, _ := canonical(p, make([]int, len(p.Bonds))); got != want {
+			t.Fatalf("renumbering %d: %q, want %q", k, got, want)
+		}
+	}
+	for _, s := range readInputs(t) {
+		m, err := Parse(s)
+		if err != nil {
+			continue
+		}
+		if _, exact := canonical(m, smallestRings(m)); !exact {
+			t.Errorf("%s: Canonical search exceeded %d leaves", s, maxCanonicalLeaves)
+		}
+	}
+}
+
 func TestParseNeverPanicsOnPrefixes(t *testing.T) {
 	// every prefix of every corpus input gives a molecule or a positioned error
 	for _, s := range readInputs(t) {
