@@ -4,9 +4,13 @@ import (
 	"bytes"
 	"encoding/xml"
 	"errors"
+	"flag"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -215,6 +219,64 @@ func TestPairClearance(t *testing.T) {
 		}
 		if md := minDist(g.top.pos, g.bot.pos); md < clearance-1e-9 {
 			t.Errorf("%s + %s: partners %.2f bond lengths apart, want at least %.2f", tc.diene, tc.dienophile, md, clearance)
+		}
+	}
+}
+
+var update = flag.Bool("update", false, "rewrite golden files")
+
+// TestOrbitalGolden pins the bytes of one picture (butadiene HOMO: all-carbon, so the
+// coefficients are the closed-form Hückel values 0.372/0.602 and do not move with parameter
+// sets; no calibration so no eV figure). Refresh with -update after a deliberate change, and
+// look at the picture first.
+func TestOrbitalGolden(t *testing.T) {
+	o := solve(t, "C=CC=C")
+	a, err := Orbital(o, o.HOMO, OrbitalOptions{Name: "butadiene", SMILES: "C=CC=C", Which: "HOMO", Params: "test", IDPrefix: "g"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := Orbital(solve(t, "C=CC=C"), o.HOMO, OrbitalOptions{Name: "butadiene", SMILES: "C=CC=C", Which: "HOMO", Params: "test", IDPrefix: "g"})
+	if !bytes.Equal(a, b) {
+		t.Fatal("same picture twice gives different bytes")
+	}
+	golden := filepath.Join("testdata", "butadiene-homo.svg")
+	if *update {
+		if err := os.WriteFile(golden, a, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Fatalf("%v (run go test -update once)", err)
+	}
+	if !bytes.Equal(want, a) {
+		t.Errorf("picture changed; got\n%s", a)
+	}
+}
+
+// TestLobeAreaIsDensity: circle radius ∝ |c| (so area ∝ c²). Butadiene HOMO coefficients in
+// closed form are 0.6015 on C1/C4 and 0.3717 on C2/C3 (2/√5·sin(2πk/5)… any textbook, e.g.
+// Streitwieser 1961, ch. 2).
+func TestLobeAreaIsDensity(t *testing.T) {
+	o := solve(t, "C=CC=C")
+	svg, err := Orbital(o, o.HOMO, OrbitalOptions{SMILES: "C=CC=C", Which: "HOMO"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	re := regexp.MustCompile(`<circle cx="[^"]+" cy="[^"]+" r="([0-9.]+)"`)
+	var radii []float64
+	for _, m := range re.FindAllStringSubmatch(string(svg), -1) {
+		r, _ := strconv.ParseFloat(m[1], 64)
+		radii = append(radii, r)
+	}
+	if len(radii) < 4 {
+		t.Fatalf("%d circles", len(radii))
+	}
+	want := []float64{0.6015, 0.3717, 0.3717, 0.6015}
+	const tol = 0.01 // px: coordinates are written with two decimals
+	for i, c := range want {
+		if r := lobeRadius * c * scale; math.Abs(radii[i]-r) > tol {
+			t.Errorf("lobe %d radius %.2f px, want %.2f (|c| = %.4f)", i, radii[i], r, c)
 		}
 	}
 }
