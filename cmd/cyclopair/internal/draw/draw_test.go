@@ -255,7 +255,8 @@ func TestOrbitalGolden(t *testing.T) {
 }
 
 // TestLobeAreaIsDensity: circle radius ∝ |c| (so area ∝ c²). Butadiene HOMO coefficients in
-// closed form are 0.6015 on C1/C4 and 0.3717 on C2/C3 (2/√5·sin(2πk/5)… any textbook, e.g.
+// closed form are c_r = √(2/5)·sin(2πr/5): 0.6015 on C1/C4, 0.3717 on C2/C3 (linear polyene
+// formula; Coulson 1938, any textbook, e.g.
 // Streitwieser 1961, ch. 2).
 func TestLobeAreaIsDensity(t *testing.T) {
 	o := solve(t, "C=CC=C")
