@@ -101,3 +101,46 @@ func TestCalibrateUsage(t *testing.T) {
 		t.Errorf("stdin syntax error: exit %d, stderr %q", code, errOut)
 	}
 }
+
+// TestPairActivationFlags: 'pair --calibration FILE' reports eV through the loaded
+// calibration, and --lewis-h sets the Lewis-acid strength (a larger h(O=LA) lowers the
+// acrolein LUMO further: K. N. Houk, R. W. Strozier, J. Am. Chem. Soc. 1973, 95, 4094).
+func TestPairActivationFlags(t *testing.T) {
+	dir := t.TempDir()
+	cal := filepath.Join(dir, "c.yaml")
+	runCLI(t, "", "calibrate", filepath.Join("testdata", "calibrate", "data.yaml"), "--out", cal, "--name", "polyene-fit")
+	lumo := func(args ...string) (float64, string) {
+		t.Helper()
+		out, errOut, code := runCLI(t, "", append([]string{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--format", "json"}, args...)...)
+		if code != exitOK {
+			t.Fatalf("%v: exit %d: %s", args, code, errOut)
+		}
+		var p struct {
+			Calibration string `json:"calibration"`
+			Effect      *struct {
+				Lowering struct {
+					Beta float64 `json:"beta"`
+				} `json:"lumo_lowering"`
+			} `json:"activation_effect"`
+		}
+		if err := json.Unmarshal([]byte(out), &p); err != nil {
+			t.Fatal(err)
+		}
+		if p.Effect == nil {
+			return 0, p.Calibration
+		}
+		return p.Effect.Lowering.Beta, p.Calibration
+	}
+	if _, name := lumo("--calibration", cal); name != "polyene-fit" {
+		t.Errorf("calibration %q, want polyene-fit", name)
+	}
+	def, _ := lumo("--activate", "lewis")
+	strong, _ := lumo("--activate", "lewis", "--lewis-h", "3")
+	if !(def > 0 && strong > def) {
+		t.Errorf("LUMO lowering default %.4f, h 3.0 %.4f: want 0 < default < strong", def, strong)
+	}
+	_, errOut, code := runCLI(t, "", "pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--lewis-h", "2")
+	if code != exitUsage || !strings.Contains(errOut, "--lewis-h 2: needs --activate lewis") {
+		t.Errorf("--lewis-h without lewis: exit %d, %q", code, errOut)
+	}
+}

@@ -22,7 +22,9 @@ type pairOptions struct {
 	params            string
 	format            string
 	chargeTerm        bool
-	svg               string // --svg FILE: also write the energy-level diagram (diagram.go)
+	svg               string  // --svg FILE: also write the energy-level diagram (diagram.go)
+	lewisH            float64 // --lewis-h: h(O=LA) for --activate lewis (0 = the parameter set's)
+	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
 }
 
 func newPairCmd(s *streams) *cobra.Command {
@@ -78,6 +80,9 @@ and local rules before any lab work.`,
 			if opts.amine != "" && !slices.Contains(opts.activate, fmo.ActivateIminium) {
 				return &usageError{errors.New("--amine is only used with --activate iminium")}
 			}
+			if c.Flags().Changed("lewis-h") && (!slices.Contains(opts.activate, fmo.ActivateLewis) || !(opts.lewisH > 0 && opts.lewisH <= 5)) {
+				return &usageError{fmt.Errorf("--lewis-h %g: needs --activate lewis and a value in (0, 5] (h of the Lewis-acid-bound carbonyl O; free C=O 1.0, protonated 2.5)", opts.lewisH)}
+			}
 			return runPair(s, opts)
 		},
 	}
@@ -86,6 +91,8 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.dienophile, "dienophile", "", "SMILES of the 2π partner")
 	f.StringSliceVar(&opts.activate, "activate", []string{fmo.ActivateNone}, "dienophile activation(s), comma-separated: "+strings.Join(fmo.Modes(), ", "))
 	f.StringVar(&opts.amine, "amine", "", "secondary amine SMILES for --activate iminium (default pyrrolidine, "+fmo.DefaultAmineSMILES+")")
+	f.Float64Var(&opts.lewisH, "lewis-h", 0, "Lewis-acid strength for --activate lewis: h of the bound carbonyl O (default: the parameter set's O=LA value)")
+	f.StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
 	f.StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines, one object per activation) or html (one self-contained page with pictures)")
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
@@ -99,9 +106,9 @@ func runPair(s *streams, opts *pairOptions) error {
 	if err != nil {
 		return err
 	}
-	cal, err := presets.Calibration(p)
+	cal, err := resolveCalibration(s, opts.calibration, p)
 	if err != nil {
-		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+		return err
 	}
 	fo := fmo.NewOptions(p, cal, cal.Name)
 	fo.ChargeTerm = opts.chargeTerm
@@ -120,6 +127,12 @@ func runPair(s *streams, opts *pairOptions) error {
 			return smilesErr(opts.amine, err)
 		}
 		act = &fmo.ActivateOptions{Amine: am}
+	}
+	if opts.lewisH != 0 {
+		if act == nil {
+			act = &fmo.ActivateOptions{}
+		}
+		act.LewisStrength = opts.lewisH
 	}
 	variants := fmo.AnalyzeVariants(diene, dienophile, opts.activate, act, fo)
 	if opts.svg != "" {
