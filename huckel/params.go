@@ -30,6 +30,10 @@ type Params struct {
 	// Omega is the ω-technique constant (0 = off), e.g. 1.4 (Wheland & Mann 1949;
 	// Streitwieser 1961, ch. 4).
 	Omega float64
+	// Auxiliary is the auxiliary inductive parameter δ (0 = off): every carbon centre
+	// π-bonded to a heteroatom centre X gets h_C += δ·h_X (Streitwieser 1961 recommends
+	// δ = 0.1). Alkyl pseudo-atoms do not induce (their h models hyperconjugation).
+	Auxiliary float64
 
 	// HEntries and KEntries are the tables as written in the file.
 	HEntries []HEntry
@@ -51,7 +55,7 @@ type Params struct {
 	// of the base set (see Merge).
 	Replace bool
 
-	alkylSet, omegaSet bool // the file set these explicitly (for Merge)
+	alkylSet, omegaSet, auxSet bool // the file set these explicitly (for Merge)
 
 	compiled bool
 	h        [numTypes]float64
@@ -125,6 +129,7 @@ type fileParams struct {
 	Notes           string            `yaml:"notes"`
 	Alkyl           *bool             `yaml:"alkyl"`
 	Omega           *float64          `yaml:"omega"`
+	Auxiliary       *float64          `yaml:"auxiliary"`
 	Replace         bool              `yaml:"replace"`
 	Base            string            `yaml:"base"`
 	KLike           map[string]string `yaml:"k_like"`
@@ -141,6 +146,7 @@ type fileParams struct {
 //	source: Author, Work, Year
 //	alkyl: true          # hyperconjugative heteroatom model for sp3 C next to π centres
 //	omega: 0             # ω-technique constant, 0 = off
+//	auxiliary: 0         # auxiliary inductive parameter δ, 0 = off
 //	k_like: {"C+": C}    # types that borrow another type's k values
 //	k_fallback: geometric-mean
 //	h:
@@ -197,6 +203,12 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		if !finite(p.Omega) || p.Omega < 0 || p.Omega > 5 {
 			n := valueNode(top, "omega")
 			return nil, perr(filename, n, "omega must be between 0 and 5 (typical 1.4), got %g", p.Omega)
+		}
+	}
+	if fp.Auxiliary != nil {
+		p.Auxiliary, p.auxSet = *fp.Auxiliary, true
+		if !finite(p.Auxiliary) || p.Auxiliary < 0 || p.Auxiliary > 1 {
+			return nil, perr(filename, valueNode(top, "auxiliary"), "auxiliary must be between 0 and 1 (typical 0.1), got %g", p.Auxiliary)
 		}
 	}
 	if p.KFallback != "" && p.KFallback != KFallbackGeometricMean {
@@ -277,7 +289,7 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		seenK[key] = true
 		p.KEntries = append(p.KEntries, KEntry{A: a, B: b, Order: e.Order, K: *e.K, Source: e.Source, Line: lineOf(n)})
 	}
-	if !p.Replace && p.Name == "" && len(p.HEntries) == 0 && len(p.KEntries) == 0 && !p.alkylSet && !p.omegaSet {
+	if !p.Replace && p.Name == "" && len(p.HEntries) == 0 && len(p.KEntries) == 0 && !p.alkylSet && !p.omegaSet && !p.auxSet {
 		return nil, &ParamsError{File: filename, Msg: "no parameters found (expected keys h and k)"}
 	}
 	p.compile()
@@ -531,6 +543,9 @@ func (p *Params) Merge(over *Params) *Params {
 	if over.omegaSet || (!over.compiled && over.Omega != 0) {
 		c.Omega, c.omegaSet = over.Omega, true
 	}
+	if over.auxSet || (!over.compiled && over.Auxiliary != 0) {
+		c.Auxiliary, c.auxSet = over.Auxiliary, true
+	}
 	if over.KFallback != "" {
 		c.KFallback, c.KFallbackSource = over.KFallback, over.KFallbackSource
 	}
@@ -566,7 +581,7 @@ func (p *Params) clone() *Params {
 	c := &Params{
 		Name: p.Name, Title: p.Title, Source: p.Source, Notes: p.Notes,
 		Alkyl: p.Alkyl, Omega: p.Omega, Base: p.Base, Replace: p.Replace, KFallback: p.KFallback, KFallbackSource: p.KFallbackSource,
-		alkylSet: p.alkylSet, omegaSet: p.omegaSet,
+		Auxiliary: p.Auxiliary, alkylSet: p.alkylSet, omegaSet: p.omegaSet, auxSet: p.auxSet,
 	}
 	c.HEntries = slices.Clone(p.HEntries)
 	c.KEntries = slices.Clone(p.KEntries)

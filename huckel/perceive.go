@@ -83,6 +83,8 @@ type atomState struct {
 //     k comes from p.K(type, type, Kekulé order).
 //   - Atoms of elements without π types (P, Si, Se, metals …) and hypervalent or charged
 //     sulfur stay outside; their multiple bonds are dropped with a warning.
+//   - With p.Auxiliary = δ ≠ 0, a carbon centre bonded to heteroatom centres X gets
+//     h_C += δ·Σh_X (auxiliary inductive parameter; Streitwieser 1961 recommends 0.1).
 //   - Separate π systems get separate Fragment numbers, in order of their lowest atom.
 //
 // Errors are *PerceiveError wrapping ErrNoParameter or ErrUnsupported. Warnings (odd
@@ -390,6 +392,9 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		}
 		ps.Bonds = append(ps.Bonds, PiBond{I: ci, J: cj, K: k, Bond: bi})
 	}
+	if p.Auxiliary != 0 {
+		applyAuxiliary(ps, p.Auxiliary)
+	}
 	ps.recomputeFragments()
 	if e := ps.Electrons(); e%2 == 1 {
 		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
@@ -400,6 +405,26 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			"%d π centres: gonum has no subset or sparse eigensolver, so each solve is a dense O(n³) diagonalisation and may take seconds", nc))
 	}
 	return ps, nil
+}
+
+// applyAuxiliary adds δ·h_X to every carbon centre for each heteroatom centre X it is
+// π-bonded to (the auxiliary inductive parameter; alkyl pseudo-atoms excluded). The base
+// h values are read before any change, so the result does not depend on bond order.
+func applyAuxiliary(ps *PiSystem, delta float64) {
+	isC := func(t CentreType) bool { return t == CSp2 || t == CCation || t == CAnion || t == CSp }
+	add := make([]float64, len(ps.Centres))
+	for _, b := range ps.Bonds {
+		ci, cj := &ps.Centres[b.I], &ps.Centres[b.J]
+		switch {
+		case isC(ci.Type) && !isC(cj.Type) && cj.Type != Alkyl:
+			add[b.I] += delta * cj.H
+		case isC(cj.Type) && !isC(ci.Type) && ci.Type != Alkyl:
+			add[b.J] += delta * ci.H
+		}
+	}
+	for i := range ps.Centres {
+		ps.Centres[i].H += add[i]
+	}
 }
 
 func otherEnd(b molecule.Bond, i int) int {

@@ -418,3 +418,23 @@ func TestFrontierCoefficientFacts(t *testing.T) {
 			free.Levels[free.LUMO].X, bound.Levels[bound.LUMO].X, free.Coefficient(free.LUMO, 0), bound.Coefficient(bound.LUMO, 0))
 	}
 }
+
+// Auxiliary inductive parameter δ = 0.1: in pyridine only C2 and C6 (bonded to N,
+// h_N = 0.5) change, to h = 0.05 (Streitwieser 1961, ch. 5; from memory).
+func TestAuxiliaryInductive(t *testing.T) {
+	aux, err := presets.Params("streitwieser1961-aux")
+	if err != nil {
+		t.Fatal(err)
+	}
+	ps := perceive(t, "c1ccncc1", aux) // atoms 2 and 4 are bonded to N3
+	for i, want := range []float64{0, 0, 0.05, 0.5, 0.05, 0} {
+		if !scalar.EqualWithinAbs(ps.Centres[i].H, want, 1e-12) {
+			t.Errorf("centre %d (%s): h = %g, want %g", i, ps.Centres[i].Type, ps.Centres[i].H, want)
+		}
+	}
+	// Alkyl pseudo-atoms do not induce.
+	ps = perceive(t, "C=CC", aux)
+	if ps.Centres[1].H != 0 {
+		t.Errorf("propene C2 h = %g, want 0", ps.Centres[1].H)
+	}
+}

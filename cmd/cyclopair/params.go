@@ -131,6 +131,7 @@ type paramsDoc struct {
 	Notes           string            `yaml:"notes,omitempty" json:"notes,omitempty"`
 	Alkyl           bool              `yaml:"alkyl" json:"alkyl"`
 	Omega           float64           `yaml:"omega" json:"omega"`
+	Auxiliary       float64           `yaml:"auxiliary,omitempty" json:"auxiliary,omitempty"`
 	KLike           map[string]string `yaml:"k_like,omitempty" json:"k_like,omitempty"`
 	KFallback       string            `yaml:"k_fallback,omitempty" json:"k_fallback,omitempty"`
 	KFallbackSource string            `yaml:"k_fallback_source,omitempty" json:"k_fallback_source,omitempty"`
@@ -153,7 +154,7 @@ type paramsDocK struct {
 
 func docOf(p *huckel.Params) paramsDoc {
 	d := paramsDoc{Name: p.Name, Title: p.Title, Source: p.Source, Notes: strings.TrimSpace(p.Notes),
-		Alkyl: p.Alkyl, Omega: p.Omega, KFallback: p.KFallback, KFallbackSource: p.KFallbackSource}
+		Alkyl: p.Alkyl, Omega: p.Omega, Auxiliary: p.Auxiliary, KFallback: p.KFallback, KFallbackSource: p.KFallbackSource}
 	if len(p.KLike) > 0 {
 		d.KLike = map[string]string{}
 		for k, v := range p.KLike {
@@ -196,6 +197,9 @@ func showParams(w io.Writer, p *huckel.Params, format string) error {
 		omega = fmt.Sprintf("%g", p.Omega)
 	}
 	fmt.Fprintf(w, "alkyl hyperconjugation model: %s\nω-technique: %s\n", alkyl, omega)
+	if p.Auxiliary != 0 {
+		fmt.Fprintf(w, "auxiliary inductive parameter: h_C += %g·h_X for carbons bonded to heteroatom X\n", p.Auxiliary)
+	}
 	if len(p.KLike) > 0 {
 		var parts []string
 		for _, t := range huckel.AllCentreTypes {
