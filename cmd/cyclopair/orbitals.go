@@ -14,10 +14,11 @@ import (
 )
 
 type orbitalsOptions struct {
-	format   string  // table, json, csv
-	params   string  // built-in set name or YAML file
-	omega    float64 // ω-technique constant; used when omegaSet
-	omegaSet bool
+	format      string  // table, json, csv
+	params      string  // built-in set name or YAML file
+	omega       float64 // ω-technique constant; used when omegaSet
+	omegaSet    bool
+	calibration string // default, or a file from 'cyclopair calibrate --out'
 }
 
 func newOrbitalsCmd(s *streams) *cobra.Command {
@@ -63,6 +64,7 @@ Results are estimates for planning, not safety assessments.`,
 	cmd.Flags().StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
 	_ = cmd.RegisterFlagCompletionFunc("params", completeParams)
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
+	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
 	return cmd
 }
 
@@ -79,9 +81,9 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	cal, err := presets.Calibration(p)
+	cal, err := resolveCalibration(s, opts.calibration, p)
 	if err != nil {
-		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
+		return err
 	}
 	out := newOrbitalsWriter(s.out, opts.format, p, cal)
 	var solver huckel.Solver
