@@ -387,3 +387,26 @@ func mustParseExample(s string) *molecule.Molecule {
 	m.Source = s
 	return m
 }
+
+// TestActivationDieneCaution: an activated variant with an enol-ether diene carries the
+// acid-sensitivity caution; the free variant does not.
+func TestActivationDieneCaution(t *testing.T) {
+	opts := defaultOpts(t)
+	d, err := NewPartner("1-methoxybutadiene", "CO/C=C/C=C", RoleDiene, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, _ := NewPartner("acrolein", "C=CC=O", RoleDienophile, opts)
+	vs := AnalyzeVariants(d, e, []string{ActivateNone, ActivateLewis}, nil, opts)
+	has := func(p *Pair) bool {
+		for _, w := range p.Warnings {
+			if strings.Contains(w, "acid-sensitive donor group (enol ether)") {
+				return true
+			}
+		}
+		return false
+	}
+	if has(vs[0].Pair) || !has(vs[1].Pair) {
+		t.Errorf("caution on free %v, on lewis %v; want only on lewis: %q", has(vs[0].Pair), has(vs[1].Pair), vs[1].Pair.Warnings)
+	}
+}
