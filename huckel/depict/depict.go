@@ -12,6 +12,8 @@
 //   - Output is deterministic: the same molecule gives bit-identical coordinates on every run
 //     (no map iteration, no randomness); the result depends on atom and bond order only
 //     through documented tie-breaks (lowest index first).
+//   - An acyclic double bond with a '/' or '\' mark on a neighbour bond at each end is drawn
+//     cis or trans as marked (F/C=C\F cis); unmarked double bonds make no E/Z claim.
 //   - Implicit hydrogens (Atom.HCount) are not laid out; explicit hydrogen atoms in the graph
 //     are ordinary atoms here.
 //   - The y axis points up (chemist's convention); drawing code that writes SVG flips it.
@@ -151,10 +153,12 @@ func Layout(m *molecule.Molecule) (*Coords, error) {
 	l := &layouter{g: g, m: m, pos: c.Pos, placed: make([]bool, n), turn: make([]int8, n)}
 	l.rings = rings
 	l.buildSystems()
+	l.ez = l.ezRules()
 	comps := m.Components()
 	xOffset := 0.0
 	for ci, comp := range comps {
 		l.layoutComponent(comp)
+		l.applyEZ(comp)
 		l.relieve(comp)
 		normalizeOrientation(c.Pos, comp)
 		// place side by side, vertically centred on y = 0

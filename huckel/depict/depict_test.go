@@ -285,3 +285,41 @@ func BenchmarkLayout(b *testing.B) {
 		}
 	}
 }
+
+// TestDoubleBondGeometry: '/' and '\' marks fix cis/trans drawing (OpenSMILES specification,
+// "Stereochemistry: cis/trans"): F/C=C/F and C(\F)=C/F are trans, F/C=C\F and C(/F)=C/F cis.
+func TestDoubleBondGeometry(t *testing.T) {
+	for _, tc := range []struct {
+		smiles  string
+		c1, c2  int // the double bond
+		x, y    int // the marked substituents
+		wantCis bool
+	}{
+		{"F/C=C/F", 1, 2, 0, 3, false},
+		{"F/C=C\\F", 1, 2, 0, 3, true},
+		{"C(/F)=C/F", 0, 2, 1, 3, true},
+		{"C(\\F)=C/F", 0, 2, 1, 3, false},
+		{"COC(=O)/C=C\\C(=O)OC", 4, 5, 2, 6, true}, // dimethyl maleate
+		{"COC(=O)/C=C/C(=O)OC", 4, 5, 2, 6, false}, // dimethyl fumarate
+		{"C/C=C\\C=C", 1, 2, 0, 3, true},           // (Z)-piperylene
+		{"CCCC/C=C\\CCCCCCCC", 4, 5, 3, 6, true},   // a cis chain alkene
+	} {
+		m, err := smiles.Parse(tc.smiles)
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, err := depict.Layout(m)
+		if err != nil {
+			t.Fatal(err)
+		}
+		a, b := c.Pos[tc.c1], c.Pos[tc.c2]
+		side := func(p depict.Point) float64 { return (b.X-a.X)*(p.Y-a.Y) - (b.Y-a.Y)*(p.X-a.X) }
+		cis := side(c.Pos[tc.x])*side(c.Pos[tc.y]) > 0
+		if cis != tc.wantCis {
+			t.Errorf("%s drawn cis=%v, want cis=%v", tc.smiles, cis, tc.wantCis)
+		}
+		if ok, why := meets(m, c); !ok {
+			t.Errorf("%s: %s", tc.smiles, why)
+		}
+	}
+}

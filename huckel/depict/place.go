@@ -18,6 +18,8 @@ type layouter struct {
 
 	systems  []*ringSystem
 	systemOf []int // atom → ring system index, −1 for chain atoms
+
+	ez []ezRule // double-bond geometries fixed by '/' and '\' marks
 }
 
 // ringSystem is a set of rings connected through shared atoms, laid out as one rigid block.

@@ -117,7 +117,7 @@ func (l *layouter) relieve(comp []int) {
 					}
 					l.pos[a] = mv(l.pos[a])
 				}
-				if pen := base + cross(side); pen < bestPen-1e-9 {
+				if pen := base + cross(side); pen < bestPen-1e-9 && (len(l.ez) == 0 || l.ezOK()) {
 					bestPen = pen
 					bestPos = append(bestPos[:0], l.pos...)
 				}
