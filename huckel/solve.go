@@ -250,6 +250,11 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 				left -= 2 * d
 			} else if left > 0 {
 				occ = float64(left) / float64(d)
+				if d > 1 {
+					into.Warnings = append(into.Warnings, fmt.Sprintf(
+						"π fragment %d: degenerate set of %d levels at x = %.4f holds %d electrons: equal fractional occupancy %.3g each (open shell)",
+						f, d, into.Levels[lv+j].X, left, occ))
+				}
 				left = 0
 				into.Partial = true
 			}

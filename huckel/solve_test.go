@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 
 	"cyclopair/huckel"
@@ -390,6 +391,9 @@ func TestOpenShells(t *testing.T) {
 	if !o.Partial || o.Levels[1].Occupancy != 1 || o.Levels[2].Occupancy != 1 || o.Levels[1].Degenerate != 2 {
 		t.Errorf("cyclobutadiene: partial=%v occupancies %g %g degenerate %d",
 			o.Partial, o.Levels[1].Occupancy, o.Levels[2].Occupancy, o.Levels[1].Degenerate)
+	}
+	if len(o.Warnings) != 1 || !strings.Contains(o.Warnings[0], "fractional occupancy") {
+		t.Errorf("cyclobutadiene warnings %q", o.Warnings)
 	}
 	// HOMO is the last member (in Levels order) of the highest occupied set.
 	if o.HOMO != 2 || o.SOMO != 2 || o.LUMO != 3 {
