@@ -33,7 +33,7 @@ import (
 //	  - {name: acrolein, smiles: C=CC=O}
 //	activations: [none, lewis, iminium]
 //	params: streitwieser1961        # or params_file: my-params.yaml (relative to this file)
-//	calibration: default
+//	calibration: default            # or a file from cyclopair calibrate --out (relative to this file)
 //	filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.2, allowed_only: true}
 //	rank_by: normal_gap             # none | gap | normal_gap | stabilization | regio_margin | score
 //	top: 20
@@ -192,7 +192,7 @@ type Library struct {
 	Activations []string // mode names, in file order, without duplicates ("none" if absent)
 	Params      string   // built-in parameter set name, "" for the default
 	ParamsFile  string   // parameter file path as written in the file, "" if none
-	Calibration string   // calibration name, "" for the default
+	Calibration string   // "default" (or "") or a calibration file path as written in the file
 	Filter      Filter
 	RankBy      RankKey // RankNormalGap when the file does not say
 	Top         int     // 0 = all rows

@@ -19,6 +19,7 @@ type diagramOptions struct {
 	diene, dienophile string
 	activate          string
 	params            string
+	calibration       string
 	out               string
 }
 
@@ -50,6 +51,7 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 	f.StringVar(&o.dienophile, "dienophile", "", "2π partner: SMILES or substrate `name`")
 	f.StringVar(&o.activate, "activate", "none", "activation `modes` of the dienophile, comma-separated, one column each")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file")
+	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out'")
 	f.StringVarP(&o.out, "output", "o", "", "write the SVG to `FILE` instead of stdout")
 	_ = cmd.MarkFlagFilename("output", "svg")
 	return cmd
@@ -60,7 +62,7 @@ func runDiagram(s *streams, o *diagramOptions) error {
 	if err != nil {
 		return err
 	}
-	cal, err := screenCalibration(&fmo.Library{Source: "diagram"}, p)
+	cal, err := resolveCalibration(s, o.calibration, p)
 	if err != nil {
 		return err
 	}

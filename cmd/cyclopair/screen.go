@@ -26,6 +26,7 @@ type screenOptions struct {
 	dienophiles    string
 	activate       string
 	params         string
+	calibration    string
 	rankBy         string
 	top            int
 	demand         string
@@ -90,6 +91,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f := cmd.Flags()
 	f.StringVar(&o.activate, "activate", "", "activation `modes`, comma-separated: none, proton, lewis, iminium (default: the file's, else none)")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
+	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
 	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
 	f.IntVar(&o.top, "top", 0, "print only the best `K` rows (0: all; default: the file's)")
 	f.StringVar(&o.demand, "demand", "", "keep only pairs of this `demand`: normal, inverse, neutral, any")
@@ -291,19 +293,18 @@ func screenParams(in *screenInput, o *screenOptions) (*huckel.Params, error) {
 	return resolveParams(in.lib.Params)
 }
 
-// screenCalibration returns the calibration the file names ("" or "default": the default
-// calibration fitted for the parameter set).
-func screenCalibration(lib *fmo.Library, p *huckel.Params) (huckel.Calibration, error) {
-	switch lib.Calibration {
-	case "", "default":
-	default:
-		return huckel.Calibration{}, &inputError{fmt.Errorf("%s: calibration %q: unknown (the built-in calibration is \"default\", fitted for each parameter set)", lib.Source, lib.Calibration)}
+// screenCalibration returns the calibration to use: --calibration, else the file's
+// calibration: key (a calibration file path is taken relative to the substrate file), else
+// the built-in calibration fitted for the parameter set ("default").
+func screenCalibration(s *streams, in *screenInput, o *screenOptions, p *huckel.Params) (huckel.Calibration, error) {
+	spec := o.calibration
+	if spec == "" {
+		spec = in.lib.Calibration
+		if spec != "" && spec != "default" && !filepath.IsAbs(spec) && in.dir != "" {
+			spec = filepath.Join(in.dir, spec)
+		}
 	}
-	cal, err := presets.Calibration(p)
-	if err != nil {
-		return cal, &inputError{fmt.Errorf("calibration for parameter set %s: %v", p.Name, err)}
-	}
-	return cal, nil
+	return resolveCalibration(s, spec, p)
 }
 
 // runScreen is the whole screen command: load, prepare, screen, render, report failures.
@@ -343,7 +344,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	if err != nil {
 		return err
 	}
-	cal, err := screenCalibration(lib, params)
+	cal, err := screenCalibration(s, in, o, params)
 	if err != nil {
 		return err
 	}
