@@ -74,7 +74,7 @@ Results are estimates for planning, not safety assessments.`,
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&opts.orbital, "orbital", "", "orbital to draw: homo, lumo, homo-N, lumo+N or a 0-based level index (default homo)")
+	f.StringVar(&opts.orbital, "orbital", "", "orbital to draw: homo, lumo, homo-N, lumo+N, somo or a 0-based level index (default homo)")
 	f.StringVar(&opts.diene, "diene", "", "4π partner (diene, hetero-diene or 1,3-dipole): SMILES or built-in substrate name")
 	f.StringVar(&opts.dienophile, "dienophile", "", "2π partner: SMILES or built-in substrate name")
 	f.StringVar(&opts.activate, "activate", "none", "activation of the dienophile: "+strings.Join(fmo.Modes(), ", "))
@@ -155,7 +155,7 @@ func drawOrbital(smi string, opts *drawOptions, p *huckel.Params, cal huckel.Cal
 	return svg, nil
 }
 
-// pickLevel resolves homo, lumo, homo-N, lumo+N or a 0-based index to a level index.
+// pickLevel resolves homo, lumo, homo-N, lumo+N, somo or a 0-based index to a level index.
 func pickLevel(orb *huckel.Orbitals, spec string) (int, string, error) {
 	spec = strings.ToLower(strings.TrimSpace(spec))
 	n := len(orb.Levels)
@@ -199,9 +199,15 @@ func pickLevel(orb *huckel.Orbitals, spec string) (int, string, error) {
 		}
 		return base, word, nil
 	}
+	if spec == "somo" {
+		if orb.SOMO < 0 {
+			return 0, "", errors.New("the π system has no singly occupied level (use homo or lumo)")
+		}
+		return orb.SOMO, "SOMO", nil
+	}
 	k, err := strconv.Atoi(spec)
 	if err != nil {
-		return 0, "", errors.New("want homo, lumo, homo-N, lumo+N or a 0-based level index")
+		return 0, "", errors.New("want homo, lumo, homo-N, lumo+N, somo or a 0-based level index")
 	}
 	return checkLevel(k, n, fmt.Sprintf("level %d", k))
 }
