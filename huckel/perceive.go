@@ -399,6 +399,17 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	if e := ps.Electrons(); e%2 == 1 {
 		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
 			"odd number of π electrons (%d): open shell, the singly occupied level is reported as SOMO", e))
+	} else if len(ps.Fragments) > 1 {
+		for f, frag := range ps.Fragments {
+			fe := 0
+			for _, c := range frag {
+				fe += ps.Centres[c].Electrons
+			}
+			if fe%2 == 1 {
+				ps.Warnings = append(ps.Warnings, fmt.Sprintf(
+					"π fragment %d (atoms from %d) has an odd number of π electrons (%d): open shell", f, ps.Centres[frag[0]].Atom, fe))
+			}
+		}
 	}
 	if nc > LargeSystemWarn {
 		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
