@@ -30,7 +30,7 @@ type drawOptions struct {
 func newDrawCmd(s *streams) *cobra.Command {
 	opts := &drawOptions{}
 	cmd := &cobra.Command{
-		Use:   "draw SMILES --orbital homo|lumo|N | draw --diene SMILES --dienophile SMILES",
+		Use:   "draw SMILES|NAME --orbital homo|lumo|N | draw --diene SMILES --dienophile SMILES",
 		Short: "SVG picture of an orbital on a molecule, or of a cycloaddition pair",
 		Long: `Draw one π orbital on the structure of a molecule, or a cycloaddition pair in its
 preferred orientation, as SVG (to stdout, or to the file named by --svg).
@@ -45,7 +45,7 @@ Pair picture: the 4π partner (diene, hetero-diene or 1,3-dipole) on top, the 2�
 below, joined by the two forming bonds (dashed) of the preferred orientation; the endo
 secondary contact is dotted; the lobes are the frontier orbitals of the controlling pairing
 (diene HOMO and dienophile LUMO for normal demand, the other two for inverse demand).
---diene and --dienophile take a SMILES or the name of a built-in substrate.
+The molecule, --diene and --dienophile take a SMILES or the name of a built-in substrate.
 
 Results are estimates for planning, not safety assessments.`,
 		Example: `  cyclopair draw C=CC=O --orbital lumo --svg acrolein-lumo.svg
@@ -125,7 +125,11 @@ func smilesErr(smi string, err error) error {
 	return &inputError{fmt.Errorf("%s: %v", smi, err)}
 }
 
-func drawOrbital(smi string, opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+func drawOrbital(arg string, opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+	name, smi := partnerInput(arg)
+	if opts.name == "" {
+		opts.name = name
+	}
 	m, err := smiles.Parse(smi)
 	if err != nil {
 		return nil, smilesErr(smi, err)
