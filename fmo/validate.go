@@ -154,6 +154,9 @@ func LoadCheckSet(r io.Reader, filename string) (*CheckSet, error) {
 	if err := rejectAliasNodes(&root, filename); err != nil {
 		return nil, err
 	}
+	if err := checkKeys(&root, filename); err != nil {
+		return nil, err
+	}
 	set := &CheckSet{File: filename}
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	dec.KnownFields(true)
@@ -203,6 +206,58 @@ func LoadCheckSet(r io.Reader, filename string) (*CheckSet, error) {
 		}
 	}
 	return set, nil
+}
+
+// checkSetSchema lists the keys each mapping of a check set may hold, by path shape.
+var checkSetSchema = map[string][]string{
+	"":                   {"cases", "series"},
+	"cases[]":            {"id", "category", "diene", "dienophile", "activation", "expect", "observed", "source", "confidence", "known_miss"},
+	"cases[].diene":      {"name", "smiles"},
+	"cases[].dienophile": {"name", "smiles"},
+	"cases[].expect":     {"bonds", "product", "label", "endo", "demand", "sustmann", "diene_atoms", "dienophile_atoms"},
+	"series[]":           {"id", "name", "diene", "figure", "min_rho", "source", "confidence", "members", "known_miss"},
+	"series[].diene":     {"name", "smiles"},
+	"series[].members[]": {"name", "smiles", "k"},
+}
+
+// checkKeys rejects unknown mapping keys with their line and column (the strict decoder
+// that follows reports only a line).
+func checkKeys(root *yaml.Node, file string) error {
+	var walk func(n *yaml.Node, path string) error
+	walk = func(n *yaml.Node, path string) error {
+		switch n.Kind {
+		case yaml.DocumentNode:
+			for _, c := range n.Content {
+				if err := walk(c, path); err != nil {
+					return err
+				}
+			}
+		case yaml.SequenceNode:
+			for _, c := range n.Content {
+				if err := walk(c, path+"[]"); err != nil {
+					return err
+				}
+			}
+		case yaml.MappingNode:
+			allowed, known := checkSetSchema[path]
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				k := n.Content[i]
+				if known && !slices.Contains(allowed, k.Value) {
+					return &CheckSetError{File: file, Line: k.Line, Col: k.Column,
+						Msg: fmt.Sprintf("unknown key %q (known here: %s)", k.Value, strings.Join(allowed, ", "))}
+				}
+				sub := k.Value
+				if path != "" {
+					sub = path + "." + k.Value
+				}
+				if err := walk(n.Content[i+1], sub); err != nil {
+					return err
+				}
+			}
+		}
+		return nil
+	}
+	return walk(root, "")
 }
 
 func rejectAliasNodes(n *yaml.Node, file string) error {
