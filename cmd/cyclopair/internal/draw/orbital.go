@@ -91,7 +91,7 @@ func Orbital(orb *huckel.Orbitals, level int, o OrbitalOptions) ([]byte, error) 
 		lines = append(lines, "Hückel parameters: "+o.Params+"; SMILES: "+o.SMILES)
 	}
 	y := bottom + 20
-	for _, l := range lines {
+	for _, l := range wrap(lines, captionChars(cv)) {
 		cv.text(0, y, l, textSize, "start", `fill="`+ink+`"`)
 		y += lineHeight
 	}

@@ -145,7 +145,7 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 		lines = append(lines, "A degenerate frontier set is drawn as its total density (grey, no phase): no single member is privileged.")
 	}
 	y := by1 + lobeRadius*scale + 22
-	for _, l := range lines {
+	for _, l := range wrap(lines, captionChars(cv)) {
 		cv.text(0, y, l, textSize, "start", `fill="`+ink+`"`)
 		y += lineHeight
 	}

@@ -137,3 +137,39 @@ func sanitizeID(s string) string {
 	}
 	return b.String()
 }
+
+// captionChars is the caption line length for a canvas: the width of what is drawn so far
+// (the molecules and their labels) in characters, but at least 64 so short pictures do not
+// get tall captions.
+func captionChars(c *canvas) int {
+	w := c.maxX - math.Min(c.minX, 0)
+	if math.IsInf(w, 0) || math.IsNaN(w) {
+		return 64
+	}
+	return max(64, int(w/(0.58*textSize)))
+}
+
+// wrap breaks each line at spaces so no piece is longer than width characters (a single
+// longer word, such as a SMILES, stays whole); continuation lines are indented.
+func wrap(lines []string, width int) []string {
+	var out []string
+	for _, l := range lines {
+		words := strings.Fields(l)
+		cur := ""
+		for _, w := range words {
+			switch {
+			case cur == "":
+				cur = w
+			case len([]rune(cur))+1+len([]rune(w)) <= width:
+				cur += " " + w
+			default:
+				out = append(out, cur)
+				cur = "\u2003" + w // an em space: SVG strips leading ASCII spaces
+			}
+		}
+		if cur != "" {
+			out = append(out, cur)
+		}
+	}
+	return out
+}
