@@ -148,16 +148,21 @@ func smallestGap(diene, side *Partner, opts *Options) (Energy, string, bool) {
 // AttachSideChannels stores channels in the pair and adds a warning for each competing one.
 func (p *Pair) AttachSideChannels(channels []SideChannel) {
 	p.SideChannels = append(p.SideChannels[:0], channels...)
+	ref := controllingGap(p).Beta
 	for _, c := range channels {
 		if !c.Competes {
 			continue
 		}
+		cmp := fmt.Sprintf("below the pair's %.3f |β|", ref)
+		if c.Margin > 0 {
+			cmp = fmt.Sprintf("only %.3f |β| above the pair's %.3f |β|", c.Margin, ref)
+		}
 		var w string
 		switch c.Kind {
 		case SideDieneDimerisation:
-			w = fmt.Sprintf("side channel: the diene may dimerise — its self-cycloaddition gap (%.3f |β|) is within %+.3f |β| of the pair's; keep the diene cold and dilute, add it slowly to excess dienophile, or crack it fresh (common practice, no source)", c.Gap.Beta, c.Margin)
+			w = fmt.Sprintf("side channel: the diene may dimerise — its self-cycloaddition gap %.3f |β| is %s; keep the diene cold and dilute, add it slowly to excess dienophile, or crack it fresh (common practice, no source)", c.Gap.Beta, cmp)
 		case SideProductDienophile:
-			w = fmt.Sprintf("side channel: the adduct's remaining π bond can take a second equivalent of the diene (gap %.3f |β|, %+.3f |β| from the pair's); use the dienophile in excess to limit the bis-adduct (common practice, no source)", c.Gap.Beta, c.Margin)
+			w = fmt.Sprintf("side channel: the adduct's remaining π bond can take a second equivalent of the diene — its gap %.3f |β| is %s; use the dienophile in excess to limit the bis-adduct (common practice, no source)", c.Gap.Beta, cmp)
 		default:
 			w = "side channel competes: " + c.Note
 		}
