@@ -323,3 +323,14 @@ func TestDoubleBondGeometry(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkParseBaseline parses the molecule BenchmarkLayout lays out: the layout cost is
+// reported as a ratio to this baseline measured in the same run.
+func BenchmarkParseBaseline(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := smiles.Parse("CC(C)CCCC(C)C1CCC2C1(CCC1C2CC=C2CC(O)CCC12C)C"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
