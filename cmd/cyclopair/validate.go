@@ -35,6 +35,9 @@ the method gets right, the Spearman rank correlation of the measured reactivity 
 every miss with its recorded reason. A case whose expected outcome the method misses is
 kept as a documented known miss; nothing is tuned to pass a case.
 
+The known misses are recorded for the default parameter set and options; with another
+--params the differences show as "unexpected hit" or "miss".
+
 --cases FILE runs a check set of your own in the same format (see the header of
 presets/literature/cases.yaml). With --strict the exit status is 1 when a result differs
 from the record (a new miss, or a known miss that now hits); without it, 1 only when a case
