@@ -147,7 +147,7 @@ func TestRings(t *testing.T) {
 		{"C1CC2CCC1C2", []int{5, 5}},                 // norbornane
 		{"C1CC2CCC1CC2", []int{6, 6}},                // bicyclo[2.2.2]octane
 		{"C1C2CC3CC1CC(C2)C3", []int{6, 6, 6}},       // adamantane
-		{"C12C3C4C1C5C2C3C45", []int{4, 4, 4, 4, 4}}, // cubane
+		{"C12C3C4C1C5C2C3C45", []int{4, 4, 4, 4, 4}}, // cubane (6 faces, 5 independent)
 		{"C1CCC2(C1)CCCC2", []int{5, 5}},             // spiro[4.4]nonane
 		{"c1ccc(cc1)-c1ccccc1", []int{6, 6}},
 	}

@@ -2,6 +2,7 @@ package depict
 
 import (
 	"math"
+	"math/rand/v2"
 	"slices"
 
 	"cyclopair/huckel/molecule"
@@ -434,21 +435,47 @@ func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
 	// No construction drew the cage cleanly (bicyclo[2.2.2], adamantane, cubane): relax each
 	// start with springs and keep the best result.
 	for _, pos := range starts {
-		l.relaxBlock(s, pos)
+		l.relaxBlock(s, pos, 1.0, 1.0)
 		if sc := l.blockScore(s, pos); sc < bestScore-1e-9 {
 			bestPos, bestScore = pos, sc
+		}
+	}
+	// Small cages (cubane) can still end crowded: try a few scattered starts from a
+	// fixed-seed generator, so the result stays the same on every run.
+	if bestScore >= 1 && len(s.atoms) <= maxScatterAtoms {
+		rng := rand.New(rand.NewPCG(uint64(len(s.atoms)), 0x5eed))
+		side := math.Sqrt(float64(len(s.atoms))) * 1.2
+		for try := 0; try < scatterTries && bestScore >= 1; try++ {
+			pos := make(map[int]Point, len(s.atoms))
+			for _, a := range s.atoms {
+				pos[a] = Point{rng.Float64() * side, rng.Float64() * side}
+			}
+			// a short, stiff repulsion: bonds keep their length, only near contacts are
+			// pushed apart (a crossed perspective drawing is acceptable)
+			l.relaxBlock(s, pos, 0.7, 3.0)
+			if sc := l.blockScore(s, pos); sc < bestScore-1e-9 {
+				bestPos, bestScore = pos, sc
+			}
 		}
 	}
 	return bestPos
 }
 
+// Scattered restarts for small crowded cages: at most scatterTries starts, only for ring
+// systems of at most maxScatterAtoms atoms.
+const (
+	scatterTries    = 24
+	maxScatterAtoms = 16
+)
+
 // maxRelaxAtoms bounds the ring systems that get the spring relaxation (quadratic per step).
 const maxRelaxAtoms = 40
 
 // relaxBlock moves the atoms of a bridged ring system by gradient descent on an energy with
-// unit-length bond springs and a short-range repulsion between non-bonded atoms. Start points
+// unit-length bond springs and a repulsion of strength push between non-bonded atoms closer
+// than reach (bond lengths). Start points
 // that coincide are pulled apart by fixed, index-dependent offsets (no randomness).
-func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point) {
+func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push float64) {
 	at := s.atoms
 	n := len(at)
 	p := make([]Point, n)
@@ -483,8 +510,8 @@ func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point) {
 				var g float64 // force along u on j (negative pulls together)
 				if bonded[i*n+j] {
 					g = -6 * (r - 1)
-				} else if r < 1.0 {
-					g = 1.0 * (1.0 - r)
+				} else if r < reach {
+					g = push * (reach - r)
 				}
 				f[j] = f[j].add(u.scale(g))
 				f[i] = f[i].sub(u.scale(g))
