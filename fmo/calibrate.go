@@ -442,6 +442,9 @@ func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, erro
 		return nil, err
 	}
 	pos := func(key ...string) (int, int) { return fieldPos(top, key...) }
+	if err := checkCalibrationKeys(top, filename, want); err != nil {
+		return nil, err
+	}
 	var f calFile
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	dec.KnownFields(true)
@@ -488,6 +491,46 @@ func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, erro
 		LUMOR2: f.LUMO.R2, LUMORMSE: f.LUMO.RMSE, LUMON: f.LUMO.N,
 	}
 	return &LoadedCalibration{Calibration: c, Params: f.Params}, nil
+}
+
+var calibrationFileKeys = map[string][]string{
+	"":         {"format", "name", "params", "source", "homo", "lumo", "n", "r2", "rmse_eV", "points"},
+	"homo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
+	"lumo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
+	"points[]": {"id", "name", "smiles", "level", "x", "energy_eV", "fit_eV", "residual_eV"},
+}
+
+// checkCalibrationKeys rejects unknown keys of a calibration file with line and column.
+func checkCalibrationKeys(top *yaml.Node, file, want string) error {
+	var walk func(n *yaml.Node, path string) error
+	walk = func(n *yaml.Node, path string) error {
+		switch n.Kind {
+		case yaml.SequenceNode:
+			for _, c := range n.Content {
+				if err := walk(c, path+"[]"); err != nil {
+					return err
+				}
+			}
+		case yaml.MappingNode:
+			allowed, known := calibrationFileKeys[path]
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				k := n.Content[i]
+				if known && !slices.Contains(allowed, k.Value) {
+					return &RowError{File: file, Line: k.Line, Col: k.Column,
+						Msg: fmt.Sprintf("unknown key %q (known here: %s)", k.Value, strings.Join(allowed, ", ")), Hint: want}
+				}
+				sub := k.Value
+				if path != "" {
+					sub = path + "." + k.Value
+				}
+				if err := walk(n.Content[i+1], sub); err != nil {
+					return err
+				}
+			}
+		}
+		return nil
+	}
+	return walk(top, "")
 }
 
 func calFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }

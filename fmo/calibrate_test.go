@@ -149,7 +149,9 @@ func TestLoadCalibrationFileErrors(t *testing.T) {
 		t.Fatalf("good: %v", err)
 	}
 	for _, tc := range []struct{ name, text, want string }{
-		{"unknown key", good + "extra: 1\n", "c.yaml:6:1: yaml: unmarshal errors"},
+		{"unknown key", good + "extra: 1\n", `c.yaml:6:1: unknown key "extra" (known here: format, name`},
+		{"unknown map key", strings.Replace(good, "slope: -2.9", "slop: -2.9", 1), `c.yaml:4:25: unknown key "slop"`},
+		{"bad number", strings.Replace(good, "-2.9", "steep", 1), "c.yaml:4:1: yaml: unmarshal errors"},
 		{"format", strings.Replace(good, "/1", "/9", 1), `c.yaml:1:9: format "cyclopair-calibration/9"`},
 		{"positive slope", strings.Replace(good, "slope: -1.8", "slope: 1.8", 1), "c.yaml:5:31: lumo: slope 1.8 must be negative"},
 		{"missing slope", strings.Replace(good, ", slope: -2.9", "", 1), "c.yaml:4:7: homo: needs intercept and slope"},
