@@ -146,10 +146,22 @@ func (w *Writer) write(b *page, s render.Summary) {
 	b.el("h1", "", w.title())
 	b.raw("\n")
 	w.caution(b)
+	b.raw(`<nav class="small">Contents: <a href="#summary">what was analysed</a> · <a href="#ranking">table</a> · `)
+	if w.cfg.Diagram != nil && len(w.rows) > 0 {
+		b.raw(`<a href="#levels">levels</a> · `)
+	}
+	if min(w.cfg.Figures, len(w.rows)) > 0 {
+		b.raw(`<a href="#pictures">pictures</a> · `)
+	}
+	if w.hasNotes() {
+		b.raw(`<a href="#notes">notes</a> · `)
+	}
+	b.raw(`<a href="#parameters">parameters</a> · <a href="#calibration">calibration</a> · <a href="#accuracy">accuracy</a></nav>` + "\n")
 	w.summary(b, s)
 	w.table(b)
 	w.diagram(b)
 	w.figures(b)
+	w.notes(b)
 	w.params(b)
 	w.calibration(b)
 	w.validation(b)
@@ -322,6 +334,51 @@ func (w *Writer) figures(b *page) {
 		b.raw("</article>\n")
 	}
 	b.raw("</section>\n")
+}
+
+// hasNotes reports whether any row has warnings or a competing side channel.
+func (w *Writer) hasNotes() bool {
+	for _, r := range w.rows {
+		if len(r.Pair.Warnings) > 0 {
+			return true
+		}
+		for _, sc := range r.Pair.SideChannels {
+			if sc.Competes {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// notes lists, for every row, its warnings and competing side channels.
+func (w *Writer) notes(b *page) {
+	if !w.hasNotes() {
+		return
+	}
+	b.raw("<section id=\"notes\">\n")
+	b.el("h2", "", "Warnings and competing side reactions")
+	b.raw("\n<dl class=\"notes\">\n")
+	for _, r := range w.rows {
+		p := r.Pair
+		var items []string
+		items = append(items, p.Warnings...)
+		for _, sc := range p.SideChannels {
+			if sc.Competes {
+				items = append(items, fmt.Sprintf("side channel %s competes (gap %s |β|, margin %s |β|): %s", sc.Kind, f(sc.Gap.Beta, 3), f(sc.Margin, 3), sc.Note))
+			}
+		}
+		if len(items) == 0 {
+			continue
+		}
+		b.el("dt", "", fmt.Sprintf("#%d %s + %s (%s)", r.Rank, nameOr(p.DieneName, p.Diene), nameOr(p.DienophileName, p.Dienophile), p.Activation))
+		b.raw("\n<dd><ul>")
+		for _, it := range items {
+			b.el("li", "", it)
+		}
+		b.raw("</ul></dd>\n")
+	}
+	b.raw("</dl>\n</section>\n")
 }
 
 type fig struct {
@@ -620,6 +677,10 @@ h2 { font-size: 1.2rem; border-bottom: 2px solid var(--accent); padding-bottom: 
 h3 { font-size: 1.05rem; margin: 1.2rem 0 0.4rem; }
 .caution { border: 2px solid var(--ink); border-left-width: 8px; padding: 0.6rem 0.9rem; margin: 0.8rem 0; }
 dl { display: grid; grid-template-columns: max-content 1fr; gap: 0.2rem 1rem; }
+dl.notes { display: block; }
+dl.notes dd ul { margin: 0.1rem 0 0.6rem; }
+nav { margin: 0.6rem 0; }
+a { color: var(--accent); }
 dt { font-weight: bold; }
 dd { margin: 0; }
 table { border-collapse: collapse; margin: 0.5rem 0; font-size: 0.9rem; }

@@ -102,7 +102,8 @@ func TestWellFormedAndEscaped(t *testing.T) {
 		t.Error("user text not escaped")
 	}
 	for _, want := range []string{render.Caution, "SDS", "hazard review", "Ranked pairs", "Pictures of the top pairs",
-		"Accuracy on the literature check set", "Calibration (x → eV)", "Coulomb (h) and resonance (k) parameters", "circle area ∝ c²"} {
+		"Accuracy on the literature check set", "Calibration (x → eV)", "Coulomb (h) and resonance (k) parameters", "circle area ∝ c²",
+		"Warnings and competing side reactions", `href="#accuracy"`} {
 		if !strings.Contains(s, want) {
 			t.Errorf("report lacks %q", want)
 		}
