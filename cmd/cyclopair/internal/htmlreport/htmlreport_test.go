@@ -61,6 +61,9 @@ func sample(t testing.TB) []byte {
 			t.Fatal(err)
 		}
 		pr.DieneName, pr.DienophileName = tc.dn, tc.en
+		if i == 1 { // a warning with markup in it, as user-derived text can carry
+			pr.Warnings = append(pr.Warnings, `fixture warning <i>not markup</i> & escaped`)
+		}
 		if err := w.WriteRow(render.Row{Rank: i + 1, Pair: pr}); err != nil {
 			t.Fatal(err)
 		}
@@ -98,7 +101,8 @@ func TestWellFormedAndEscaped(t *testing.T) {
 		t.Errorf("only %d elements: report suspiciously small", elements)
 	}
 	s := string(doc)
-	if !strings.Contains(s, "demo &lt;script&gt;") || strings.Contains(s, "<b>") {
+	if !strings.Contains(s, "demo &lt;script&gt;") || strings.Contains(s, "<b>") || strings.Contains(s, "<i>") ||
+		!strings.Contains(s, "fixture warning &lt;i&gt;not markup&lt;/i&gt; &amp; escaped") {
 		t.Error("user text not escaped")
 	}
 	for _, want := range []string{render.Caution, "SDS", "hazard review", "Ranked pairs", "Pictures of the top pairs",
