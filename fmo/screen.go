@@ -294,14 +294,27 @@ type preparedJob struct {
 	flt   Filter
 }
 
-func (j *preparedJob) score(_ int, k int64) (float64, bool, bool) {
-	d, e, a := j.space.Split(k)
-	v := j.p.Variants[e][a]
-	if v == nil {
-		return 0, false, false
+func (j *preparedJob) scoreChunk(_ int, lo, hi int64, out []chunkScore) {
+	d, e, a := j.space.Split(lo)
+	na, ne := j.space.Activations, j.space.Dienophiles
+	diene := j.p.Dienes[d]
+	for i := range out[:hi-lo] {
+		if v := j.p.Variants[e][a]; v == nil {
+			out[i] = chunkScore{}
+		} else {
+			q := j.p.quick.Score(diene, v)
+			out[i] = chunkScore{key: rankValue(j.rank, &q), pass: j.flt.passes(&q), ok: true}
+		}
+		if a++; a == na {
+			a = 0
+			if e++; e == ne {
+				e = 0
+				if d++; d < len(j.p.Dienes) {
+					diene = j.p.Dienes[d]
+				}
+			}
+		}
 	}
-	q := j.p.quick.Score(j.p.Dienes[d], v)
-	return rankValue(j.rank, &q), j.flt.passes(&q), true
 }
 
 func (j *preparedJob) analyze(_ int, k int64) (*Pair, error) {

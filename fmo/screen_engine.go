@@ -164,11 +164,19 @@ func (t *topK) offer(s scored) {
 // use on different pairs; the worker argument identifies the calling worker (0..workers-1)
 // so implementations can keep per-worker workspaces.
 type screenJob interface {
-	// score returns the ranking key of pair k (lower is better), whether the pair passes
-	// the filters, and ok=false when the pair does not exist (activation not applicable).
-	score(worker int, k int64) (key float64, pass, ok bool)
+	// scoreChunk scores pairs lo..hi-1 into out[0 : hi-lo]: the ranking key (lower is
+	// better), whether the pair passes the filters, and ok=false for a pair that does not
+	// exist (activation not applicable). Scoring a whole chunk per call keeps the per-pair
+	// cost to the kernel itself (no interface call, no index division per pair).
+	scoreChunk(worker int, lo, hi int64, out []chunkScore)
 	// analyze runs the full analysis of pair k.
 	analyze(worker int, k int64) (*Pair, error)
+}
+
+// chunkScore is one scored pair of a chunk.
+type chunkScore struct {
+	key      float64
+	pass, ok bool
 }
 
 // engineConfig drives one engine run.
@@ -254,27 +262,32 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 		go func() {
 			defer wg.Done()
 			loc := &locals[w]
+			buf := make([]chunkScore, cfg.Chunk)
 			for {
 				c := next.Add(1) - 1
 				if c >= nChunks || ctx.Err() != nil {
 					return
 				}
 				lo, hi := cfg.chunkOf(c)
-				for k := lo; k < hi; k++ {
-					key, pass, ok := job.score(w, k)
-					if !ok {
+				out := buf[:hi-lo]
+				job.scoreChunk(w, lo, hi, out)
+				for i := range out {
+					r := &out[i]
+					if !r.ok {
 						loc.missing++
 						continue
 					}
 					loc.scoredN++
-					if !pass {
+					if !r.pass {
 						continue
 					}
 					loc.passN++
 					if cfg.Top > 0 {
-						loc.heap.offer(scored{key, k})
+						if len(loc.heap.h) < loc.heap.k || better(scored{r.key, lo + int64(i)}, loc.heap.h[0]) {
+							loc.heap.offer(scored{r.key, lo + int64(i)})
+						}
 					} else {
-						loc.all = append(loc.all, scored{key, k})
+						loc.all = append(loc.all, scored{r.key, lo + int64(i)})
 					}
 				}
 				if cfg.Progress != nil {
@@ -373,6 +386,7 @@ func engineStream(ctx context.Context, job screenJob, cfg engineConfig,
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			buf := make([]chunkScore, cfg.Chunk)
 			for {
 				select {
 				case inFlight <- struct{}{}:
@@ -386,14 +400,16 @@ func engineStream(ctx context.Context, job screenJob, cfg engineConfig,
 				}
 				lo, hi := cfg.chunkOf(c)
 				r := &chunkResult{c: c}
-				for k := lo; k < hi; k++ {
-					_, pass, ok := job.score(w, k)
-					if !ok {
+				out := buf[:hi-lo]
+				job.scoreChunk(w, lo, hi, out)
+				for i := range out {
+					k := lo + int64(i)
+					if !out[i].ok {
 						r.missing++
 						continue
 					}
 					r.scoredN++
-					if !pass {
+					if !out[i].pass {
 						continue
 					}
 					r.passN++

@@ -18,6 +18,13 @@ type fakeJob struct{ nanEvery int64 }
 
 var errFake = errors.New("fake analysis failure")
 
+func (f fakeJob) scoreChunk(w int, lo, hi int64, out []chunkScore) {
+	for k := lo; k < hi; k++ {
+		key, pass, ok := f.score(w, k)
+		out[k-lo] = chunkScore{key, pass, ok}
+	}
+}
+
 func (f fakeJob) score(_ int, k int64) (float64, bool, bool) {
 	if k%11 == 5 {
 		return 0, false, false
