@@ -104,10 +104,43 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 	for _, bi := range free {
 		k.isFree[bi] = true
 	}
-	if !k.solve() {
+	if !k.feasible() || !k.solve() {
 		return nil, errNoKekule
 	}
 	return s, nil
+}
+
+// feasible is a quick necessary condition checked before the search: in every connected
+// group of atoms that still need π bonds (joined by usable bonds) the needs must add up to
+// an even number, since each π bond serves two atoms. It rejects most impossible units
+// (odd rings, radicals left behind) without any backtracking.
+func (k *kekulizer) feasible() bool {
+	n := len(k.need)
+	seen := make([]bool, n)
+	var stack []int
+	for s := 0; s < n; s++ {
+		if seen[s] || k.need[s] <= 0 {
+			continue
+		}
+		sum := 0
+		seen[s] = true
+		stack = append(stack[:0], s)
+		for len(stack) > 0 {
+			v := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			sum += k.need[v]
+			for _, e := range k.m.Neighbors(v) {
+				if j, ok := k.usable(e.Bond, v); ok && !seen[j] {
+					seen[j] = true
+					stack = append(stack, j)
+				}
+			}
+		}
+		if sum%2 != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // kekulizer assigns extra bond orders so that every atom's remaining need reaches zero.
@@ -124,7 +157,9 @@ type kekulizer struct {
 	steps  int
 }
 
-const kekuleStepLimit = 1 << 20
+// kekuleStepLimit bounds the search per unit; with most-constrained-first ordering real
+// molecules need about one step per π bond, so hitting it means "no structure" in practice.
+const kekuleStepLimit = 1 << 16
 
 func (k *kekulizer) usable(bi, i int) (int, bool) {
 	if !k.isFree[bi] || k.orders[bi] >= 3 {

@@ -90,19 +90,14 @@ func (p *Partner) prepare(opts *Options) error {
 	if orb.Partial {
 		p.Warnings = append(p.Warnings, fmt.Sprintf("%s: open-shell π system (partly filled frontier shell): perturbation estimates are unreliable", p.Name))
 	}
-	units, err := Sites(p.Name, p.Mol, pi, p.Role)
+	units, sides, err := sites(p.Name, p.Mol, pi, p.Role)
 	if err != nil {
 		return err
 	}
 	p.Units = units
+	p.sides = sides
 	p.data = make([]unitData, len(units))
-	p.sides = make([]*side, len(units))
 	for i, u := range units {
-		s, err := adductSide(p.Mol, u)
-		if err != nil { // Sites already checked this; keep the error path honest
-			return fmt.Errorf("%s: unit %s: %w", p.Name, u.Describe(p.Mol), err)
-		}
-		p.sides[i] = s
 		d, err := p.unitData(u)
 		if err != nil {
 			return err

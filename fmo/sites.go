@@ -177,6 +177,12 @@ func terminusElement(el string) bool {
 // termini (and, for 2π units, both atoms) are all mapped are kept, and exactly one must
 // remain. Errors wrap ErrNoUnit, ErrPinNoMatch or ErrPinAmbiguous in a *SiteError.
 func Sites(name string, mol *molecule.Molecule, pi *huckel.PiSystem, role Role) ([]Unit, error) {
+	units, _, err := sites(name, mol, pi, role)
+	return units, err
+}
+
+// sites is Sites that also returns each unit's adduct half (parallel to the units).
+func sites(name string, mol *molecule.Molecule, pi *huckel.PiSystem, role Role) ([]Unit, []*side, error) {
 	var units []Unit
 	switch role {
 	case RoleDiene:
@@ -187,9 +193,11 @@ func Sites(name string, mol *molecule.Molecule, pi *huckel.PiSystem, role Role) 
 		panic(fmt.Sprintf("fmo.Sites: bad role %d", role))
 	}
 	valid := units[:0]
+	var sides []*side
 	for _, u := range units {
-		if _, err := adductSide(mol, u); err == nil {
+		if sd, err := adductSide(mol, u); err == nil {
 			valid = append(valid, u)
+			sides = append(sides, sd)
 		}
 	}
 	units = valid
@@ -204,33 +212,35 @@ func Sites(name string, mol *molecule.Molecule, pi *huckel.PiSystem, role Role) 
 		if role == RoleDienophile {
 			want = "it needs a 2π unit: C=C, C≡C, C=O, C=N or N=N"
 		}
-		return nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrNoUnit, Detail: want}
+		return nil, nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrNoUnit, Detail: want}
 	}
 	if len(mapped) == 0 {
-		return units, nil
+		return units, sides, nil
 	}
 	isMapped := func(a int) bool { return mol.Atoms[a].Map != 0 }
 	var pinned []Unit
-	for _, u := range units {
+	var pinnedSides []*side
+	for i, u := range units {
 		a, d := u.Termini()
 		if isMapped(a) && isMapped(d) {
 			u.Pinned = true
 			pinned = append(pinned, u)
+			pinnedSides = append(pinnedSides, sides[i])
 		}
 	}
 	switch {
 	case len(pinned) == 0:
-		return nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrPinNoMatch,
+		return nil, nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Err: ErrPinNoMatch,
 			Detail: "map both termini of one reacting unit, or remove the atom maps to rank every site"}
 	case len(pinned) > 1:
 		descr := make([]string, len(pinned))
 		for i, u := range pinned {
 			descr[i] = u.Describe(mol)
 		}
-		return nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Units: pinned, Err: ErrPinAmbiguous,
+		return nil, nil, &SiteError{Partner: name, Role: role, Mapped: mapped, Units: pinned, Err: ErrPinAmbiguous,
 			Detail: "candidates " + strings.Join(descr, ", ") + "; map only the two termini of the unit you mean"}
 	}
-	return pinned, nil
+	return pinned, pinnedSides, nil
 }
 
 // piNeighbours returns, for every centre, the centres it shares a π bond with (sorted).
