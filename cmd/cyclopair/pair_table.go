@@ -30,6 +30,10 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	if p.ActivatedDienophile != "" {
 		fmt.Fprintf(w, "activated dienophile: %s\n", p.ActivatedDienophile)
 	}
+	if e := p.Activated; e != nil {
+		fmt.Fprintf(w, "activation effect (vs the free dienophile): LUMO lowered by %.3f |β| (%.2f eV); c²(Cβ) − c²(Cα) of the LUMO %.3f → %.3f; c² at the carbonyl carbon %.3f → %.3f; endo term %+.5f |β|\n",
+			e.LUMOLowering.Beta, e.LUMOLowering.EV, e.BetaAsymmetryFree, e.BetaAsymmetry, e.CarbonylLUMOFree, e.CarbonylLUMO, e.EndoChange)
+	}
 	fmt.Fprintf(w, "parameters: %s\n", p.Params)
 	if calDetail == "" {
 		calDetail = p.Calibration
