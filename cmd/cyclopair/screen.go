@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
@@ -386,7 +387,8 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	var w render.Writer
 	if format == "html" {
-		w = htmlreport.New(s.out, rep, htmlreport.Config{Options: opts, Calibration: &cal, Kind: "screen"})
+		w = htmlreport.New(s.out, rep, htmlreport.Config{Options: opts, Calibration: &cal, Kind: "screen",
+			Diagram: func(rows []render.Row) ([]byte, error) { return screenDiagram(prep, rows, cal) }})
 	} else {
 		w, err = render.New(render.Format(format), s.out, rep, lay)
 		if err != nil {
@@ -453,4 +455,49 @@ func printFailures(s *streams, failures []error) {
 	for _, f := range failures {
 		fmt.Fprintf(s.err, "cyclopair: %v\n", f)
 	}
+}
+
+// screenDiagram draws the energy-level diagram of the top row's partners: its diene and its
+// dienophile under every activation of the screen that applies.
+func screenDiagram(prep *fmo.Prepared, rows []render.Row, cal huckel.Calibration) ([]byte, error) {
+	if len(rows) == 0 {
+		return nil, nil
+	}
+	top := rows[0].Pair
+	d, e := -1, -1
+	for i, r := range prep.DieneRows {
+		if r.Name == top.DieneName {
+			d = i
+		}
+	}
+	for i, r := range prep.DphRows {
+		if r.Name == top.DienophileName {
+			e = i
+		}
+	}
+	if d < 0 || e < 0 {
+		return nil, fmt.Errorf("top row %s + %s not found in the screen", top.DieneName, top.DienophileName)
+	}
+	var parts []*fmo.Partner
+	var pairs []*fmo.Pair
+	for a, v := range prep.Variants[e] {
+		if v == nil {
+			continue
+		}
+		pr, err := prep.AnalyzeAt(d, e, a)
+		if err != nil {
+			continue
+		}
+		parts = append(parts, v)
+		pairs = append(pairs, pr)
+	}
+	if len(parts) == 0 {
+		return nil, nil
+	}
+	dg := pairDiagram(prep.Dienes[d], parts, pairs, prep.Opts.Params.Name, cal)
+	var buf bytes.Buffer
+	if err := render.WriteDiagram(&buf, dg); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
 }

@@ -233,3 +233,15 @@ func TestPairSVG(t *testing.T) {
 		t.Errorf("not XML: %v", err)
 	}
 }
+
+// --format html embeds the energy-level diagram of the top row (diene with every
+// activation of its dienophile).
+func TestScreenHTMLHasDiagram(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "demo", "--format", "html", "--top", "3")
+	if code != exitOK {
+		t.Fatalf("code %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, `id="levels"`) || !strings.Contains(out, `class="level"`) || !strings.Contains(out, render.Caution) {
+		t.Error("HTML screen report lacks the level diagram or the caution")
+	}
+}
