@@ -49,7 +49,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    string
+		product    string // canonical SMILES, to tell identical adducts apart from different ones
 	}
 	var cands []cand
 	for di, du := range diene.Units {
@@ -75,7 +75,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 				if s.firstOrder {
 					method = "first-order"
 				}
-				c := cand{s: s, di: di, ei: ei, or: or, product: smi}
+				c := cand{s: s, di: di, ei: ei, or: or, product: productKey(pm)}
 				c.o = Orientation{
 					Site:            siteName(diene, du, dienophile, eAtoms),
 					DieneAtoms:      dAtoms,

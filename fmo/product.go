@@ -46,8 +46,12 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	return m, bonds
 }
 
-// productSMILES writes the adduct.
+// productSMILES writes the adduct for display (Kekulé form, atoms in partner order).
 func productSMILES(m *molecule.Molecule) string { return smiles.Write(m) }
+
+// productKey is the canonical SMILES of the adduct: equal for the two orientations of a
+// symmetric partner and for symmetry-equivalent sites, so margins compare different adducts.
+func productKey(m *molecule.Molecule) string { return smiles.Canonical(m) }
 
 // regioLabel names the ortho/meta/para relationship of the adduct's two substituents, or ""
 // when it does not apply. It applies to [4+2] adducts where each partner carries exactly one
