@@ -4,6 +4,44 @@
 // preferred and by what margin, the secondary-orbital (endo) term, whether the supra–supra
 // thermal pairing is symmetry-allowed, how activation of the dienophile changes the picture, and
 // whether side channels compete. It knows nothing of terminals or output formats.
+//
+// # Pair analysis
+//
+// NewPartner (or NewPartnerFromMolecule) perceives and solves a molecule with the Options'
+// Hückel parameters and finds its candidate reacting units (Sites): 4π diene and hetero-diene
+// units and charge-separated 1,3-dipoles for the 4π partner, 2π units for the dienophile, all
+// found over the π centres rather than one Kekulé structure, and each kept only if the adduct
+// has a valid closed-shell Kekulé structure. SMILES atom maps pin the reacting atoms. Per unit
+// it caches the frontier-set projectors at the unit atoms and the localisation energy, so
+// Analyze and QuickScore only combine cached numbers.
+//
+// Analyze scores every pair of units in both regio-orientations:
+//
+//	frontier_term = Σ_pairings 2·(γ Σ_bonds c_r c_s)² / gap   (first-order 2|γΣcc| when gap ≤ |γΣcc|)
+//	stabilization = frontier_term + charge_term                   (charge term off by default)
+//	score         = stabilization − λ·localization − w·min(gap_normal, gap_inverse)
+//
+// with γ = Options.FormingBeta (0.3), λ = LocalizationWeight (0.1), w = GapWeight (0.5); the
+// Options fields give the reasoning for each value. The two pairings are HOMO(diene)–
+// LUMO(dienophile) and LUMO(diene)–HOMO(dienophile), each over whole degenerate sets. Only the
+// frontier term differs between the two orientations of one site, so regiochemistry is pure
+// frontier-orbital theory; localisation and the controlling gap decide between sites. The
+// preferred orientation's adduct is built from the unactivated partners (diene atoms first),
+// with a re-derived Kekulé structure, and written as SMILES; ortho/meta/para labels, the
+// secondary-orbital endo term and the supra–supra allowedness from the terminus phases of the
+// frontier orbitals complete the Pair.
+//
+// Failure modes: bad SMILES come back as the reader's *smiles.Error; perception and solver
+// errors from package huckel are wrapped with the partner's name; a partner without a
+// reacting unit, or with atom maps matching no unit or several, gives a *SiteError wrapping
+// ErrNoUnit, ErrPinNoMatch or ErrPinAmbiguous. Misuse (nil partners, swapped roles, nil
+// Options) panics. Results are estimates for planning, not safety assessments.
+//
+// Known limitations (kept as documented misses, not tuned away): Hückel puts the HOMO of
+// charge-separated 1,3-dipoles on the anionic terminus, so dipole regiochemistry often
+// disagrees with experiment; steric effects (methyl-substituted quinones, methacrolein
+// exo) and thermodynamic control (furan adducts) are outside the model; the one-π-set model of
+// sp atoms excludes nitriles as dienophiles.
 package fmo
 
 // Energy is a quantity in units of |β| and in eV (through the calibration named in the Pair).
