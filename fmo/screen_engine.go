@@ -342,6 +342,10 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 		}
 		wg.Wait()
 		for i, s := range part {
+			if err := ctx.Err(); err != nil {
+				st.Canceled = true
+				return st, err
+			}
 			if errs[i] != nil {
 				st.Failed++
 				fail(pairFailure{K: s.k, Err: errs[i]})

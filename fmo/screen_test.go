@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math"
 	"testing"
@@ -168,6 +169,29 @@ func TestScreenRankingOrder(t *testing.T) {
 	for i := range top {
 		if top[i].DieneName != all[i].DieneName || top[i].DienophileName != all[i].DienophileName || top[i].Activation != all[i].Activation {
 			t.Errorf("top row %d differs from the full ranking", i+1)
+		}
+	}
+}
+
+// Canceling mid-screen stops cleanly: the rows already emitted stay, the error is
+// context.Canceled and the stats say so.
+func TestScreenCancel(t *testing.T) {
+	p := demoPrepared(t)
+	for _, rank := range []RankKey{RankNone, RankNormalGap} {
+		ctx, cancel := context.WithCancel(context.Background())
+		rows := 0
+		st, err := p.Screen(ctx, ScreenOptions{RankBy: rank, Workers: 2}, func(ScreenRow) error {
+			if rows++; rows == 3 {
+				cancel()
+			}
+			return nil
+		}, func(ScreenFailure) {})
+		cancel()
+		if !errors.Is(err, context.Canceled) || !st.Canceled {
+			t.Errorf("%s: err %v, canceled %v", rank, err, st.Canceled)
+		}
+		if rows < 3 || int64(rows) != st.Shown {
+			t.Errorf("%s: %d rows emitted, stats say %d", rank, rows, st.Shown)
 		}
 	}
 }
