@@ -23,6 +23,7 @@ type drawOptions struct {
 	activate   string
 	params     string
 	name       string
+	rank       int    // orientation to draw in a pair picture, 1 = preferred
 	svg        string // output file; stdout when empty or "-"
 	numbers    bool
 }
@@ -51,6 +52,7 @@ Results are estimates for planning, not safety assessments.`,
 		Example: `  cyclopair draw C=CC=O --orbital lumo --svg acrolein-lumo.svg
   cyclopair draw c1ccccc1 --orbital homo > benzene-homo.svg
   cyclopair draw --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --svg pair.svg
+  cyclopair draw --diene isoprene --dienophile methyl-acrylate --orientation 2 --svg meta.svg
   cyclopair draw --diene 'COC=CC=C' --dienophile 'C=CC(=O)OC' --activate lewis --svg lewis.svg`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
@@ -66,6 +68,10 @@ Results are estimates for planning, not safety assessments.`,
 				return &usageError{errors.New("give a SMILES (with --orbital) or --diene and --dienophile")}
 			case !pair && c.Flags().Changed("activate"):
 				return &usageError{errors.New("--activate applies to the dienophile of a pair picture")}
+			case !pair && c.Flags().Changed("orientation"):
+				return &usageError{errors.New("--orientation applies to a pair picture")}
+			case opts.rank < 1:
+				return &usageError{fmt.Errorf("--orientation %d: want 1 (preferred) or more", opts.rank)}
 			}
 			if !pair && opts.orbital == "" {
 				opts.orbital = "homo"
@@ -81,6 +87,7 @@ Results are estimates for planning, not safety assessments.`,
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
 	f.StringVar(&opts.name, "name", "", "molecule name for the heading (orbital picture)")
 	f.StringVar(&opts.svg, "svg", "", "write the SVG to this file instead of stdout")
+	f.IntVar(&opts.rank, "orientation", 1, "pair picture: which orientation to draw, 1 = preferred, 2 = runner-up, … (as listed by 'cyclopair pair')")
 	f.BoolVar(&opts.numbers, "numbers", false, "print 1-based atom positions next to the atoms (C1, C2 … as in site names)")
 	return cmd
 }
@@ -269,7 +276,10 @@ func drawPair(opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]by
 	if err != nil {
 		return nil, &inputError{fmt.Errorf("%s + %s: %v", d.SMILES, e.SMILES, err)}
 	}
-	svg, err := draw.Pair(d, e, pair, draw.PairOptions{IDPrefix: "pair", Numbers: opts.numbers})
+	if opts.rank > len(pair.Orientations) {
+		return nil, &usageError{fmt.Errorf("%s + %s: --orientation %d: the analysis found %d orientation(s)", d.SMILES, e.SMILES, opts.rank, len(pair.Orientations))}
+	}
+	svg, err := draw.Pair(d, e, pair, draw.PairOptions{IDPrefix: "pair", Numbers: opts.numbers, Orientation: opts.rank - 1})
 	if err != nil {
 		return nil, &inputError{fmt.Errorf("%s + %s: %v", d.SMILES, e.SMILES, err)}
 	}

@@ -70,6 +70,19 @@ func TestDrawPairCLIFile(t *testing.T) {
 	}
 }
 
+// TestDrawRunnerUp draws the second orientation of isoprene + methyl acrylate: the caption
+// names it as not preferred.
+func TestDrawRunnerUp(t *testing.T) {
+	code, out, errs := drawRun("draw", "--diene", "isoprene", "--dienophile", "methyl-acrylate", "--orientation", "2")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	xmlOK(t, out)
+	if !strings.Contains(out, "Orientation 2 of") || !strings.Contains(out, "(not preferred)") {
+		t.Error("runner-up picture does not say which orientation it shows")
+	}
+}
+
 func TestDrawErrors(t *testing.T) {
 	for _, tc := range []struct {
 		args []string
@@ -82,6 +95,8 @@ func TestDrawErrors(t *testing.T) {
 		{[]string{"draw", "--diene", "C=CC=C"}, "needs both"},
 		{[]string{"draw", "C=C", "--diene", "C=CC=C", "--dienophile", "C=C"}, "not both"},
 		{[]string{"draw", "--diene", "C=CC=C", "--dienophile", "C=C", "--activate", "lewis"}, "--activate lewis"},
+		{[]string{"draw", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--orientation", "9"}, "found"},
+		{[]string{"draw", "C=C", "--orientation", "2"}, "applies to a pair picture"},
 	} {
 		code, out, errs := drawRun(tc.args...)
 		if code != exitUsage {

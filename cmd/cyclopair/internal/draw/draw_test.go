@@ -213,7 +213,7 @@ func TestPairClearance(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		g, err := pairGeometry(d, e, p)
+		g, err := pairGeometry(d, e, p, 0)
 		if err != nil {
 			t.Fatal(err)
 		}

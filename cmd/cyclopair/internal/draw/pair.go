@@ -17,7 +17,10 @@ var ErrNoOrientation = errors.New("pair has no reacting orientation")
 // PairOptions describe a pair picture.
 type PairOptions struct {
 	IDPrefix string // prefix for ids inside the SVG; sanitised
-	Numbers  bool   // print 1-based atom positions (C1, C2 … as in the site names)
+	// Orientation selects which entry of Pair.Orientations to draw (0, the default, is the
+	// preferred one; the list is ranked best first).
+	Orientation int
+	Numbers     bool // print 1-based atom positions (C1, C2 … as in the site names)
 }
 
 // approach is the distance between the diene termini line and the dienophile's reacting bond,
@@ -29,7 +32,8 @@ const approach = 2.2
 // dienophile in the pair picture, bond lengths.
 const clearance = 1.0
 
-// Pair draws the preferred orientation of p (p.Orientations[0]): the 4π partner on top with
+// Pair draws one orientation of p (the preferred one, p.Orientations[0], unless
+// o.Orientation says otherwise): the 4π partner on top with
 // its reacting termini facing down, the 2π partner below with its reacting bond parallel, the
 // two forming bonds dashed, the endo secondary contact dotted with a label, and the frontier
 // lobes of the controlling pairing (HOMO of the diene and LUMO of the dienophile for normal
@@ -43,7 +47,10 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	if len(p.Orientations) == 0 {
 		return nil, ErrNoOrientation
 	}
-	or := p.Orientations[0]
+	if o.Orientation < 0 || o.Orientation >= len(p.Orientations) {
+		return nil, fmt.Errorf("%w: orientation %d requested, the analysis has %d (1 to %d)", ErrNoOrientation, o.Orientation+1, len(p.Orientations), len(p.Orientations))
+	}
+	or := p.Orientations[o.Orientation]
 	if len(or.DieneAtoms) < 3 || len(or.DienophileAtoms) != 2 {
 		return nil, fmt.Errorf("%w: reacting units %v and %v", ErrNoOrientation, or.DieneAtoms, or.DienophileAtoms)
 	}
@@ -51,7 +58,7 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	cv := newCanvas()
 	cv.defs.WriteString(hatchDef(id))
 
-	g, err := pairGeometry(diene, dienophile, p)
+	g, err := pairGeometry(diene, dienophile, p, o.Orientation)
 	if err != nil {
 		return nil, err
 	}
@@ -130,8 +137,8 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	}
 	lines := []string{
 		pairing + gapText(gap, p.Calibration),
-		fmt.Sprintf("Preferred: %s%s, stabilisation %s |β|; regio margin %s |β| (%s); endo: %s",
-			or.Site, labelSuffix(or.Label), fixed(or.Stabilization, 4), fixed(p.RegioMargin, 4), orDash(p.RegioConfidence), orDash(p.Endo)),
+		fmt.Sprintf("%s: %s%s, stabilisation %s |β|; regio margin %s |β| (%s); endo: %s",
+			rankWord(o.Orientation, len(p.Orientations)), or.Site, labelSuffix(or.Label), fixed(or.Stabilization, 4), fixed(p.RegioMargin, 4), orDash(p.RegioConfidence), orDash(p.Endo)),
 		"Dashed: the two forming σ bonds (diene atom to dienophile atom as in the product). Parameters: " + orDash(p.Params) +
 			", forming-bond β " + fixed(p.FormingBeta, 2),
 	}
@@ -151,6 +158,14 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	}
 	legend(cv, 0, y+4, id, dLevel.Degenerate || eLevel.Degenerate)
 	return cv.finish(title), nil
+}
+
+// rankWord names the orientation drawn: "Preferred" for the best, else its rank.
+func rankWord(k, n int) string {
+	if k == 0 {
+		return "Preferred"
+	}
+	return fmt.Sprintf("Orientation %d of %d (not preferred)", k+1, n)
 }
 
 func labelSuffix(l string) string {
@@ -400,8 +415,8 @@ type pairGeo struct {
 	dWord, eWord   string
 }
 
-func pairGeometry(diene, dienophile *fmo.Partner, p *fmo.Pair) (*pairGeo, error) {
-	or := p.Orientations[0]
+func pairGeometry(diene, dienophile *fmo.Partner, p *fmo.Pair, k int) (*pairGeo, error) {
+	or := p.Orientations[k]
 	normal := p.Demand == "normal" || p.Demand == "neutral" && p.GapNormal.Beta <= p.GapInverse.Beta
 	dLevel, eLevel := p.DieneHOMO, p.DienophileLUMO
 	dWord, eWord := "HOMO", "LUMO"
