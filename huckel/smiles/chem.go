@@ -165,12 +165,11 @@ func (p *parser) kekuliseAll() bool {
 			need[i] = true
 		}
 	}
-	needCopy := append([]bool(nil), need...) // kekulise's scratch may reuse need's memory
-	unmatched := kekulise(m, need, &p.sc)
+	unmatched := kekulise(m, need, &p.sc) // reads need, does not change it
 	if unmatched >= 0 {
 		a := m.Atoms[unmatched]
 		why := ""
-		if k := systemSize(m, needCopy, unmatched); k%2 == 1 {
+		if k := systemSize(m, need, unmatched); k%2 == 1 {
 			why = fmt.Sprintf("; %d atoms of this ring system need one, an odd number", k)
 		}
 		p.errorf(a.Pos, ErrKekulize, kekuleHint(a),
@@ -386,7 +385,7 @@ func (g *matchGraph) perfect() bool {
 	if free == 0 {
 		return true
 	}
-	e := newEdmonds(g)
+	e := newEdmonds(*g)
 	for v := 0; v < n && free > 1; v++ {
 		if g.mate[v] < 0 && e.augment(v) {
 			free -= 2
@@ -449,13 +448,13 @@ func (g *matchGraph) greedy() {
 
 // edmonds holds the work arrays of the blossom search.
 type edmonds struct {
-	g                     *matchGraph
+	g                     matchGraph
 	parent, base          []int
 	used, blossom, onPath []bool
 	queue                 []int
 }
 
-func newEdmonds(g *matchGraph) *edmonds {
+func newEdmonds(g matchGraph) *edmonds {
 	n := g.n
 	ints := make([]int, 2*n)
 	bools := make([]bool, 3*n)

@@ -32,8 +32,8 @@
 // beyond the largest it is ErrValence.
 //
 // Parse is safe for concurrent use; it keeps per-call work space in a sync.Pool, so the
-// only allocations are those of the returned molecule (six or seven for a typical
-// substrate).
+// only allocations are those of the returned molecule (six: the Molecule, its Atoms and
+// Bonds, and three for the adjacency lists).
 //
 // # Failure modes
 //
