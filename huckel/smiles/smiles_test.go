@@ -452,3 +452,41 @@ func checkError(t testing.TB, s string, e *Error) {
 	_ = e.Error()
 	_ = e.Excerpt()
 }
+
+// TestParseConcurrent runs Parse from several goroutines at once (the pooled work space
+// must not leak between calls); run with -race to check.
+func TestParseConcurrent(t *testing.T) {
+	inputs := readInputs(t)
+	want := make([]string, len(inputs))
+	for i, s := range inputs {
+		if m, err := Parse(s); err == nil {
+			want[i] = Write(m)
+		} else {
+			want[i] = "!" + err.Error()
+		}
+	}
+	done := make(chan string, 4)
+	for g := 0; g < 4; g++ {
+		go func(g int) {
+			for k := range inputs {
+				i := (k*7 + g*13) % len(inputs)
+				got := ""
+				if m, err := Parse(inputs[i]); err == nil {
+					got = Write(m)
+				} else {
+					got = "!" + err.Error()
+				}
+				if got != want[i] {
+					done <- fmt.Sprintf("%s: %q, want %q", inputs[i], got, want[i])
+					return
+				}
+			}
+			done <- ""
+		}(g)
+	}
+	for g := 0; g < 4; g++ {
+		if msg := <-done; msg != "" {
+			t.Error(msg)
+		}
+	}
+}
