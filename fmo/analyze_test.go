@@ -652,3 +652,35 @@ func TestLocalizationEnergies(t *testing.T) {
 		}
 	}
 }
+
+func TestHeteroDielsAlder(t *testing.T) {
+	cases := []struct {
+		diene, dienophile string
+		want              string // the adduct, canonical SMILES compared
+		source            string
+	}{
+		// α,β-unsaturated ketone as 4π hetero-diene with an enol ether: 2-alkoxy-3,4-dihydro-2H-
+		// pyran, the alkoxy carbon bonded to the ring O.
+		{"C=CC(=O)C", "C=COCC", "CCOC1CCC=C(C)O1",
+			"Longley & Emerson, J. Am. Chem. Soc. 1950, 72, 3079 (vinyl ethers + enones); from memory"},
+		// Acrolein dimer: 3,4-dihydro-2H-pyran-2-carbaldehyde (one acrolein as hetero-diene, the
+		// other through its C=C, CHO on the carbon next to the ring O).
+		{"C=CC=O", "C=CC=O", "O=CC1CCC=CO1",
+			"Alder, Offermanns & Rüden, Chem. Ber. 1941, 74, 905 (acrolein dimerisation); from memory"},
+	}
+	for _, c := range cases {
+		p, _, _ := mustAnalyze(t, c.diene, c.dienophile)
+		got, err := smiles.Parse(p.Orientations[0].Product)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := smiles.Parse(c.want)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if smiles.Canonical(got) != smiles.Canonical(want) {
+			t.Errorf("%s + %s: preferred adduct %s; want %s [%s]", c.diene, c.dienophile, p.Orientations[0].Product, c.want, c.source)
+		}
+		checkProducts(t, p, 6)
+	}
+}
