@@ -185,7 +185,7 @@ type engineConfig struct {
 	Ranked  bool  // rank by key; otherwise stream in pair order
 	Top     int   // keep at most Top rows (0 = all)
 	Lo, Hi  int64 // pair index range
-	Chunk   int   // pairs per work unit (default 1024)
+	Chunk   int   // pairs per work unit (default 1024 ranked, 32 streamed)
 	// Progress, if not nil, is called from worker goroutines with the number of pairs just
 	// scored; it must be safe for concurrent use.
 	Progress func(n int64)
@@ -220,7 +220,15 @@ func engineRun(ctx context.Context, job screenJob, cfg engineConfig,
 		cfg.Workers = runtime.GOMAXPROCS(0)
 	}
 	if cfg.Chunk <= 0 {
+		// Ranked runs only score in phase 1: big chunks keep synchronisation out of the
+		// kernel's way. The unranked stream runs the full analysis (tens of µs and a few
+		// hundred kB of garbage per pair) on every passing pair of a chunk, and up to
+		// 2·Workers chunks are in flight: small chunks keep that memory and the work done
+		// past a --top cut small.
 		cfg.Chunk = 1024
+		if !cfg.Ranked {
+			cfg.Chunk = 32
+		}
 	}
 	if cfg.Hi < cfg.Lo {
 		panic("fmo: engineRun with Hi < Lo")
