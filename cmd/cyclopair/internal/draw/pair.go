@@ -35,7 +35,7 @@ const clearance = 1.0
 // Pair draws one orientation of p (the preferred one, p.Orientations[0], unless
 // o.Orientation says otherwise): the 4π partner on top with
 // its reacting termini facing down, the 2π partner below with its reacting bond parallel, the
-// two forming bonds dashed, the endo secondary contact dotted with a label, and the frontier
+// two forming bonds dashed, the endo secondary contact dotted, and the frontier
 // lobes of the controlling pairing (HOMO of the diene and LUMO of the dienophile for normal
 // demand, the other two for inverse demand, the smaller gap for neutral demand). The
 // molecules drawn are the ones whose orbitals were used (an activated dienophile is drawn
@@ -66,7 +66,6 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 	a, d, e := g.a, g.d, g.e
 	sec, secDiene := g.sec, g.secDiene
 	normal, dLevel, eLevel, dWord, eWord := g.normal, g.dLevel, g.eLevel, g.dWord, g.eWord
-	_ = g.f
 
 	// headings and frames
 	const headH = 24.0
@@ -103,7 +102,7 @@ func Pair(diene, dienophile *fmo.Partner, p *fmo.Pair, o PairOptions) ([]byte, e
 		cv.line(x1, y1, x2, y2, `stroke="#ffffff" stroke-width="4.5" stroke-linecap="butt"`) // halo over lobes
 		cv.line(x1, y1, x2, y2, `stroke="`+ink+`" stroke-width="2" stroke-dasharray="7 4" stroke-linecap="butt"`)
 	}
-	// endo secondary contact, dotted, with its label
+	// endo secondary contact, dotted (described in the caption)
 	endoLabel := ""
 	if sec >= 0 && secDiene >= 0 && p.Endo != "no" {
 		x1, y1 := top.px(secDiene)
