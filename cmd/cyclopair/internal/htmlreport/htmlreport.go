@@ -420,32 +420,22 @@ func (w *Writer) pictures(p *fmo.Pair, id string) ([]fig, error) {
 	} else {
 		return out, err
 	}
+	frontiers := [2][2]fmo.Frontier{{q.DieneHOMO, q.DieneLUMO}, {q.DienophileHOMO, q.DienophileLUMO}}
 	for k, part := range []*fmo.Partner{d, e} {
-		for _, which := range []string{"HOMO", "LUMO"} {
-			lv := part.Orb.HOMO
-			fr := q.DieneHOMO
-			switch {
-			case k == 0 && which == "LUMO":
-				fr = q.DieneLUMO
-			case k == 1 && which == "HOMO":
-				fr = q.DienophileHOMO
-			case k == 1 && which == "LUMO":
-				fr = q.DienophileLUMO
-			}
-			lv = fr.Index
+		for j, which := range []string{"HOMO", "LUMO"} {
+			lv := frontiers[k][j].Index
 			if lv < 0 || lv >= len(part.Orb.Levels) {
 				continue
 			}
-			name := part.Name
 			svg, err := draw.Orbital(part.Orb, lv, draw.OrbitalOptions{
-				Name: name, SMILES: part.SMILES, Which: which, Params: opts.Params.Name,
+				Name: part.Name, SMILES: part.SMILES, Which: which, Params: opts.Params.Name,
 				Calibration: opts.Calibration, CalName: opts.CalibrationName,
 				IDPrefix: fmt.Sprintf("%so%d%s", id, k, which),
 			})
 			if err != nil {
 				return out, err
 			}
-			out = append(out, fig{"small", which + " of " + nameOr(name, part.SMILES), svg})
+			out = append(out, fig{"small", which + " of " + nameOr(part.Name, part.SMILES), svg})
 		}
 	}
 	return out, nil
