@@ -195,3 +195,35 @@ func TestScreenCancel(t *testing.T) {
 		}
 	}
 }
+
+// pin in a substrate file selects the reacting unit: hexatriene has two diene units
+// (C1–C4 and C3–C6); pinning map numbers 3 and 6 leaves only the second.
+func TestScreenPin(t *testing.T) {
+	src := `dienes:
+  - {name: free, smiles: "C=CC=CC=C"}
+  - {name: pinned, smiles: "C=C[CH:3]=C[CH:5]=[CH2:6]", pin: [3, 6]}
+dienophiles:
+  - {name: ethylene, smiles: C=C}
+`
+	lib, bad, err := ParseLibrary([]byte(src), LoadOptions{Name: "pin.yaml"})
+	if err != nil || len(bad) > 0 {
+		t.Fatal(err, bad)
+	}
+	if got := lib.Dienes[1].Mol.AtomByMap(5); len(got) != 0 {
+		t.Errorf("map 5 (not pinned) still set on atoms %v", got)
+	}
+	p, err := Prepare(context.Background(), lib, screenOpts(t), 1, nil)
+	if err != nil || len(p.Failures) > 0 {
+		t.Fatal(err, p.Failures)
+	}
+	free, pinned := p.Dienes[0], p.Dienes[1]
+	if len(free.Units) < 2 {
+		t.Fatalf("hexatriene has %d diene units, want 2", len(free.Units))
+	}
+	if len(pinned.Units) != 1 || !pinned.Units[0].Pinned {
+		t.Fatalf("pinned partner units %+v", pinned.Units)
+	}
+	if a, b := pinned.Units[0].Termini(); !(a == 2 && b == 5 || a == 5 && b == 2) {
+		t.Errorf("pinned unit termini %d,%d; want atoms 2 and 5", a, b)
+	}
+}
