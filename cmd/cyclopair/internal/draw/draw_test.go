@@ -281,3 +281,98 @@ func TestLobeAreaIsDensity(t *testing.T) {
 		}
 	}
 }
+
+// TestEveryPresetSubstrate draws the HOMO and LUMO of every built-in substrate and checks each
+// picture is well-formed and its molecule meets the layout contract (no atoms closer than
+// half a bond).
+func TestEveryPresetSubstrate(t *testing.T) {
+	p, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, sub := range presets.Substrates() {
+		m, err := smiles.Parse(sub.SMILES)
+		if err != nil {
+			t.Errorf("%s: %v", sub.Name, err)
+			continue
+		}
+		pi, err := huckel.Perceive(m, p)
+		if err != nil || len(pi.Centres) == 0 {
+			continue // not every substrate need have a π system the perceiver accepts
+		}
+		o, err := huckel.Solve(pi)
+		if err != nil {
+			t.Errorf("%s: %v", sub.Name, err)
+			continue
+		}
+		for _, lv := range []int{o.HOMO, o.LUMO} {
+			if lv < 0 {
+				continue
+			}
+			svg, err := Orbital(o, lv, OrbitalOptions{Name: sub.Name, SMILES: sub.SMILES, Which: "level"})
+			if err != nil {
+				t.Errorf("%s: %v", sub.Name, err)
+				continue
+			}
+			wellFormed(t, svg)
+			n++
+		}
+	}
+	if n < 20 {
+		t.Errorf("only %d pictures drawn from the presets", n)
+	}
+}
+
+// TestDemoPairs draws the preferred orientation of every diene × dienophile × activation of
+// the demo scenario's substrates and checks the partners never overlap.
+func TestDemoPairs(t *testing.T) {
+	p, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	opts := fmo.NewOptions(p, nil, "")
+	var dienes, dienophiles []*fmo.Partner
+	for _, sub := range presets.Substrates() {
+		switch sub.Role {
+		case "diene", "dipole":
+			if d, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDiene, opts); err == nil {
+				dienes = append(dienes, d)
+			}
+		case "dienophile":
+			if e, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDienophile, opts); err == nil {
+				dienophiles = append(dienophiles, e)
+			}
+		}
+	}
+	drawn := 0
+	for _, d := range dienes {
+		for _, e0 := range dienophiles {
+			for _, mode := range fmo.Modes() {
+				e, err := e0.WithActivation(mode, nil, opts)
+				if err != nil {
+					continue // mode has nothing to act on
+				}
+				pr, err := fmo.Analyze(d, e, opts)
+				if err != nil || len(pr.Orientations) == 0 {
+					continue
+				}
+				svg, err := Pair(d, e, pr, PairOptions{})
+				if err != nil {
+					t.Errorf("%s + %s (%s): %v", d.Name, e.Name, mode, err)
+					continue
+				}
+				wellFormed(t, svg)
+				g, _ := pairGeometry(d, e, pr, 0)
+				if md := minDist(g.top.pos, g.bot.pos); md < clearance-1e-9 {
+					t.Errorf("%s + %s (%s): partners %.2f apart", d.Name, e.Name, mode, md)
+				}
+				drawn++
+			}
+		}
+	}
+	t.Logf("%d pair pictures drawn", drawn)
+	if drawn < 20 {
+		t.Errorf("only %d pair pictures drawn", drawn)
+	}
+}
