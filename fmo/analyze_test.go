@@ -684,3 +684,28 @@ func TestHeteroDielsAlder(t *testing.T) {
 		checkProducts(t, p, 6)
 	}
 }
+
+// TestKnownMissNitroalkeneHeteroDiene records a known miss. Nitroalkenes act as 4π
+// hetero-dienes toward enol ethers, giving 6-alkoxy-5,6-dihydro-4H-1,2-oxazine N-oxides
+// (cyclic nitronates): the nitronate O bonds to the alkoxy-bearing carbon (S. E. Denmark &
+// A. Thorarensen, Chem. Rev. 1996, 96, 137; from memory). With the default parameters the
+// Hückel LUMO of nitroethylene lies at x ≈ +0.32 with more weight on the nitro O (c² ≈ 0.27)
+// than on the β-carbon (c² ≈ 0.20), so the dominant LUMO(diene)–HOMO(enol ether) pairing joins
+// O to the enol ether's CH2 and the 5-alkoxy isomer comes out ahead by a slight margin. The
+// test asserts the miss so that a change in the nitro parameters that fixes it is noticed.
+func TestKnownMissNitroalkeneHeteroDiene(t *testing.T) {
+	p, _, _ := mustAnalyze(t, "C=C[N+](=O)[O-]", "C=COC")
+	best := p.Orientations[0]
+	// diene atoms: C0=C1–N2(=O3)O4; dienophile C0=C1–O2–C3. Observed: O terminus bonded to C1.
+	oTo := -1
+	for _, b := range best.Bonds {
+		if b[0] == 3 || b[0] == 4 {
+			oTo = b[1]
+		}
+	}
+	if oTo == 1 {
+		t.Errorf("nitronate O now bonds to the alkoxy carbon (%s): the known miss is fixed; update this test and the check set", best.Product)
+	} else if oTo != 0 {
+		t.Errorf("unexpected adduct %s", best.Product)
+	}
+}
