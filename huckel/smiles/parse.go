@@ -90,6 +90,13 @@ type ringOpen struct {
 	bond  pendingBond
 }
 
+// closure records a bond made by a ring closure, for the duplicate-bond check.
+type closure struct {
+	bond  int    // index in m.Bonds
+	pos   int    // offset of the closing ring number
+	label string // the ring number as written
+}
+
 type branchOpen struct {
 	atom   int // atom the branch hangs from
 	pos    int // offset of '('
@@ -111,6 +118,7 @@ type parser struct {
 
 	rings    []ringOpen
 	ringBuf  [8]ringOpen
+	closures []closure
 	branches []branchOpen
 	brBuf    [8]branchOpen
 
@@ -138,6 +146,7 @@ func Parse(s string) (*molecule.Molecule, error) {
 	p.rings = p.ringBuf[:0]
 	p.branches = p.brBuf[:0]
 	p.bondSyms = p.bondSyms[:0]
+	p.closures = p.closures[:0]
 	if p.bondSyms == nil {
 		p.bondSyms = p.symBuf[:0]
 	}
@@ -149,7 +158,9 @@ func Parse(s string) (*molecule.Molecule, error) {
 	}
 	if p.scan() && !p.bad {
 		p.m.Reindex()
-		p.chemistry()
+		if p.noDuplicateBonds() {
+			p.chemistry()
+		}
 	}
 	if len(p.errs) > 0 {
 		errs := p.errs
@@ -161,12 +172,12 @@ func Parse(s string) (*molecule.Molecule, error) {
 
 // release clears everything that belongs to the caller and returns p to the pool.
 func (p *parser) release() {
-	sc, syms := p.sc, p.bondSyms
+	sc, syms, cl := p.sc, p.bondSyms, p.closures
 	if cap(syms) > 1<<16 {
-		syms = nil // do not keep huge buffers alive
+		syms, cl = nil, nil // do not keep huge buffers alive
 		sc = scratch{}
 	}
-	*p = parser{sc: sc, bondSyms: syms[:0]}
+	*p = parser{sc: sc, bondSyms: syms[:0], closures: cl[:0]}
 	parserPool.Put(p)
 }
 
@@ -317,6 +328,25 @@ func (p *parser) scan() bool {
 	return true
 }
 
+// noDuplicateBonds reports a ring closure that joins two atoms already bonded (C1C1,
+// C12CCCCC12) and returns false if it found one.
+func (p *parser) noDuplicateBonds() bool {
+	m := p.m
+	for _, c := range p.closures {
+		b := m.Bonds[c.bond]
+		a, other := b.A, b.B
+		if m.Degree(other) < m.Degree(a) {
+			a, other = other, a
+		}
+		for _, e := range m.Neighbors(a) {
+			if e.To == other && e.Bond < c.bond { // report the later bond of the pair
+				return p.fail(c.pos, "two atoms can share only one bond; remove the ring number or use '=' for a double bond", "ring bond %s duplicates an existing bond", c.label)
+			}
+		}
+	}
+	return true
+}
+
 // ringLabel spells a ring-closure number as it would be written.
 func ringLabel(n int) string {
 	switch {
@@ -377,11 +407,9 @@ func (p *parser) ringBond(i int) (int, bool) {
 		if r.atom == p.prev {
 			return i, p.fail(start, "a ring bond must join two different atoms", "ring bond %s closes on the atom that opened it", ringLabel(num))
 		}
-		for _, b := range p.m.Bonds {
-			if (b.A == r.atom && b.B == p.prev) || (b.A == p.prev && b.B == r.atom) {
-				return i, p.fail(start, "two atoms can share only one bond; remove the ring number or use '=' for a double bond", "ring bond %s duplicates an existing bond", ringLabel(num))
-			}
-		}
+		// duplicate bonds are found after the scan, from the adjacency lists (a scan of
+		// all bonds here would make long inputs quadratic)
+		p.closures = append(p.closures, closure{bond: len(p.m.Bonds), pos: start, label: s[start:i]})
 		p.addBond(r.atom, p.prev, sym)
 		return i, true
 	}
