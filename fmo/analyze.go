@@ -128,6 +128,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		GapWeight:           opts.GapWeight,
 		DemandThreshold:     opts.DemandThreshold,
 		ScoreFormula:        ScoreFormula,
+		OrbitalSum:          orbitalSum(opts),
 		SideChannels:        []SideChannel{},
 		Warnings:            []string{},
 		ChargeTermOn:        opts.ChargeTerm,
@@ -234,6 +235,13 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 // ScoreFormula is the ranking formula, reported in every Pair.
 const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
 	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+
+func orbitalSum(o *Options) string {
+	if o.AllOrbitals {
+		return "all-orbital"
+	}
+	return "frontier"
+}
 
 func cycloKind(u Unit) string {
 	if u.Kind == UnitDipole {

@@ -709,3 +709,42 @@ func TestKnownMissNitroalkeneHeteroDiene(t *testing.T) {
 		t.Errorf("unexpected adduct %s", best.Product)
 	}
 }
+
+func TestAllOrbitalsOption(t *testing.T) {
+	o := testOptions(t)
+	o.AllOrbitals = true
+	// Butadiene + ethylene: by symmetry only the frontier pairs couple (ψ1 and ψ4 of
+	// butadiene have c1 = +c4 and c1 = −c4 against ethylene's π* and π respectively, giving
+	// zero), so the all-orbital sum equals the frontier-only closed form.
+	const tol = 1e-12 // |β|
+	d := mustPartner(t, "C=CC=C", RoleDiene, o)
+	e := mustPartner(t, "C=C", RoleDienophile, o)
+	p, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fo := testOptions(t)
+	pf, err := Analyze(d, e, fo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(p.Orientations[0].FrontierTerm-pf.Orientations[0].FrontierTerm) > tol || p.OrbitalSum != "all-orbital" {
+		t.Errorf("butadiene + ethylene all-orbital %.15f (%s); frontier-only %.15f", p.Orientations[0].FrontierTerm, p.OrbitalSum, pf.Orientations[0].FrontierTerm)
+	}
+	// QuickScore follows the option and still agrees with Analyze; regiochemistry of the
+	// textbook cases is unchanged.
+	for _, c := range [][3]string{{"C=CC(C)=C", "C=CC(=O)OC", "para"}, {"COC=CC=C", "C=CC=O", "ortho"}} {
+		d := mustPartner(t, c[0], RoleDiene, o)
+		e := mustPartner(t, c[1], RoleDienophile, o)
+		p, err := Analyze(d, e, o)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if q := QuickScore(d, e, o); math.Abs(q.Best-p.Orientations[0].Score) > tolScore {
+			t.Errorf("%s + %s: quick %.12f, analyze %.12f", c[0], c[1], q.Best, p.Orientations[0].Score)
+		}
+		if p.Orientations[0].Label != c[2] {
+			t.Errorf("%s + %s all-orbital: label %q; want %q (Fleming 1976)", c[0], c[1], p.Orientations[0].Label, c[2])
+		}
+	}
+}

@@ -106,3 +106,24 @@ func TestQuickScoreAllocs(t *testing.T) {
 		t.Errorf("QuickScore allocates %.0f times per call; want 0", n)
 	}
 }
+
+// BenchmarkQuickScoreAllOrbitals is BenchmarkQuickScore with Options.AllOrbitals: the
+// full occupied × empty sum instead of the cached frontier projectors.
+func BenchmarkQuickScoreAllOrbitals(b *testing.B) {
+	o := testOptions(b)
+	o.AllOrbitals = true
+	d := mustPartner(b, "C=CC(C)=C", RoleDiene, o)
+	var es []*Partner
+	for _, s := range []string{"C=CC(=O)OC", "C=CC=O", "O=C1OC(=O)C=C1", "C=CC#N"} {
+		es = append(es, mustPartner(b, s, RoleDienophile, o))
+	}
+	k := NewQuickKernel(o)
+	b.ReportAllocs()
+	n := 0
+	cpu0 := cpuTime()
+	for b.Loop() {
+		k.Score(d, es[n&3])
+		n++
+	}
+	reportPairs(b, n, cpu0)
+}

@@ -146,6 +146,7 @@ type Pair struct {
 	LocalizationWeight  float64    `json:"localization_weight"`          // λ in score = stabilization − λ·localization − w·controlling gap
 	GapWeight           float64    `json:"gap_weight"`                   // w in the same formula
 	ScoreFormula        string     `json:"score_formula"`                // how the ranking score is built
+	OrbitalSum          string     `json:"orbital_sum"`                  // "frontier" (default) or "all-orbital" (Options.AllOrbitals)
 	ChargeTermOn        bool       `json:"charge_term_on"`               // whether the Coulomb term was included
 	RegioThresholds     [2]float64 `json:"regio_thresholds"`             // [clear, slight] on regio_margin / frontier_term of the best
 	EndoThresholds      [2]float64 `json:"endo_thresholds"`              // [yes, weak] on endo_overlap / frontier_term of the preferred

@@ -158,6 +158,17 @@ func (p *Partner) unitData(u Unit) (unitData, error) {
 	d.loc = loc
 	tEnd := len(u.Atoms) - 1
 	d.fast = d.fastUnit(tEnd)
+	for li, lv := range p.Orb.Levels {
+		if lv.Fragment != frag {
+			continue
+		}
+		tl := termLevel{x: lv.X, c0: p.Orb.Coefficient(li, u.Atoms[0]), c1: p.Orb.Coefficient(li, u.Atoms[tEnd])}
+		if lv.Occupancy > 0 {
+			d.fast.occ = append(d.fast.occ, tl)
+		} else {
+			d.fast.emp = append(d.fast.emp, tl)
+		}
+	}
 	return d, nil
 }
 

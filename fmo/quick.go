@@ -89,6 +89,10 @@ func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick 
 	_, f1 := term(sN, r.GapNormal)
 	_, f2 := term(sI, r.GapInverse)
 	r.FirstOrder = f1 || f2
+	if k.allOrbitals {
+		s0, s1 := k.scorePair(dd, ed)
+		r.FirstOrder = s0.firstOrder || s1.firstOrder
+	}
 	r.Endo = k.endoTerm(dd, ed, &diene.endo[bd], &dienophile.endo[be], bo)
 	switch {
 	case r.GapInverse-r.GapNormal >= threshold:

@@ -31,6 +31,7 @@ type kernel struct {
 	gamma, gammaS, locWeight, chargeCoef float64
 	g2                                   float64 // γ²
 	gapWeight                            float64 // w in −w·min(gap_normal, gap_inverse)
+	allOrbitals                          bool    // Options.AllOrbitals
 }
 
 // orientScore is the scored form of one orientation.
@@ -53,6 +54,32 @@ type fastUnit struct {
 	q0, q1 float64    // π charges at the termini
 	loc    float64    // localisation energy, |β|
 	ok     bool       // both frontier sets exist
+	// occ and emp are every occupied and empty level of the unit's π fragment with the
+	// coefficients at the two termini, for Options.AllOrbitals.
+	occ, emp []termLevel
+}
+
+// termLevel is one level's x and its coefficients at the unit's two termini.
+type termLevel struct{ x, c0, c1 float64 }
+
+// sumAll is the all-orbital form of the orbital term for one direction of charge transfer:
+// every occupied level of one partner with every empty level of the other,
+// Σ_ij 2(γ Σ_bonds c c)²/(x_i − x_j), each term with the same first-order cap, for both
+// orientations (t0: terminus 0 bonds terminus 0).
+func (k *kernel) sumAll(occ, emp []termLevel) (t0, t1 float64, firstOrder bool) {
+	for _, a := range occ {
+		for _, b := range emp {
+			g := a.x - b.x
+			v0 := a.c0*b.c0 + a.c1*b.c1
+			v1 := a.c0*b.c1 + a.c1*b.c0
+			e0, f0 := term(k.g2*v0*v0, g)
+			e1, f1 := term(k.g2*v1*v1, g)
+			t0 += e0
+			t1 += e1
+			firstOrder = firstOrder || f0 || f1
+		}
+	}
+	return t0, t1, firstOrder
 }
 
 func (d *unitData) fastUnit(tEnd int) fastUnit {
@@ -84,12 +111,18 @@ func term(s, g float64) (float64, bool) {
 func (k *kernel) scores(d, e *fastUnit) (sc0, sc1 float64) {
 	gN := d.hx - e.lx
 	gI := e.hx - d.lx
-	cN := 2 * d.h[2] * e.l[2]
-	cI := 2 * d.l[2] * e.h[2]
-	n0, _ := term(k.g2*(d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN), gN)
-	i0, _ := term(k.g2*(d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI), gI)
-	n1, _ := term(k.g2*(d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN), gN)
-	i1, _ := term(k.g2*(d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI), gI)
+	var n0, n1, i0, i1 float64
+	if k.allOrbitals {
+		n0, n1, _ = k.sumAll(d.occ, e.emp)
+		i0, i1, _ = k.sumAll(e.occ, d.emp)
+	} else {
+		cN := 2 * d.h[2] * e.l[2]
+		cI := 2 * d.l[2] * e.h[2]
+		n0, _ = term(k.g2*(d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN), gN)
+		i0, _ = term(k.g2*(d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI), gI)
+		n1, _ = term(k.g2*(d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN), gN)
+		i1, _ = term(k.g2*(d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI), gI)
+	}
 	pen := k.locWeight*(d.loc+e.loc) + k.gapWeight*min(gN, gI)
 	sc0 = n0 + i0 - pen
 	sc1 = n1 + i1 - pen
@@ -123,6 +156,19 @@ func (k *kernel) scorePair(d, e *fastUnit) (s0, s1 orientScore) {
 	}
 	fill(&s0, d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN, d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI, e.q0, e.q1)
 	fill(&s1, d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN, d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI, e.q1, e.q0)
+	if k.allOrbitals {
+		n0, n1, fn := k.sumAll(d.occ, e.emp)
+		i0, i1, fi := k.sumAll(e.occ, d.emp)
+		for _, x := range []struct {
+			r    *orientScore
+			n, i float64
+		}{{&s0, n0, i0}, {&s1, n1, i1}} {
+			x.r.normal, x.r.inverse = x.n, x.i
+			x.r.frontier = x.n + x.i
+			x.r.firstOrder = fn || fi
+			x.r.stab = x.r.frontier + x.r.charge
+		}
+	}
 	s0.score, s1.score = k.scores(d, e)
 	return s0, s1
 }

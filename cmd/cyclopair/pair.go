@@ -22,6 +22,7 @@ type pairOptions struct {
 	params            string
 	format            string
 	chargeTerm        bool
+	allOrbitals       bool
 	svg               string  // --svg FILE: also write the energy-level diagram (diagram.go)
 	lewisH            float64 // --lewis-h: h(O=LA) for --activate lewis (0 = the parameter set's)
 	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
@@ -96,6 +97,7 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
 	f.StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines, one object per activation) or html (one self-contained page with pictures)")
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
+	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
 	return cmd
 }
@@ -112,6 +114,7 @@ func runPair(s *streams, opts *pairOptions) error {
 	}
 	fo := fmo.NewOptions(p, cal, cal.Name)
 	fo.ChargeTerm = opts.chargeTerm
+	fo.AllOrbitals = opts.allOrbitals
 	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo)
 	if err != nil {
 		return err
