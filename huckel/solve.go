@@ -26,22 +26,40 @@ const (
 	// convention (the lower centre index wins the tie).
 	SignTieTol = 1e-9
 
-	// OmegaTol is the convergence threshold of the ω-technique: the largest change of any
-	// Coulomb parameter h_i (units of β) between two cycles.
+	// OmegaTol is the convergence threshold of the ω-technique: the iteration stops when
+	// the self-consistency residual max_i |h_i⁰ + ω·q_i − h_i| (units of β) of the last
+	// diagonalisation is below it, where q are the charges computed with the h_i used. The
+	// returned Orbitals are those of that diagonalisation, so Orbitals.H and
+	// Orbitals.Charges satisfy h_i = h_i⁰ + ω·q_i to within OmegaTol.
 	OmegaTol = 1e-7
 
-	// OmegaMaxIter caps the ω-technique cycles; exceeding it returns ErrNoConvergence.
+	// OmegaMaxIter caps the ω-technique cycles (diagonalisations after the first, rejected
+	// trial steps included); exceeding it returns ErrNoConvergence.
 	OmegaMaxIter = 200
 
-	// omegaMix is the damping of the ω iteration: h ← h + omegaMix·(h⁰ + ω·q − h).
-	// Undamped ω iteration oscillates for small cations (allyl, pentadienyl).
+	// omegaMix is the initial linear-mixing weight λ of the ω iteration (see Solver.Solve).
 	omegaMix = 0.5
+	// omegaMixMin is the smallest λ tried: below it no step along the residual lowers it,
+	// which for ω > 0 only happens on a crossing of occupied and empty levels (a kink of
+	// the π energy) and the iteration stops with ErrNoConvergence.
+	omegaMixMin = 1.0 / (1 << 20)
+	// omegaDepth is the number of previous steps Anderson mixing extrapolates over.
+	omegaDepth = 6
+	// omegaDropTol drops a history column from the Anderson least-squares problem when its
+	// residual difference is, to this relative precision, a combination of newer ones.
+	omegaDropTol = 1e-8
+	// omegaCrossGap is the HOMO–LUMO gap (units of β) below which a failed ω iteration is
+	// reported as a crossing of the frontier levels.
+	omegaCrossGap = 1e-3
 )
 
 // Errors returned by Solve.
 var (
-	// ErrNoConvergence reports that the ω-technique did not reach OmegaTol within OmegaMaxIter.
+	// ErrNoConvergence reports that the ω-technique did not reach OmegaTol within
+	// OmegaMaxIter cycles, or that no step along the residual could lower it further.
 	ErrNoConvergence = errors.New("ω-technique did not converge")
+	// ErrOmega reports an ω that is not a finite number.
+	ErrOmega = errors.New("invalid ω")
 	// ErrEigen reports a failure of the symmetric eigensolver (LAPACK dsyev returned ok=false).
 	ErrEigen = errors.New("eigensolver failed")
 	// ErrElectrons reports a fragment with more π electrons than its centres can hold.
@@ -69,7 +87,7 @@ var (
 //     DegenerateSet gives the whole set. SOMO equals HOMO when that level holds fewer
 //     than 2 electrons, else −1.
 //
-// Errors: ErrElectrons (wrapped, naming the fragment), ErrEigen, ErrNoConvergence.
+// Errors: ErrElectrons (wrapped, naming the fragment), ErrEigen, ErrNoConvergence, ErrOmega.
 func Solve(ps *PiSystem) (*Orbitals, error) {
 	var s Solver
 	s.useMat = true
@@ -91,6 +109,7 @@ type Solver struct {
 	q          [1]float64 // workspace-query slot (a local array would escape)
 	loc        []int      // centre -> index inside its fragment
 	h, hNew    []float64  // ω-technique Coulomb parameters
+	omega      omegaWork  // ω-technique mixing workspace
 	proj, tmp  []float64  // degenerate-set basis construction
 	fragE      []int      // electrons per fragment
 	levelX     []float64  // per-fragment scratch: eigenvalues in descending order
@@ -98,6 +117,46 @@ type Solver struct {
 
 // Solve fills into with the solution of ps, reusing into's slices. On error into is left
 // in an unspecified state. See the package-level Solve for the conventions.
+//
+// # ω-technique
+//
+// With ps.Omega = ω ≠ 0 the Coulomb parameters are made self-consistent with the π
+// charges, h_i = h_i⁰ + ω·q_i (Wheland & Mann, J. Chem. Phys. 1949, 17, 264; Streitwieser,
+// Molecular Orbital Theory for Organic Chemists, 1961, ch. 4, who recommends ω = 1.4).
+// Write r(h) = h⁰ + ω·q(h) − h for the residual of a trial h. Plain substitution
+// (h ← h + r) oscillates for zwitterions and small ions: its Jacobian is −ω·Π, Π the
+// atom–atom polarisability matrix, whose largest eigenvalue grows as the HOMO–LUMO gap
+// shrinks (nitrile oxides, nitrones, azides and diazoalkanes have ωμ_max > 1).
+//
+// For ω > 0 there is at most one fixed point, and exactly one unless the solution sits on a
+// crossing of occupied and empty levels. By Hellmann–Feynman ∂E_π/∂h_i = P_ii, so r is the
+// gradient of Φ(h) = Σ_i (h_i⁰ + ω·Z_i)·h_i − ½‖h‖² − ω·E_π(h), with Z_i = Electrons +
+// FormalCharge. E_π = Σ n_j x_j with aufbau occupations is a non-negative combination of
+// sums of the k largest eigenvalues of diag(h) + K, each convex in h (Ky Fan), so Φ is
+// strictly concave and coercive and has one maximiser; where E_π is differentiable there,
+// it is the fixed point. The Jacobian of r, −(I + ω·Π), is negative definite (Π, the
+// Hessian of E_π, is positive semidefinite), so a small enough step along r lowers ‖r‖.
+//
+// The scheme is Anderson mixing (D. G. Anderson, J. ACM 1965, 12, 547; in the form of
+// H. F. Walker & P. Ni, SIAM J. Numer. Anal. 2011, 49, 1715, the same extrapolation as
+// Pulay's DIIS) on h, equivalently on the input charges q_in = (h − h⁰)/ω, with linear
+// mixing weight λ and adaptive damping:
+//
+//	h_{k+1} = h_k + λ·r_k − (ΔH + λ·ΔR)·γ,   γ = argmin ‖r_k − ΔR·γ‖₂
+//
+// where the columns of ΔH and ΔR are the differences of the last omegaDepth accepted
+// h and r (with no history this is linear mixing, q_in ← (1−λ)·q_in + λ·q_out). The
+// least-squares problem is solved by modified Gram–Schmidt QR, dropping near-dependent
+// columns. λ starts at 0.5. A step whose ‖r‖₂ exceeds that of the current point is
+// rejected: λ is halved and the history cleared. The iteration stops when max_i |r_i| <
+// OmegaTol for the diagonalisation just made (whose orbitals are returned, with
+// Orbitals.H the h used and Orbitals.Iterations the cycles spent), or fails with
+// ErrNoConvergence after OmegaMaxIter cycles or when λ falls below omegaMixMin (no step
+// lowers ‖r‖: the charges jump between two occupations across a crossing of occupied and
+// empty levels, so no closed-shell self-consistent solution exists). For a neutral
+// alternant hydrocarbon every q_i is 0 (Coulson–Rushbrooke), r(h⁰) = 0 and no cycle runs.
+//
+// The ω path allocates only while its workspace grows; with ω = 0 nothing of it runs.
 func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
 	n := len(ps.Centres)
 	s.h = growF(s.h, n)
@@ -107,40 +166,184 @@ func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
 	if err := s.checkElectrons(ps); err != nil {
 		return err
 	}
+	if ps.Omega != 0 && (math.IsNaN(ps.Omega) || math.IsInf(ps.Omega, 0)) {
+		return fmt.Errorf("huckel: %w: ω = %g is not a finite number", ErrOmega, ps.Omega)
+	}
 	if err := s.solveOnce(ps, s.h, into); err != nil {
 		return err
 	}
 	into.Iterations = 0
 	if ps.Omega != 0 && n > 0 {
-		s.hNew = growF(s.hNew, n)
-		converged := false
-		for it := 1; it <= OmegaMaxIter; it++ {
-			maxd := 0.0
-			for i := range ps.Centres {
-				target := ps.Centres[i].H + ps.Omega*into.Charges[i]
-				d := target - s.h[i]
-				maxd = max(maxd, math.Abs(d))
-				s.hNew[i] = s.h[i] + omegaMix*d
-			}
-			into.Iterations = it
-			if maxd < OmegaTol {
-				converged = true
-				break
-			}
-			s.h, s.hNew = s.hNew, s.h
-			if err := s.solveOnce(ps, s.h, into); err != nil {
-				return err
-			}
-		}
-		if !converged {
-			return fmt.Errorf("huckel: %w after %d cycles (ω = %g, tolerance %g β)",
-				ErrNoConvergence, OmegaMaxIter, ps.Omega, OmegaTol)
+		if err := s.omegaIterate(ps, into); err != nil {
+			return err
 		}
 	}
 	into.H = growF(into.H, n)
 	copy(into.H, s.h)
 	return nil
 }
+
+// omegaWork is the workspace of the ω-technique mixing, reused across solves.
+type omegaWork struct {
+	r, rNew []float64 // residuals at the current point and at the trial point
+	dh, dr  []float64 // history: omegaDepth columns of length n (ΔH, ΔR), oldest first
+	qr      []float64 // Gram–Schmidt copy of the ΔR columns
+	cols    int       // history columns in use
+	rt      [omegaDepth * omegaDepth]float64
+	gamma   [omegaDepth]float64
+	kept    [omegaDepth]bool
+}
+
+// omegaResidual sets r = h⁰ + ω·q − h from the charges in into and returns max|r| and ‖r‖₂.
+func omegaResidual(ps *PiSystem, h []float64, into *Orbitals, r []float64) (maxAbs, norm2 float64) {
+	for i := range ps.Centres {
+		d := ps.Centres[i].H + ps.Omega*into.Charges[i] - h[i]
+		r[i] = d
+		maxAbs = max(maxAbs, math.Abs(d))
+		norm2 += d * d
+	}
+	return maxAbs, math.Sqrt(norm2)
+}
+
+// omegaIterate runs the ω-technique from the solution of h⁰ already in into (see Solve).
+// On success s.h and into hold the self-consistent solution.
+func (s *Solver) omegaIterate(ps *PiSystem, into *Orbitals) error {
+	n := len(ps.Centres)
+	w := &s.omega
+	w.r, w.rNew = growF(w.r, n), growF(w.rNew, n)
+	w.dh, w.dr, w.qr = growF(w.dh, omegaDepth*n), growF(w.dr, omegaDepth*n), growF(w.qr, omegaDepth*n)
+	w.cols = 0
+	s.hNew = growF(s.hNew, n)
+	rMax, rNorm := omegaResidual(ps, s.h, into, w.r)
+	if rMax < OmegaTol {
+		return nil
+	}
+	lambda := omegaMix
+	for it := 1; it <= OmegaMaxIter; it++ {
+		into.Iterations = it
+		s.andersonStep(n, lambda)
+		if err := s.solveOnce(ps, s.hNew, into); err != nil {
+			return err
+		}
+		newMax, newNorm := omegaResidual(ps, s.hNew, into, w.rNew)
+		if newMax < OmegaTol {
+			s.h, s.hNew = s.hNew, s.h
+			return nil
+		}
+		if !(newNorm <= rNorm) { // also rejects NaN
+			lambda /= 2
+			w.cols = 0
+			if lambda < omegaMixMin {
+				return s.omegaFailure(ps, into, it, rMax, "no step along the residual lowers it")
+			}
+			continue
+		}
+		// Accept: push (Δh, Δr) into the history, oldest column dropped when full.
+		if w.cols == omegaDepth {
+			copy(w.dh, w.dh[n:omegaDepth*n])
+			copy(w.dr, w.dr[n:omegaDepth*n])
+			w.cols--
+		}
+		dh, dr := w.dh[w.cols*n:(w.cols+1)*n], w.dr[w.cols*n:(w.cols+1)*n]
+		for i := 0; i < n; i++ {
+			dh[i] = s.hNew[i] - s.h[i]
+			dr[i] = w.rNew[i] - w.r[i]
+		}
+		w.cols++
+		s.h, s.hNew = s.hNew, s.h
+		w.r, w.rNew = w.rNew, w.r
+		rMax, rNorm = newMax, newNorm
+	}
+	return s.omegaFailure(ps, into, OmegaMaxIter, rMax, "cycle cap reached")
+}
+
+// andersonStep writes the next trial point into s.hNew from s.h, the residual s.omega.r
+// and the history (see Solve).
+func (s *Solver) andersonStep(n int, lambda float64) {
+	w := &s.omega
+	m := w.cols
+	// Modified Gram–Schmidt QR of the ΔR columns; a column whose remainder is below
+	// omegaDropTol of its length is dropped (γ = 0 for it).
+	copy(w.qr[:m*n], w.dr[:m*n])
+	for a := 0; a < m; a++ {
+		qa := w.qr[a*n : (a+1)*n]
+		w.kept[a], w.gamma[a] = false, 0
+		n0 := norm(qa)
+		if n0 == 0 {
+			continue
+		}
+		for b := 0; b < a; b++ {
+			if !w.kept[b] {
+				continue
+			}
+			qb := w.qr[b*n : (b+1)*n]
+			d := dot(qb, qa)
+			w.rt[b*omegaDepth+a] = d
+			for i := range qa {
+				qa[i] -= d * qb[i]
+			}
+		}
+		na := norm(qa)
+		if na <= omegaDropTol*n0 {
+			continue
+		}
+		for i := range qa {
+			qa[i] /= na
+		}
+		w.rt[a*omegaDepth+a] = na
+		w.kept[a] = true
+	}
+	// γ = R⁻¹·Qᵀ·r over the kept columns.
+	for a := m - 1; a >= 0; a-- {
+		if !w.kept[a] {
+			continue
+		}
+		g := dot(w.qr[a*n:(a+1)*n], w.r)
+		for b := a + 1; b < m; b++ {
+			if w.kept[b] {
+				g -= w.rt[a*omegaDepth+b] * w.gamma[b]
+			}
+		}
+		w.gamma[a] = g / w.rt[a*omegaDepth+a]
+	}
+	for i := 0; i < n; i++ {
+		v := s.h[i] + lambda*w.r[i]
+		for a := 0; a < m; a++ {
+			if w.kept[a] {
+				v -= (w.dh[a*n+i] + lambda*w.dr[a*n+i]) * w.gamma[a]
+			}
+		}
+		s.hNew[i] = v
+	}
+}
+
+// omegaFailure builds the ErrNoConvergence error: cycles spent, ω, the smallest residual
+// reached, and whether the frontier levels at that point cross (a partly filled degenerate
+// set of an even-electron system, or a HOMO–LUMO gap below omegaCrossGap).
+func (s *Solver) omegaFailure(ps *PiSystem, into *Orbitals, cycles int, rMax float64, why string) error {
+	cross := ""
+	if err := s.solveOnce(ps, s.h, into); err == nil { // the best point, not the last trial
+		gap, ok := into.Gap()
+		if into.Partial && into.Electrons%2 == 0 {
+			gap, ok = 0, true
+		}
+		if ok && math.Abs(gap) < omegaCrossGap {
+			cross = fmt.Sprintf("; the HOMO and LUMO cross there (gap %.2g |β|), so the charges switch between two occupations and no closed-shell self-consistent solution exists", gap)
+		}
+	}
+	return fmt.Errorf("huckel: %w after %d cycles (ω = %g): %s; residual max|h⁰ + ω·q − h| = %.2g β, tolerance %g β%s",
+		ErrNoConvergence, cycles, ps.Omega, why, rMax, OmegaTol, cross)
+}
+
+func dot(a, b []float64) float64 {
+	s := 0.0
+	for i := range a {
+		s += a[i] * b[i]
+	}
+	return s
+}
+
+func norm(a []float64) float64 { return math.Sqrt(dot(a, a)) }
 
 func (s *Solver) checkElectrons(ps *PiSystem) error {
 	nf := len(ps.Fragments)
