@@ -17,7 +17,7 @@ const bondAlt = 4
 //
 // Method. Atoms are ranked by a Morgan-style refinement (H. L. Morgan, J. Chem. Doc. 5,
 // 107–113, 1965; here in the iterated partition-refinement form): the initial class of an
-// atom is (atomic number, isotope, charge, hydrogens, degree, atom map, smallest ring
+// atom is (degree, atomic number, isotope, charge, hydrogens, atom map, smallest ring
 // through it), and classes are split by the sorted multiset of (neighbour class, bond
 // type, smallest ring through the bond) until stable. Where atoms are still tied, the
 // first tied class is split by individualising each of its atoms in turn and refining
@@ -289,7 +289,8 @@ func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
 				small = s
 			}
 		}
-		r.keys[i] = [7]int{AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, m.Degree(i), a.Map, small}
+		// degree first, so the string starts at a terminal atom (CC(=O)..., O=C1...)
+		r.keys[i] = [7]int{m.Degree(i), AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, a.Map, small}
 	}
 	ints := make([]int, 3*n)
 	r.order, r.newRank, r.count = ints[:n], ints[n:2*n], ints[2*n:]

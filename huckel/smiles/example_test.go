@@ -76,5 +76,5 @@ func ExampleCanonical() {
 	fmt.Println(smiles.Canonical(a))
 	// Output:
 	// true
-	// C1(=O)C2C(C3C=CC2C3)C(=O)N1C1=CC=CC=C1
+	// O=C1C2C3C=CC(C3)C2C(=O)N1C1=CC=CC=C1
 }
