@@ -208,7 +208,7 @@ func rankByText(key string) string {
 	case "regio_margin":
 		return "regio_margin (margin of the best regio-orientation, largest first)"
 	case "score":
-		return "score (see README: stabilization of the best orientation, largest first)"
+		return "score (stabilization − λ·localization of the best orientation, largest first)"
 	}
 	return key
 }
