@@ -6,14 +6,16 @@ import (
 	"strings"
 	"text/tabwriter"
 
+	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 )
 
 // pairTableRows is how many orientations the table shows; JSON always has all of them.
 const pairTableRows = 10
 
-// pairCaution closes every human-readable pair report.
-const pairCaution = "caution: results are estimates for planning, not safety assessments; check the SDS, a hazard review and local rules before lab work."
+// pairCaution closes every human-readable pair report: the project's one caution sentence
+// (render.Caution), so every output says the same.
+const pairCaution = "caution: " + render.Caution
 
 func yesNo(b bool) string {
 	if b {
