@@ -398,6 +398,9 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 
 	space := prep.Space()
 	lo, hi := shard.Range(space.Len())
+	if lib.Top == 0 && hi-lo > 100_000 {
+		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
+	}
 	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
 	var pairFailures []error
 	st, runErr := prep.Screen(ctx, fmo.ScreenOptions{
