@@ -748,3 +748,35 @@ func TestAllOrbitalsOption(t *testing.T) {
 		}
 	}
 }
+
+func TestConcurrentUse(t *testing.T) {
+	// Partners are immutable after construction: many goroutines may analyse and score them
+	// at once (run with -race to check).
+	o := testOptions(t)
+	d := mustPartner(t, "C=CC(C)=C", RoleDiene, o)
+	e := mustPartner(t, "C=CC(=O)OC", RoleDienophile, o)
+	want, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan string, 8)
+	for g := 0; g < 8; g++ {
+		go func() {
+			p, err := Analyze(d, e, o)
+			q := QuickScore(d, e, o)
+			switch {
+			case err != nil:
+				done <- err.Error()
+			case p.Orientations[0].Product != want.Orientations[0].Product || q.Best != want.Orientations[0].Score:
+				done <- "result differs between goroutines"
+			default:
+				done <- ""
+			}
+		}()
+	}
+	for g := 0; g < 8; g++ {
+		if msg := <-done; msg != "" {
+			t.Error(msg)
+		}
+	}
+}
