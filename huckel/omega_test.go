@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/smiles"
 
 	"gonum.org/v1/gonum/floats/scalar"
 )
@@ -284,4 +285,45 @@ func BenchmarkOmega(b *testing.B) {
 			b.ReportMetric(float64(cycles), "cycles")
 		})
 	}
+}
+
+// FuzzOmega runs arbitrary SMILES through the ω-technique (ω = 1.4): nothing may panic, and
+// a returned solution satisfies the fixed-point condition h_i = h_i⁰ + ω·q_i within
+// OmegaTol; the only admissible failure of the iteration is ErrNoConvergence.
+func FuzzOmega(f *testing.F) {
+	for _, tc := range omegaCases {
+		f.Add(tc.smiles)
+	}
+	for _, s := range []string{"C=CC=C", "c1ccncc1", "C=CC=O", "O=C1C=CC(=O)C=C1", "C=C[CH2]",
+		"[CH2]C(=C)[CH2]", "c1ccc2cccc2cc1", "[O-][N+](=Cc1ccccc1)c1ccccc1", "C=CC=CC=[N+](C)C",
+		"[N-]=[N+]=[N-]", "N#N", "[C-]#[O+]", "C1=CC=CC=CC=C1", "[CH-]1C=CC=CC=C1", "C1=C[CH+]1"} {
+		f.Add(s)
+	}
+	p := defaultParams(f)
+	f.Fuzz(func(t *testing.T, s string) {
+		m, err := smiles.Parse(s)
+		if err != nil {
+			return
+		}
+		ps, err := huckel.Perceive(m, p)
+		if err != nil || len(ps.Centres) > 100 {
+			return
+		}
+		ps.Omega = omegaStd
+		o, err := huckel.Solve(ps)
+		if errors.Is(err, huckel.ErrNoConvergence) {
+			if !strings.Contains(err.Error(), "ω = 1.4") {
+				t.Fatalf("%q: message without ω: %v", s, err)
+			}
+			return
+		}
+		if err != nil {
+			return // electron-count errors are Solve's, not the ω iteration's
+		}
+		for i, c := range ps.Centres {
+			if d := math.Abs(o.H[i] - c.H - omegaStd*o.Charges[i]); !(d <= tolSelf) {
+				t.Fatalf("%q centre %d: |h − h⁰ − ω·q| = %g > %g", s, i, d, tolSelf)
+			}
+		}
+	})
 }
