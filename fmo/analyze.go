@@ -189,6 +189,10 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	switch {
 	case best.o.Kind != "[4+2]":
 		pair.Endo = "no"
+		pair.EndoNote = "1,3-dipolar cycloaddition: no secondary-orbital term is computed"
+	case !endoDistinct(dienophile, dienophile.Units[best.ei]):
+		pair.Endo = "no"
+		pair.EndoNote = "no endo/exo question: no dienophile terminus carries exactly one conjugated substituent"
 	case endoRel >= opts.EndoYes:
 		pair.Endo = "yes"
 	case endoRel >= opts.EndoWeak:
@@ -235,6 +239,29 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 // ScoreFormula is the ranking formula, reported in every Pair.
 const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
 	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+
+// endoDistinct reports whether endo and exo approaches of the 2π unit differ at all: some
+// terminus must carry exactly one conjugated substituent (a one-electron π centre outside
+// the unit), so that one group or the other lies under the diene. Tetracyanoethylene (two
+// cyano groups on each carbon) and ethylene have no endo/exo question.
+func endoDistinct(p *Partner, u Unit) bool {
+	for i, x := range u.Atoms {
+		y := u.Atoms[1-i]
+		n := 0
+		for _, e := range p.Mol.Neighbors(x) {
+			if e.To == y {
+				continue
+			}
+			if c := p.Pi.CentreOf(e.To); c >= 0 && oneElectron(p.Pi.Centres[c]) {
+				n++
+			}
+		}
+		if n == 1 {
+			return true
+		}
+	}
+	return false
+}
 
 func orbitalSum(o *Options) string {
 	if o.AllOrbitals {

@@ -302,6 +302,12 @@ func TestEndo(t *testing.T) {
 	if p.Endo != "no" || p.Orientations[0].EndoOverlap != 0 {
 		t.Errorf("cyclopentadiene + ethylene: endo %q overlap %g; want no, 0", p.Endo, p.Orientations[0].EndoOverlap)
 	}
+	// Tetracyanoethylene: each carbon carries two cyano groups, so endo and exo approaches are
+	// the same; the verdict is "no" with a note, whatever the secondary term.
+	p, _, _ = mustAnalyze(t, "C1=CC=CC1", "N#CC(C#N)=C(C#N)C#N")
+	if p.Endo != "no" || p.EndoNote == "" {
+		t.Errorf("cyclopentadiene + TCNE: endo %q note %q; want no with a note", p.Endo, p.EndoNote)
+	}
 }
 
 func TestDemand(t *testing.T) {

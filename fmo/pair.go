@@ -125,11 +125,12 @@ type Pair struct {
 	DienophileHOMO Frontier `json:"dienophile_homo"`
 	DienophileLUMO Frontier `json:"dienophile_lumo"`
 
-	Orientations    []Orientation `json:"orientations"`     // best first
-	RegioMargin     float64       `json:"regio_margin"`     // stabilization(best) − stabilization(best of the other regio-orientation at the same sites), |β|
-	SiteMargin      float64       `json:"site_margin"`      // stabilization(best) − best at another site combination, |β| (0 if only one)
-	RegioConfidence string        `json:"regio_confidence"` // "clear" | "slight" | "no preference"
-	Endo            string        `json:"endo"`             // "yes" | "weak" | "no": endo favoured by secondary overlap
+	Orientations    []Orientation `json:"orientations"`        // best first
+	RegioMargin     float64       `json:"regio_margin"`        // stabilization(best) − stabilization(best of the other regio-orientation at the same sites), |β|
+	SiteMargin      float64       `json:"site_margin"`         // stabilization(best) − best at another site combination, |β| (0 if only one)
+	RegioConfidence string        `json:"regio_confidence"`    // "clear" | "slight" | "no preference"
+	Endo            string        `json:"endo"`                // "yes" | "weak" | "no": endo favoured by secondary overlap
+	EndoNote        string        `json:"endo_note,omitempty"` // why the verdict is "no" without looking at the number, when that is so
 
 	Allowed       bool   `json:"allowed"`        // supra–supra thermal pairing symmetry-allowed
 	AllowedReason string `json:"allowed_reason"` // from the frontier phases at the termini

@@ -63,8 +63,12 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	if p.SiteMargin > 0 {
 		fmt.Fprintf(w, "site margin: %.5f |β| to the best different adduct at other reacting units\n", p.SiteMargin)
 	}
-	fmt.Fprintf(w, "endo: %s (secondary term %.5f |β| = %s of the frontier term; yes ≥ %.0f%%, weak ≥ %.0f%%; γ_s = %.2f β)\n",
-		p.Endo, best.EndoOverlap, rel(best.EndoOverlap), 100*p.EndoThresholds[0], 100*p.EndoThresholds[1], p.SecondaryBeta)
+	if p.EndoNote != "" {
+		fmt.Fprintf(w, "endo: %s (%s)\n", p.Endo, p.EndoNote)
+	} else {
+		fmt.Fprintf(w, "endo: %s (secondary term %.5f |β| = %s of the frontier term; yes ≥ %.0f%%, weak ≥ %.0f%%; γ_s = %.2f β)\n",
+			p.Endo, best.EndoOverlap, rel(best.EndoOverlap), 100*p.EndoThresholds[0], 100*p.EndoThresholds[1], p.SecondaryBeta)
+	}
 	charge := "off"
 	if p.ChargeTermOn {
 		charge = "on"
