@@ -36,12 +36,15 @@
 // DegeneracyTol within a fragment) given a deterministic basis, a fixed sign rule,
 // aufbau filling per fragment with equal fractional occupancy of a partly filled
 // degenerate shell (Orbitals.Partial). gonum has no subset or sparse eigensolver: every
-// solve is a dense O(n³) diagonalisation of each fragment.
+// solve is a dense O(n³) diagonalisation of each fragment. With PiSystem.Omega ≠ 0 the
+// ω-technique makes h self-consistent with the charges by Anderson mixing with adaptive
+// damping (scheme, tolerance OmegaTol and cap OmegaMaxIter on Solver.Solve); it fails
+// with ErrNoConvergence only when the frontier levels cross.
 //
 // # Failure modes
 //
 // Bad data (a parameter file, an unsupported atom, more electrons than a fragment can
-// hold, an ω iteration that does not converge) returns an error that wraps one of the
+// hold, an ω iteration that does not converge, a non-finite ω) returns an error that wraps one of the
 // package's sentinel errors. Programmer misuse (out-of-range indices, inconsistent
 // fragments in a hand-built PiSystem) panics. Nothing here reads files or the terminal.
 //
