@@ -38,8 +38,8 @@
 // degenerate shell (Orbitals.Partial). gonum has no subset or sparse eigensolver: every
 // solve is a dense O(n³) diagonalisation of each fragment. With PiSystem.Omega ≠ 0 the
 // ω-technique makes h self-consistent with the charges by Anderson mixing with adaptive
-// damping (scheme, tolerance OmegaTol and cap OmegaMaxIter on Solver.Solve); it fails
-// with ErrNoConvergence only when the frontier levels cross.
+// damping (scheme, tolerance OmegaTol and cap OmegaMaxIter on Solver.Solve); it returns
+// ErrNoConvergence at the cap or when no step lowers the residual (crossing frontier levels).
 //
 // # Failure modes
 //
