@@ -59,7 +59,8 @@ and local rules before any lab work.`,
 		Example: `  cyclopair pair --diene 'C=CC(C)=C' --dienophile 'C=CC(=O)OC'
   cyclopair pair --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --format json
   cyclopair pair --diene 'C=CC=C' --dienophile 'C=CC=O' --activate none,lewis,iminium
-  cyclopair pair --diene 'COC(=O)c1nnc(C(=O)OC)nn1' --dienophile 'C=COCC'`,
+  cyclopair pair --diene 'COC(=O)c1nnc(C(=O)OC)nn1' --dienophile 'C=COCC'
+  cyclopair pair --diene cyclopentadiene --dienophile maleic-anhydride`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
@@ -88,8 +89,8 @@ and local rules before any lab work.`,
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&opts.diene, "diene", "", "SMILES of the 4π partner (diene, hetero-diene or 1,3-dipole)")
-	f.StringVar(&opts.dienophile, "dienophile", "", "SMILES of the 2π partner")
+	f.StringVar(&opts.diene, "diene", "", "SMILES (or built-in substrate name) of the 4π partner: diene, hetero-diene or 1,3-dipole")
+	f.StringVar(&opts.dienophile, "dienophile", "", "SMILES (or built-in substrate name) of the 2π partner")
 	f.StringSliceVar(&opts.activate, "activate", []string{fmo.ActivateNone}, "dienophile activation(s), comma-separated: "+strings.Join(fmo.Modes(), ", "))
 	f.StringVar(&opts.amine, "amine", "", "secondary amine SMILES for --activate iminium (default pyrrolidine, "+fmo.DefaultAmineSMILES+")")
 	f.Float64Var(&opts.lewisH, "lewis-h", 0, "Lewis-acid strength for --activate lewis: h of the bound carbonyl O (default: the parameter set's O=LA value)")
@@ -193,13 +194,18 @@ func runPair(s *streams, opts *pairOptions) error {
 }
 
 // pairPartner reads one partner; errors come back in the CLI's one-line form naming the SMILES.
-func pairPartner(smi string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) {
+// The value may be a built-in substrate name (presets.Substrates, as for 'cyclopair draw') instead of a SMILES.
+func pairPartner(v string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) {
+	name, smi := partnerInput(v)
 	m, err := smiles.Parse(smi)
 	if err != nil {
 		return nil, smilesErr(smi, err)
 	}
-	m.Name = smi
-	pt, err := fmo.NewPartnerFromMolecule(smi, m, role, o)
+	if name == "" {
+		name = smi
+	}
+	m.Name = name
+	pt, err := fmo.NewPartnerFromMolecule(name, m, role, o)
 	if err != nil {
 		var se *fmo.SiteError
 		if errors.As(err, &se) {

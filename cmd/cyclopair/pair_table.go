@@ -28,7 +28,13 @@ func yesNo(b bool) string {
 // precision and nothing is printed in map order, so the output is deterministic.
 func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	w := s.out
-	fmt.Fprintf(w, "pair: %s + %s (activation: %s)\n", p.Diene, p.Dienophile, p.Activation)
+	named := func(name, smi string) string {
+		if name == "" || name == smi {
+			return smi
+		}
+		return name + " (" + smi + ")"
+	}
+	fmt.Fprintf(w, "pair: %s + %s (activation: %s)\n", named(p.DieneName, p.Diene), named(p.DienophileName, p.Dienophile), p.Activation)
 	if p.ActivatedDienophile != "" {
 		fmt.Fprintf(w, "activated dienophile: %s\n", p.ActivatedDienophile)
 	}

@@ -127,3 +127,18 @@ func TestPairTableCaution(t *testing.T) {
 		}
 	}
 }
+
+func TestPairSubstrateNames(t *testing.T) {
+	// Built-in substrate names stand in for SMILES; the JSON keeps the SMILES and the name.
+	out, errs, code := runCLI(t, "", "pair", "--diene", "cyclopentadiene", "--dienophile", "maleic-anhydride", "--format", "json")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var obj map[string]any
+	if err := json.Unmarshal([]byte(strings.TrimSpace(out)), &obj); err != nil {
+		t.Fatal(err)
+	}
+	if obj["diene_name"] != "cyclopentadiene" || obj["diene"] != "C1=CC=CC1" || obj["dienophile_name"] != "maleic-anhydride" {
+		t.Errorf("names/SMILES: %v %v %v", obj["diene_name"], obj["diene"], obj["dienophile_name"])
+	}
+}
