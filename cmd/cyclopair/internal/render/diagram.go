@@ -296,7 +296,9 @@ func (b *svgBuf) raw(s string) { b.WriteString(s) }
 
 // text writes an escaped <text> element; attrs is trusted markup from this file.
 func (b *svgBuf) text(x, y float64, anchor, attrs, s string) {
-	b.WriteString(`<text x="` + n1(x) + `" y="` + n1(y) + `" text-anchor="` + anchor + `"`)
+	// A white halo (stroke painted under the glyphs) keeps guide lines from striking
+	// through labels.
+	b.WriteString(`<text x="` + n1(x) + `" y="` + n1(y) + `" text-anchor="` + anchor + `" stroke="#fff" stroke-width="3" stroke-linejoin="round" paint-order="stroke"`)
 	if attrs != "" {
 		b.WriteString(" " + attrs)
 	}
