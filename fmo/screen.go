@@ -83,12 +83,27 @@ func (p *Prepared) Space() PairSpace {
 	return PairSpace{Dienes: len(p.Dienes), Dienophiles: len(p.Dienophiles), Activations: len(p.Activations)}
 }
 
-// Prepare builds every partner of lib with opts, on up to workers goroutines. Each distinct
-// SMILES (with the same pins) of a role is perceived and solved once. Failures are collected
-// in the result; the error is non-nil only when ctx is canceled.
-func Prepare(ctx context.Context, lib *Library, opts *Options, workers int, act *ActivateOptions) (*Prepared, error) {
+// PrepareOptions tune Prepare.
+type PrepareOptions struct {
+	Workers  int              // ≤ 0: runtime.GOMAXPROCS(0)
+	Activate *ActivateOptions // nil: defaults (pyrrolidine for iminium, the set's O=LA for Lewis)
+	// Progress, if not nil, is called concurrently from workers with the number of
+	// molecules (or activated variants) just prepared.
+	Progress func(n int64)
+}
+
+// Prepare builds every partner of lib with opts. Each distinct SMILES (with the same pins)
+// of a role is perceived and solved once. Failures are collected in the result; the error
+// is non-nil only when ctx is canceled.
+func Prepare(ctx context.Context, lib *Library, opts *Options, po PrepareOptions) (*Prepared, error) {
+	workers, act := po.Workers, po.Activate
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
+	}
+	tick := func() {
+		if po.Progress != nil {
+			po.Progress(1)
+		}
 	}
 	p := &Prepared{Opts: opts, Activations: slices.Clone(lib.Activations), activate: act, quick: NewQuickKernel(opts)}
 	if len(p.Activations) == 0 {
@@ -125,6 +140,7 @@ func Prepare(ctx context.Context, lib *Library, opts *Options, workers int, act 
 	built := make([]*Partner, len(rows))
 	errs := make([]error, len(rows))
 	err := parallelFor(ctx, workers, len(rows), func(i int) {
+		defer tick()
 		if owner[i] != i {
 			return
 		}
@@ -174,6 +190,7 @@ func Prepare(ctx context.Context, lib *Library, opts *Options, workers int, act 
 		p.Variants[j] = make([]*Partner, na)
 	}
 	err = parallelFor(ctx, workers, len(p.Dienophiles)*na, func(i int) {
+		defer tick()
 		j, a := i/na, i%na
 		mode := p.Activations[a]
 		if mode == ActivateNone {

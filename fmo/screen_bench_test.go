@@ -22,7 +22,7 @@ func TestSyntheticLibrary(t *testing.T) {
 			t.Fatal("generator is not deterministic")
 		}
 	}
-	p, err := Prepare(context.Background(), a, screenOpts(t), 2, nil)
+	p, err := Prepare(context.Background(), a, screenOpts(t), PrepareOptions{Workers: 2})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -76,7 +76,7 @@ var benchPrepared *Prepared
 func prepared2000(b *testing.B) *Prepared {
 	if benchPrepared == nil {
 		lib := SyntheticLibrary(2000, 2000, 42)
-		p, err := Prepare(context.Background(), lib, screenOpts(b), 0, nil)
+		p, err := Prepare(context.Background(), lib, screenOpts(b), PrepareOptions{Workers: 0})
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -33,7 +33,7 @@ func demoPrepared(t testing.TB) *Prepared {
 	if err != nil || len(bad) > 0 {
 		t.Fatalf("demo: %v %v", err, bad)
 	}
-	p, err := Prepare(context.Background(), lib, screenOpts(t), 2, nil)
+	p, err := Prepare(context.Background(), lib, screenOpts(t), PrepareOptions{Workers: 2})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -212,7 +212,7 @@ dienophiles:
 	if got := lib.Dienes[1].Mol.AtomByMap(5); len(got) != 0 {
 		t.Errorf("map 5 (not pinned) still set on atoms %v", got)
 	}
-	p, err := Prepare(context.Background(), lib, screenOpts(t), 1, nil)
+	p, err := Prepare(context.Background(), lib, screenOpts(t), PrepareOptions{Workers: 1})
 	if err != nil || len(p.Failures) > 0 {
 		t.Fatal(err, p.Failures)
 	}

@@ -351,7 +351,9 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	opts := fmo.NewOptions(params, cal, cal.Name)
 
-	prep, err := fmo.Prepare(ctx, lib, opts, o.workers, nil)
+	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(lib.Activations))))
+	prep, err := fmo.Prepare(ctx, lib, opts, fmo.PrepareOptions{Workers: o.workers, Progress: prepProg.Add})
+	prepProg.Stop()
 	if err != nil {
 		return fmt.Errorf("interrupted while preparing molecules: %w", err)
 	}
