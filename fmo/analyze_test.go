@@ -786,3 +786,23 @@ func TestConcurrentUse(t *testing.T) {
 		}
 	}
 }
+
+func TestIsopreneRegioNeedsAlkylModel(t *testing.T) {
+	// Isoprene's "para" preference comes from methyl hyperconjugation (the heteroatom model of
+	// the methyl group, Streitwieser 1961, ch. 5). Without it the methyl carbon is outside the
+	// π system, the diene is butadiene, and the two orientations are equal by symmetry of the
+	// diene's orbitals (|c1| = |c4|): closed-form expectation, margin zero.
+	o := testOptions(t)
+	pc := *o.Params
+	pc.Alkyl = false
+	o.Params = &pc
+	d := mustPartner(t, "C=CC(C)=C", RoleDiene, o)
+	e := mustPartner(t, "C=CC(=O)OC", RoleDienophile, o)
+	p, err := Analyze(d, e, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.RegioMargin > tolSym || p.RegioConfidence != "no preference" {
+		t.Errorf("isoprene without the alkyl model: margin %g (%s); want 0, no preference", p.RegioMargin, p.RegioConfidence)
+	}
+}
