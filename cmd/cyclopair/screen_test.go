@@ -28,6 +28,9 @@ func TestScreenGoldenFormats(t *testing.T) {
 			if !strings.Contains(errOut, `small.yaml: 8:38: dienes[3] "broken": SMILES "C1=CC=C(C1" column 11: unclosed branch`) {
 				t.Errorf("stderr does not list the bad row with its position:\n%s", errOut)
 			}
+			if strings.Contains(errOut, "\r") || strings.Contains(errOut, "eta ") {
+				t.Error("progress drawn on a stderr that is not a terminal")
+			}
 			if !strings.Contains(errOut, "1 of ") {
 				t.Errorf("stderr lacks the failure count:\n%s", errOut)
 			}
