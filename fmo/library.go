@@ -790,7 +790,7 @@ func (w *walker) entry(n *yaml.Node, path string, pinMax int) (Substrate, bool) 
 				if sub, ok := presets.LookupSubstrate(p); ok {
 					s.Preset = sub.Name
 				} else {
-					hint := "run 'cyclopair presets substrates' for the list"
+					hint := "run 'cyclopair screen --list-presets' for the list"
 					if sg := presets.SuggestSubstrates(p, 3); len(sg) > 0 {
 						hint = "did you mean " + strings.Join(sg, " or ") + "?"
 					}

@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"text/tabwriter"
 	"unicode/utf8"
 
 	"cyclopair/cmd/cyclopair/internal/htmlreport"
@@ -69,6 +70,9 @@ Results are estimates for planning, not safety assessments.`,
   cyclopair screen big.yaml --rank-by none --shard 3/8 --format csv > part3.csv`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
+			if list, _ := c.Flags().GetBool("list-presets"); list {
+				return listSubstratePresets(s.out)
+			}
 			if len(args) == 1 {
 				o.file = args[0]
 			}
@@ -82,6 +86,7 @@ Results are estimates for planning, not safety assessments.`,
 	addScreenFlags(cmd, o)
 	cmd.Flags().StringVar(&o.dienes, "dienes", "", "CSV (name,smiles) or one-SMILES-per-line `file` of 4π partners (replaces the file's dienes)")
 	cmd.Flags().StringVar(&o.dienophiles, "dienophiles", "", "CSV or one-SMILES-per-line `file` of 2π partners (replaces the file's dienophiles)")
+	cmd.Flags().Bool("list-presets", false, "list the named common substrates usable as 'preset: NAME' and exit")
 	_ = cmd.MarkFlagFilename("dienes", "csv", "txt", "smi")
 	_ = cmd.MarkFlagFilename("dienophiles", "csv", "txt", "smi")
 	return cmd
@@ -505,4 +510,14 @@ func screenDiagram(prep *fmo.Prepared, rows []render.Row, cal huckel.Calibration
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// listSubstratePresets prints the named common substrates as an aligned table.
+func listSubstratePresets(w io.Writer) error {
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "NAME\tROLE\tSMILES\tNOTES")
+	for _, sub := range presets.Substrates() {
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", sub.Name, sub.Role, sub.SMILES, sub.Notes)
+	}
+	return tw.Flush()
 }
