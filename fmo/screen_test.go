@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"cyclopair/presets"
@@ -269,5 +270,33 @@ activations: [none, lewis]
 				t.Errorf("%s+%s: Lewis acid does not narrow the normal gap: %v", d, e, gap)
 			}
 		}
+	}
+}
+
+// Every named common substrate prepares in its usual role (presets/substrates.yaml).
+func TestPresetSubstratesPrepare(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("dienes:\n")
+	for _, s := range presets.Substrates() {
+		if s.Role != "dienophile" {
+			fmt.Fprintf(&b, "  - preset: %s\n", s.Name)
+		}
+	}
+	b.WriteString("dienophiles:\n")
+	for _, s := range presets.Substrates() {
+		if s.Role == "dienophile" {
+			fmt.Fprintf(&b, "  - preset: %s\n", s.Name)
+		}
+	}
+	lib, bad, err := ParseLibrary([]byte(b.String()), LoadOptions{Name: "presets"})
+	if err != nil || len(bad) > 0 {
+		t.Fatal(err, bad)
+	}
+	p, err := Prepare(context.Background(), lib, screenOpts(t), PrepareOptions{Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range p.Failures {
+		t.Errorf("preset does not prepare: %v", f)
 	}
 }
