@@ -199,6 +199,17 @@ type Library struct {
 	// Set records which settings the file gave explicitly (so command-line flags can
 	// override only what the user did not write, or report conflicts).
 	Set map[string]bool
+	// At holds the 1-based line and column of each top-level setting's value, for messages
+	// about settings checked later (an unknown parameter set, a missing calibration file).
+	At map[string][2]int
+}
+
+// Where returns "file: line:col" of a top-level setting's value, or the file name.
+func (l *Library) Where(key string) string {
+	if p, ok := l.At[key]; ok {
+		return fmt.Sprintf("%s: %d:%d", l.Source, p[0], p[1])
+	}
+	return l.Source
 }
 
 // LoadOptions tunes LoadLibrary.
@@ -446,7 +457,7 @@ func (w *walker) noAlias(n *yaml.Node, path string, errs *FileErrors) bool {
 }
 
 func (w *walker) document(doc *yaml.Node) *Library {
-	lib := &Library{Set: map[string]bool{}}
+	lib := &Library{Set: map[string]bool{}, At: map[string][2]int{}}
 	if doc.Kind == 0 || len(doc.Content) == 0 {
 		w.fail(nil, "", ErrMissing, "empty file", "a substrate file needs at least dienes and dienophiles")
 		return lib
@@ -472,6 +483,7 @@ func (w *walker) document(doc *yaml.Node) *Library {
 		}
 		seen[k.Value] = k
 		lib.Set[k.Value] = true
+		lib.At[k.Value] = [2]int{v.Line, v.Column}
 		switch k.Value {
 		case "title", "description":
 			if s, ok := w.str(v, k.Value, &w.fatal, 1000); ok && k.Value == "title" {

@@ -294,23 +294,37 @@ func screenParams(in *screenInput, o *screenOptions) (*huckel.Params, error) {
 		if !filepath.IsAbs(path) && in.dir != "" {
 			path = filepath.Join(in.dir, path)
 		}
-		return resolveParams(path)
+		p, err := resolveParams(path)
+		if err != nil {
+			return nil, &inputError{fmt.Errorf("%s: params_file: %v", in.lib.Where("params_file"), err)}
+		}
+		return p, nil
+	case in.lib.Params != "":
+		p, err := resolveParams(in.lib.Params)
+		if err != nil {
+			return nil, &inputError{fmt.Errorf("%s: params: %v", in.lib.Where("params"), err)}
+		}
+		return p, nil
 	}
-	return resolveParams(in.lib.Params)
+	return resolveParams("")
 }
 
 // screenCalibration returns the calibration to use: --calibration, else the file's
 // calibration: key (a calibration file path is taken relative to the substrate file), else
 // the built-in calibration fitted for the parameter set ("default").
 func screenCalibration(s *streams, in *screenInput, o *screenOptions, p *huckel.Params) (huckel.Calibration, error) {
-	spec := o.calibration
-	if spec == "" {
-		spec = in.lib.Calibration
-		if spec != "" && spec != "default" && !filepath.IsAbs(spec) && in.dir != "" {
-			spec = filepath.Join(in.dir, spec)
-		}
+	if o.calibration != "" {
+		return resolveCalibration(s, o.calibration, p)
 	}
-	return resolveCalibration(s, spec, p)
+	spec := in.lib.Calibration
+	if spec != "" && spec != "default" && !filepath.IsAbs(spec) && in.dir != "" {
+		spec = filepath.Join(in.dir, spec)
+	}
+	cal, err := resolveCalibration(s, spec, p)
+	if err != nil && in.lib.Calibration != "" {
+		return cal, &inputError{fmt.Errorf("%s: calibration: %v", in.lib.Where("calibration"), err)}
+	}
+	return cal, err
 }
 
 // runScreen is the whole screen command: load, prepare, screen, render, report failures.

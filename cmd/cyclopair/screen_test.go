@@ -140,6 +140,7 @@ func TestScreenErrors(t *testing.T) {
 	}{
 		{[]string{"screen", "../../testdata/screen/fatal.yaml"}, exitUsage, "fatal.yaml: 5:10: rank_by: unknown ranking key"},
 		{[]string{"screen", "no-such-file.yaml"}, exitUsage, "no-such-file.yaml: cannot open"},
+		{[]string{"screen", "../../testdata/screen/badparams.yaml"}, exitUsage, "badparams.yaml: 5:9: params: nosuchset: no such parameter set"},
 		{[]string{"screen", smallScreen, "--format", "pdf"}, exitUsage, "--format"},
 		{[]string{"screen", smallScreen, "--shard", "4/3"}, exitUsage, "--shard"},
 		{[]string{"screen", smallScreen, "--activate", "photo"}, exitUsage, `unknown mode "photo"`},
