@@ -245,8 +245,9 @@ func parallelFor(ctx context.Context, workers, n int, f func(i int)) error {
 
 // ScreenRow is one output row of a screen.
 type ScreenRow struct {
-	Rank int64 // 1-based rank, or the pair's 1-based number in the pair space when unranked
-	Pair *Pair
+	Rank  int64 // 1-based rank, or the pair's 1-based number in the pair space when unranked
+	Index int64 // 0-based index of the pair in the whole (unsharded) pair space, the tie-breaker of every ranking
+	Pair  *Pair
 }
 
 // ScreenStats counts what a screen did.
@@ -398,7 +399,7 @@ func (p *Prepared) Screen(ctx context.Context, so ScreenOptions, emit func(Scree
 			rank = r
 		}
 		st.Shown++
-		return emit(ScreenRow{Rank: rank, Pair: pair})
+		return emit(ScreenRow{Rank: rank, Index: k, Pair: pair})
 	}, func(f pairFailure) {
 		d, e, a := space.Split(f.K)
 		fail(ScreenFailure{What: fmt.Sprintf("pair %q + %q (%s)", p.DieneRows[d].Name, p.DphRows[e].Name, p.Activations[a]), Err: f.Err})

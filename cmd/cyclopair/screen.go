@@ -428,7 +428,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		Workers: o.workers, RankBy: lib.RankBy, Top: lib.Top, Filter: lib.Filter, Shard: shard,
 		Progress: prog.Add,
 	}, func(r fmo.ScreenRow) error {
-		return w.WriteRow(render.Row{Rank: int(r.Rank), Pair: r.Pair})
+		return w.WriteRow(render.Row{Rank: int(r.Rank), Number: r.Index + 1, Pair: r.Pair})
 	}, func(f fmo.ScreenFailure) {
 		pairFailures = append(pairFailures, f)
 	})

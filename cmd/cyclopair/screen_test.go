@@ -3,11 +3,13 @@ package main
 import (
 	"bufio"
 	"bytes"
+	"cmp"
 	"encoding/json"
 	"encoding/xml"
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -247,5 +249,49 @@ func TestScreenHTMLHasDiagram(t *testing.T) {
 	}
 	if !strings.Contains(out, `id="levels"`) || !strings.Contains(out, `class="level"`) || !strings.Contains(out, render.Caution) {
 		t.Error("HTML screen report lacks the level diagram or the caution")
+	}
+}
+
+// Ranked shards merge into the unsharded ranking: each shard's top K, sorted together by
+// (key, pair_number) and cut to K, is the unsharded top K.
+func TestScreenRankedShardsMerge(t *testing.T) {
+	type row struct {
+		Number    int64 `json:"pair_number"`
+		GapNormal struct {
+			Beta float64 `json:"beta"`
+		} `json:"gap_normal"`
+	}
+	parse := func(out string) []row {
+		var rows []row
+		for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
+			var r row
+			if err := json.Unmarshal([]byte(l), &r); err != nil {
+				t.Fatal(err)
+			}
+			rows = append(rows, r)
+		}
+		return rows
+	}
+	whole, _, _ := runCLI(t, "", "demo", "--format", "json", "--top", "10")
+	want := parse(whole)
+	var merged []row
+	for _, sh := range []string{"1/3", "2/3", "3/3"} {
+		out, _, code := runCLI(t, "", "demo", "--format", "json", "--top", "10", "--shard", sh)
+		if code != exitOK {
+			t.Fatalf("shard %s failed", sh)
+		}
+		merged = append(merged, parse(out)...)
+	}
+	slices.SortStableFunc(merged, func(a, b row) int {
+		if c := cmp.Compare(a.GapNormal.Beta, b.GapNormal.Beta); c != 0 {
+			return c
+		}
+		return cmp.Compare(a.Number, b.Number)
+	})
+	merged = merged[:len(want)]
+	for i := range want {
+		if merged[i].Number != want[i].Number {
+			t.Fatalf("merged shard ranking differs at row %d: pair %d, want %d", i+1, merged[i].Number, want[i].Number)
+		}
 	}
 }

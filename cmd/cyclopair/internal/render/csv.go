@@ -9,7 +9,7 @@ import (
 
 // csvHeader is the first CSV record. Energies are in units of |β| (…_beta) and eV (…_ev).
 var csvHeader = []string{
-	"rank", "diene_name", "diene", "dienophile_name", "dienophile", "activation",
+	"rank", "pair_number", "diene_name", "diene", "dienophile_name", "dienophile", "activation",
 	"demand", "sustmann_type", "gap_beta", "gap_ev", "gap_normal_beta", "gap_normal_ev",
 	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
 	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
@@ -37,7 +37,7 @@ func (c *csvWriter) WriteRow(r Row) error {
 		label, product, stab = o.Label, o.Product, f3(o.Stabilization)
 	}
 	rec := []string{
-		strconv.Itoa(r.Rank), p.DieneName, p.Diene, p.DienophileName, p.Dienophile,
+		strconv.Itoa(r.Rank), pairNumber(r.Number), p.DieneName, p.Diene, p.DienophileName, p.Dienophile,
 		p.Activation, p.Demand, p.SustmannType, f3(g.Beta), f2(g.EV),
 		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
 		label, product, stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
@@ -53,4 +53,11 @@ func (c *csvWriter) WriteRow(r Row) error {
 func (c *csvWriter) Close(Summary) error {
 	c.w.Flush()
 	return c.w.Error()
+}
+
+func pairNumber(n int64) string {
+	if n <= 0 {
+		return ""
+	}
+	return strconv.FormatInt(n, 10)
 }

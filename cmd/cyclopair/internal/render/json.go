@@ -11,7 +11,8 @@ import (
 // jsonRow is one JSON Lines object: the Pair contract (../../../shared/DESIGN.md, keys
 // stable) with the rank in front and the Caution at the end.
 type jsonRow struct {
-	Rank int `json:"rank"`
+	Rank       int   `json:"rank"`
+	PairNumber int64 `json:"pair_number,omitempty"` // 1-based position in the pair space
 	*fmo.Pair
 	Caution string `json:"caution"`
 }
@@ -43,7 +44,7 @@ func (j *jsonWriter) WriteRow(r Row) error {
 		}
 		p = &cp
 	}
-	return j.enc.Encode(jsonRow{Rank: r.Rank, Pair: p, Caution: Caution})
+	return j.enc.Encode(jsonRow{Rank: r.Rank, PairNumber: r.Number, Pair: p, Caution: Caution})
 }
 
 // Flush pushes buffered lines out (the screen calls it on cancellation).

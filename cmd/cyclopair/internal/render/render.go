@@ -71,7 +71,11 @@ type Report struct {
 // 1-based number in the pair space when unranked) and the full analysis.
 type Row struct {
 	Rank int
-	Pair *fmo.Pair
+	// Number is the 1-based position of the pair in the whole pair space of the screen
+	// (diene × dienophile × activation, in file order), 0 when unknown. Rankings break ties
+	// by it, so ranked shard outputs merge into the unsharded ranking by (key, number).
+	Number int64
+	Pair  *fmo.Pair
 }
 
 // Summary is printed at the end of the human formats.

@@ -76,7 +76,7 @@ func samplePairs() []Row {
 		Allowed:    false, Params: "", Calibration: "",
 		Warnings: []string{"no orientation"},
 	}
-	return []Row{{1, p1}, {2, p2}, {10, p3}}
+	return []Row{{Rank: 1, Number: 7, Pair: p1}, {Rank: 2, Number: 3, Pair: p2}, {Rank: 10, Pair: p3}}
 }
 
 func sampleReport() Report {
@@ -178,6 +178,9 @@ func TestJSONLinesKeepContract(t *testing.T) {
 		b, _ := json.Marshal(&cp)
 		_ = json.Unmarshal(b, &want)
 		want["rank"], want["caution"] = float64(r.Rank), Caution
+		if r.Number > 0 {
+			want["pair_number"] = float64(r.Number)
+		}
 		if gb, wb := mustJSON(got), mustJSON(want); gb != wb {
 			t.Errorf("line %d:\n got %s\nwant %s", i+1, gb, wb)
 		}
