@@ -75,7 +75,7 @@ type Row struct {
 	// (diene × dienophile × activation, in file order), 0 when unknown. Rankings break ties
 	// by it, so ranked shard outputs merge into the unsharded ranking by (key, number).
 	Number int64
-	Pair  *fmo.Pair
+	Pair   *fmo.Pair
 }
 
 // Summary is printed at the end of the human formats.
