@@ -12,7 +12,10 @@ import (
 // Kekulé structure and charges derived for it by adductSide (termini sp3 with their
 // hydrogens unchanged, the shifted double bond(s), aromatic rings elsewhere re-matched).
 // A 1,2,4,5-tetrazine gives the bicyclic primary adduct, before the retro-Diels–Alder loss of
-// N₂ that normally follows. Atom maps are cleared so the product SMILES is plain.
+// N₂ that normally follows. Atom maps are cleared so the product SMILES is plain, and the
+// directional bond marks (/ \) of the inputs are dropped: the cycloaddition moves the double
+// bonds they referred to, and the tool does not model stereochemistry (the endo/exo question
+// is answered separately), so a kept mark would describe a configuration nobody computed.
 //
 // bonds are the new σ bonds as [diene atom, dienophile atom] in each partner's own numbering.
 func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [2][2]int) {
@@ -29,7 +32,7 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 			m.Atoms = append(m.Atoms, a)
 		}
 		for bi, b := range src.Bonds {
-			m.Bonds = append(m.Bonds, molecule.Bond{A: b.A + offset, B: b.B + offset, Order: sd.orders[bi], Stereo: b.Stereo})
+			m.Bonds = append(m.Bonds, molecule.Bond{A: b.A + offset, B: b.B + offset, Order: sd.orders[bi]})
 		}
 	}
 	add(dp.Mol, ds, 0)
