@@ -306,8 +306,17 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad FileErrors, err
 	if err := checkText(data, name); err != nil {
 		return nil, nil, err
 	}
-	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
+	var doc, extra yaml.Node
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(&doc); err != nil && !errors.Is(err, io.EOF) {
+		return nil, nil, yamlSyntaxError(name, err)
+	}
+	// A second document ("---") would be ignored silently by a plain Unmarshal.
+	switch err := dec.Decode(&extra); {
+	case err == nil:
+		return nil, nil, &FileError{File: name, Line: extra.Line, Col: extra.Column, Msg: "a second YAML document",
+			Hint: "a substrate file is one document: remove the '---' line, or split the file", Kind: ErrFileSyntax}
+	case !errors.Is(err, io.EOF):
 		return nil, nil, yamlSyntaxError(name, err)
 	}
 	w := &walker{file: name, modes: o.Modes}

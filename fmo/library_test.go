@@ -97,6 +97,7 @@ func TestLoadLibraryFatal(t *testing.T) {
 		{"utf16", "\xff\xfed\x00i\x00", ErrNotUTF8, "UTF-16"},
 		{"nul", "dienes: []\x00\n", ErrNotUTF8, "NUL"},
 		{"deep nesting", "dienes: " + strings.Repeat("[", 20000) + strings.Repeat("]", 20000) + "\ndienophiles: []\n", ErrFileSyntax, "YAML syntax"},
+		{"two documents", "dienes: []\ndienophiles: []\n---\ndienes: []\n", ErrFileSyntax, "a second YAML document"},
 		{"huge title", "title: " + strings.Repeat("x", 5000) + "\ndienes: []\ndienophiles: []\n", ErrBadValue, "5000 bytes long"},
 	}
 	for _, c := range cases {
