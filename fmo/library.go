@@ -701,12 +701,18 @@ func (w *walker) filter(n *yaml.Node) Filter {
 		w.fail(n, "filter", ErrWrongType, "is "+kindName(n)+", want a mapping", "e.g. filter: {demand: normal}")
 		return f
 	}
+	keys := map[string]bool{}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		if !w.noAlias(k, "filter", &w.fatal) {
 			continue
 		}
 		path := "filter." + k.Value
+		if keys[k.Value] {
+			w.fail(k, "filter", ErrBadValue, fmt.Sprintf("key %q given twice", short(k.Value)), "keep one")
+			continue
+		}
+		keys[k.Value] = true
 		switch k.Value {
 		case "demand":
 			if s, ok := w.str(v, path, &w.fatal, 100); ok {
@@ -790,12 +796,18 @@ func (w *walker) entry(n *yaml.Node, path string, pinMax int) (Substrate, bool) 
 		return s, false
 	}
 	var smilesNode, pinNode, nameNode *yaml.Node
+	keys := map[string]bool{}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		if !w.noAlias(k, path, &errs) {
 			continue
 		}
 		kp := path + "." + k.Value
+		if keys[k.Value] {
+			errs = append(errs, w.errAt(k, path, ErrBadValue, fmt.Sprintf("key %q given twice", short(k.Value)), "keep one"))
+			continue
+		}
+		keys[k.Value] = true
 		switch k.Value {
 		case "name":
 			nameNode = v

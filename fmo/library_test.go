@@ -97,6 +97,7 @@ func TestLoadLibraryFatal(t *testing.T) {
 		{"utf16", "\xff\xfed\x00i\x00", ErrNotUTF8, "UTF-16"},
 		{"nul", "dienes: []\x00\n", ErrNotUTF8, "NUL"},
 		{"deep nesting", "dienes: " + strings.Repeat("[", 20000) + strings.Repeat("]", 20000) + "\ndienophiles: []\n", ErrFileSyntax, "YAML syntax"},
+		{"filter key twice", "dienes: []\ndienophiles: []\nfilter: {demand: normal, demand: inverse}\n", ErrBadValue, `3:26: filter: key "demand" given twice`},
 		{"two documents", "dienes: []\ndienophiles: []\n---\ndienes: []\n", ErrFileSyntax, "a second YAML document"},
 		{"huge title", "title: " + strings.Repeat("x", 5000) + "\ndienes: []\ndienophiles: []\n", ErrBadValue, "5000 bytes long"},
 	}
@@ -150,6 +151,7 @@ func TestLoadLibraryBadRows(t *testing.T) {
   - {name: pinned, smiles: "[CH2:1]=CC=C", pin: [1, 9]}
   - {name: pintype, smiles: "[CH2:1]=CC=[CH2:2]", pin: "1,2"}
   - {name: elem, smiles: C=CXx}
+  - {name: twice, smiles: C=C, smiles: C=CC=C}
 dienophiles:
   - {name: ok, smiles: C=C}
   - {name: ok2, smiles: C=C, notes: [a]}
@@ -178,7 +180,8 @@ dienophiles:
 		{ErrBadValue, `13:53: dienes[11].pin[1]: no atom carries map number 9`},
 		{ErrWrongType, `dienes[12].pin: is a single value, want a list of atom-map numbers`},
 		{ErrBadSMILES, `15:29: dienes[13] "elem": SMILES "C=CXx" column 4`},
-		{ErrWrongType, `18:37: dienophiles[1].notes: is a list, want text`},
+		{ErrBadValue, `16:32: dienes[14]: key "smiles" given twice`},
+		{ErrWrongType, `19:37: dienophiles[1].notes: is a list, want text`},
 	}
 	if len(bad) != len(want) {
 		for _, b := range bad {
