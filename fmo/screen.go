@@ -39,6 +39,9 @@ type ScreenOptions struct {
 	// Progress, if not nil, is called concurrently from workers with the number of pairs
 	// just scored.
 	Progress func(n int64)
+	// Selected, if not nil, is called once a ranked screen has scored every pair, with the
+	// number of rows that now get the full analysis (before the first row is emitted).
+	Selected func(n int64)
 }
 
 // ScreenFailure is an input of the screen that failed: a substrate row that could not be
@@ -386,7 +389,7 @@ func (p *Prepared) Screen(ctx context.Context, so ScreenOptions, emit func(Scree
 	lo, hi := so.Shard.Range(space.Len())
 	job := &preparedJob{p: p, space: space, rank: so.RankBy, flt: so.Filter}
 	cfg := engineConfig{Workers: so.Workers, Ranked: so.RankBy != RankNone && so.RankBy != "", Top: so.Top,
-		Lo: lo, Hi: hi, Progress: so.Progress}
+		Lo: lo, Hi: hi, Progress: so.Progress, Selected: so.Selected}
 	var st ScreenStats
 	st.Pairs = hi - lo
 	rank := int64(0)

@@ -189,6 +189,9 @@ type engineConfig struct {
 	// Progress, if not nil, is called from worker goroutines with the number of pairs just
 	// scored; it must be safe for concurrent use.
 	Progress func(n int64)
+	// Selected, if not nil, is called (from the calling goroutine) when a ranked run has
+	// scored every pair, with the number of rows that will get the full analysis.
+	Selected func(n int64)
 }
 
 // engineStats counts what a run did.
@@ -321,6 +324,9 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 	slices.SortFunc(sel, compareScored)
 	if cfg.Top > 0 && len(sel) > cfg.Top {
 		sel = sel[:cfg.Top]
+	}
+	if cfg.Selected != nil {
+		cfg.Selected(int64(len(sel)))
 	}
 	// Phase 2: full analysis of the selected rows, in windows so memory stays bounded.
 	window := max(cfg.Workers*64, 256)

@@ -423,16 +423,25 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
 	}
 	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
+	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
 	st, runErr := prep.Screen(ctx, fmo.ScreenOptions{
 		Workers: o.workers, RankBy: lib.RankBy, Top: lib.Top, Filter: lib.Filter, Shard: shard,
 		Progress: prog.Add,
+		Selected: func(n int64) {
+			prog.Stop()
+			prog = nil
+			rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
+		},
 	}, func(r fmo.ScreenRow) error {
+		rowProg.Add(1)
 		return w.WriteRow(render.Row{Rank: int(r.Rank), Number: r.Index + 1, Pair: r.Pair})
 	}, func(f fmo.ScreenFailure) {
+		rowProg.Add(1)
 		pairFailures = append(pairFailures, f)
 	})
 	prog.Stop()
+	rowProg.Stop()
 	failures = append(failures, pairFailures...)
 	sum := render.Summary{Pairs: int(st.Scored), Passed: int(st.Passed), Shown: int(st.Shown),
 		Failed: len(failures), Canceled: st.Canceled}
