@@ -22,7 +22,8 @@ import (
 //     (key, pair index), a strict total order; see screen_engine.go).
 //   - With Top = K the ranking keeps K records (a heap), and the unranked stream keeps a few
 //     chunks in flight, so memory does not grow with the number of pairs. Ranking every pair
-//     (Top = 0 with a rank key) keeps 16 bytes per passing pair.
+//     (Top = 0 with a rank key) keeps 16 bytes per passing pair (about three times that
+//     while the workers' lists are merged).
 //   - Bad inputs never stop the screen: molecules that fail to prepare and pairs whose full
 //     analysis fails are reported as ScreenFailures and the rest goes on.
 //   - A Shard selects a contiguous slice of the pair space; the unranked outputs of shards
