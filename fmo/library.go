@@ -32,6 +32,7 @@ import (
 //	dienophiles:
 //	  - {name: acrolein, smiles: C=CC=O}
 //	activations: [none, lewis, iminium]
+//	amine: C1CCNC1                  # secondary amine for iminium activation (default pyrrolidine)
 //	params: streitwieser1961        # or params_file: my-params.yaml (relative to this file)
 //	calibration: default            # or a file from cyclopair calibrate --out (relative to this file)
 //	filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.2, allowed_only: true}
@@ -193,6 +194,8 @@ type Library struct {
 	Params      string   // built-in parameter set name, "" for the default
 	ParamsFile  string   // parameter file path as written in the file, "" if none
 	Calibration string   // "default" (or "") or a calibration file path as written in the file
+	Amine       string   // secondary amine SMILES for iminium activation, "" for the default (pyrrolidine)
+	AmineMol    *molecule.Molecule
 	Filter      Filter
 	RankBy      RankKey // RankNormalGap when the file does not say
 	Top         int     // 0 = all rows
@@ -368,6 +371,7 @@ type fileSchema struct {
 	Dienes      []entrySchema `yaml:"dienes"`
 	Dienophiles []entrySchema `yaml:"dienophiles"`
 	Activations []string      `yaml:"activations"`
+	Amine       string        `yaml:"amine"`
 	Params      string        `yaml:"params"`
 	ParamsFile  string        `yaml:"params_file"`
 	Calibration string        `yaml:"calibration"`
@@ -390,7 +394,7 @@ type entrySchema struct {
 }
 
 var (
-	topKeys    = []string{"title", "description", "dienes", "dienophiles", "activations", "params", "params_file", "calibration", "filter", "rank_by", "top"}
+	topKeys    = []string{"title", "description", "dienes", "dienophiles", "activations", "amine", "params", "params_file", "calibration", "filter", "rank_by", "top"}
 	entryKeys  = []string{"name", "smiles", "pin", "notes", "preset"}
 	filterKeys = []string{"demand", "min_regio_margin", "max_gap", "allowed_only"}
 )
@@ -509,7 +513,23 @@ func (w *walker) document(doc *yaml.Node) *Library {
 		case "params_file":
 			lib.ParamsFile, _ = w.str(v, k.Value, &w.fatal, 4096)
 		case "calibration":
-			lib.Calibration, _ = w.str(v, k.Value, &w.fatal, 200)
+			lib.Calibration, _ = w.str(v, k.Value, &w.fatal, 4096)
+		case "amine":
+			if a, ok := w.str(v, k.Value, &w.fatal, maxSMILESBytes); ok {
+				m, err := smiles.Parse(a)
+				if err != nil {
+					var se *smiles.Error
+					fe := &FileError{File: w.file, Line: v.Line, Col: v.Column, Path: "amine", Kind: ErrBadSMILES, Cause: err,
+						Msg: fmt.Sprintf("SMILES %q: %v", short(a), err)}
+					if errors.As(err, &se) {
+						fe.Col += scalarOffset(v, se.Pos)
+						fe.Msg, fe.Hint = fmt.Sprintf("SMILES %q column %d: %s", short(a), se.Column(), se.Msg), se.Hint
+					}
+					w.fatal = append(w.fatal, fe)
+				} else {
+					lib.Amine, lib.AmineMol = a, m
+				}
+			}
 		case "filter":
 			lib.Filter = w.filter(v)
 		case "rank_by":

@@ -279,3 +279,14 @@ func FuzzLoadLibrary(f *testing.F) {
 		_, _, _ = LoadList(strings.NewReader(string(data)), "fuzz.txt", 4, 1<<16)
 	})
 }
+
+func TestLoadLibraryAmine(t *testing.T) {
+	lib, _, err := ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC1\n"), LoadOptions{})
+	if err != nil || lib.AmineMol == nil || lib.Amine != "C1CCNCC1" {
+		t.Fatalf("amine not loaded: %v", err)
+	}
+	_, _, err = ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC\n"), LoadOptions{Name: "a.yaml"})
+	if !errors.Is(err, ErrBadSMILES) || !strings.Contains(err.Error(), "a.yaml: 3:9: amine: SMILES") {
+		t.Errorf("bad amine: %v", err)
+	}
+}

@@ -16,6 +16,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/huckel"
+	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -27,6 +28,7 @@ type screenOptions struct {
 	dienes         string // list file replacing the file's dienes
 	dienophiles    string
 	activate       string
+	amine          string
 	params         string
 	calibration    string
 	rankBy         string
@@ -96,6 +98,7 @@ Results are estimates for planning, not safety assessments.`,
 func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f := cmd.Flags()
 	f.StringVar(&o.activate, "activate", "", "activation `modes`, comma-separated: none, proton, lewis, iminium (default: the file's, else none)")
+	f.StringVar(&o.amine, "amine", "", "secondary amine `SMILES` for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
 	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
@@ -370,8 +373,19 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	opts := fmo.NewOptions(params, cal, cal.Name)
 
+	var act *fmo.ActivateOptions
+	switch {
+	case o.amine != "":
+		am, err := smiles.Parse(o.amine)
+		if err != nil {
+			return smilesErr(o.amine, err)
+		}
+		act = &fmo.ActivateOptions{Amine: am}
+	case lib.AmineMol != nil:
+		act = &fmo.ActivateOptions{Amine: lib.AmineMol}
+	}
 	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(lib.Activations))))
-	prep, err := fmo.Prepare(ctx, lib, opts, fmo.PrepareOptions{Workers: o.workers, Progress: prepProg.Add})
+	prep, err := fmo.Prepare(ctx, lib, opts, fmo.PrepareOptions{Workers: o.workers, Activate: act, Progress: prepProg.Add})
 	prepProg.Stop()
 	if err != nil {
 		return fmt.Errorf("interrupted while preparing molecules: %w", err)
