@@ -85,11 +85,14 @@ type Orientation struct {
 
 // SideChannel is a competing reaction the pair analysis checked.
 type SideChannel struct {
-	Kind     string  `json:"kind"`   // "diene_dimerisation" | "product_as_dienophile"
-	Gap      Energy  `json:"gap"`    // controlling frontier gap of the side reaction
-	Margin   float64 `json:"margin"` // side-channel gap minus the pair's controlling gap, |β| (small or negative = competes)
-	Competes bool    `json:"competes"`
-	Note     string  `json:"note"`
+	Kind   string  `json:"kind"`   // "diene_dimerisation" | "product_as_dienophile"
+	Gap    Energy  `json:"gap"`    // controlling frontier gap of the side reaction
+	Margin float64 `json:"margin"` // side-channel gap minus the pair's controlling gap, |β| (small or negative = competes)
+	// ScoreMargin is the pair's ranking score minus the side channel's, |β| (small or
+	// negative = the side reaction is as favourable once localisation is counted).
+	ScoreMargin float64 `json:"score_margin"`
+	Competes    bool    `json:"competes"`
+	Note        string  `json:"note"`
 }
 
 // ActivationEffect summarises what activating the dienophile changed, relative to the free

@@ -3,7 +3,6 @@ package fmo
 import (
 	"errors"
 	"fmt"
-	"math"
 
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
@@ -44,11 +43,18 @@ func controllingGap(p *Pair) Energy {
 //     partner toward the same 4π partner (a second cycloaddition, e.g. the bis-adduct of a
 //     quinone), only when the adduct has a reacting 2π unit.
 //
-// A channel's gap is the smallest controlling gap (the smaller of normal and inverse) over
-// every pair of its reacting units — its fastest way to react in the FMO picture, whatever
-// unit the ranking score would prefer — and the pair's is the controlling gap at its
-// preferred units. Margin = side gap − pair gap (|β|); the channel Competes when Margin ≤
-// DefaultSideChannelBeta (SideChannelsWithin takes another margin). The comparison is per encounter: the
+// A channel's gap is the controlling gap (the smaller of normal and inverse) at the reacting
+// units the pair analysis itself prefers for that side reaction — the same ranking score,
+// localisation included, that picks the units of the main pair — so a benzene ring conjugated
+// with the reacting group (phenyl azide, styrene) is not mistaken for the side channel's
+// reacting bond merely because every unit of one π system shares its frontier levels. The
+// pair's gap is the controlling gap at its
+// preferred units. Margin = side gap − pair gap (|β|) and ScoreMargin = pair score − side
+// score (|β|); the channel Competes when both are ≤ DefaultSideChannelBeta: the gap says the
+// side reaction is about as fast by the frontier criterion (Sauer & Sustmann 1980), and the
+// score, which carries the localisation energy, says it does not pay for that with a loss of
+// aromaticity the main pair avoids (phenyl azide is not flagged as dimerising through its
+// benzene ring) (SideChannelsWithin takes another margin). The comparison is per encounter: the
 // concentrations, which a chemist controls (slow addition, excess of one partner), are not
 // in it. A channel whose partner has no reacting unit is left out; one that fails otherwise
 // is listed with the reason in its Note. The pair is not modified; see
@@ -67,6 +73,7 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 		margin = DefaultSideChannelBeta
 	}
 	ref := controllingGap(pair)
+	refScore := pair.Orientations[0].Score
 	out := []SideChannel{}
 	check := func(kind, what string, m *molecule.Molecule) {
 		sp, err := NewPartnerFromMolecule(m.Name, m, RoleDienophile, opts)
@@ -76,15 +83,20 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 			}
 			return
 		}
-		g, site, ok := smallestGap(diene, sp, opts)
-		if !ok {
+		g, site, score, err := preferredGap(diene, sp, opts)
+		if err != nil {
+			out = append(out, SideChannel{Kind: kind, Note: what + ": not checked: " + err.Error()})
 			return
 		}
-		sc := SideChannel{Kind: kind, Gap: g, Margin: g.Beta - ref.Beta}
-		sc.Competes = sc.Margin <= margin
+		sc := SideChannel{Kind: kind, Gap: g, Margin: g.Beta - ref.Beta, ScoreMargin: refScore - score}
+		sc.Competes = sc.Margin <= margin && sc.ScoreMargin <= margin
 		verdict := "does not compete"
-		if sc.Competes {
+		switch {
+		case sc.Competes:
 			verdict = "competes"
+		case sc.Margin <= margin:
+			verdict = "does not compete: the gap is close, but the π energy lost at that site (localisation) puts its ranking score " +
+				fmt.Sprintf("%.3f |β| below the pair's", sc.ScoreMargin)
 		}
 		sc.Note = fmt.Sprintf("%s at %s: controlling gap %.3f |β| against %.3f |β| for the pair (margin %+.3f |β|; competes within %.2f |β|): %s",
 			what, site, g.Beta, ref.Beta, sc.Margin, margin, verdict)
@@ -113,36 +125,17 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 	return out
 }
 
-// smallestGap is the smallest controlling gap between any unit of diene (4π) and any unit of
-// side (2π), with the sites it belongs to.
-func smallestGap(diene, side *Partner, opts *Options) (Energy, string, bool) {
-	best, site, ok := Energy{Beta: math.Inf(1)}, "", false
-	bestW := 0.0
-	for di, du := range diene.Units {
-		dd := &diene.data[di]
-		if !dd.ok {
-			continue
-		}
-		for ei, eu := range side.Units {
-			ed := &side.data[ei]
-			if !ed.ok {
-				continue
-			}
-			gN := dd.homo.X - ed.lumo.X
-			gI := ed.homo.X - dd.lumo.X
-			g := Energy{Beta: gN, EV: opts.ev(ed.lumo.X, false) - opts.ev(dd.homo.X, true)}
-			if gI < gN {
-				g = Energy{Beta: gI, EV: opts.ev(dd.lumo.X, false) - opts.ev(ed.homo.X, true)}
-			}
-			// units of one π system share its frontier levels, so ties are common: the unit
-			// with the larger LUMO weight on its own atoms (the bond that reacts) wins
-			w := ed.lumo.P[0][0] + ed.lumo.P[1][1]
-			if g.Beta < best.Beta-1e-9 || (math.Abs(g.Beta-best.Beta) <= 1e-9 && w > bestW+1e-9) {
-				best, bestW, site, ok = g, w, du.Describe(diene.Mol)+" + "+eu.Describe(side.Mol), true
-			}
-		}
+// preferredGap analyses diene (4π) with side (2π) and returns the controlling gap at the
+// preferred orientation, its site description and its ranking score.
+func preferredGap(diene, side *Partner, opts *Options) (Energy, string, float64, error) {
+	p, err := Analyze(diene, side, opts)
+	if err != nil {
+		return Energy{}, "", 0, err
 	}
-	return best, site, ok
+	if len(p.Orientations) == 0 {
+		return Energy{}, "", 0, ErrNoUnit
+	}
+	return controllingGap(p), p.Orientations[0].Site, p.Orientations[0].Score, nil
 }
 
 // AttachSideChannels stores channels in the pair and adds a warning for each competing one.

@@ -114,3 +114,23 @@ func TestSideChannelWarnings(t *testing.T) {
 		t.Errorf("%d side-channel warnings for %d competing channels", n, want)
 	}
 }
+
+// TestSideChannelScoreMargin: phenyl azide + methyl acrylate gives the Δ²-1,2,3-triazoline,
+// which is isolated as the product; its N=N does not take up a second azide (R. Huisgen,
+// Angew. Chem. Int. Ed. 1963, 2, 565, 1,3-dipolar cycloadditions; from memory). The
+// triazoline's frontier gap toward the azide is close to the pair's, so the gap alone would
+// call that channel competing; the ranking score, which carries the π energy the N=N loses,
+// must keep it out.
+func TestSideChannelScoreMargin(t *testing.T) {
+	_, sc := sideFor(t, "[N-]=[N+]=Nc1ccccc1", "C=CC(=O)OC")
+	pd := channel(sc, SideProductDienophile)
+	if pd == nil {
+		t.Fatalf("phenyl azide + methyl acrylate: no product channel in %+v", sc)
+	}
+	if pd.Margin > DefaultSideChannelBeta {
+		t.Logf("gap margin %.3f already outside the band; the score test is then not exercised", pd.Margin)
+	}
+	if pd.Competes || pd.ScoreMargin <= DefaultSideChannelBeta {
+		t.Errorf("triazoline as dipolarophile: %+v, want not competing by the score margin", pd)
+	}
+}
