@@ -2,6 +2,8 @@ package fmo
 
 import (
 	"context"
+	"math"
+	"math/rand/v2"
 	"runtime"
 	"strings"
 	"sync"
@@ -204,5 +206,32 @@ func BenchmarkScreenMemory(b *testing.B) {
 			runtime.ReadMemStats(&ms)
 			b.ReportMetric(float64(int64(ms.HeapAlloc)-int64(before))/1024, "retained-KiB")
 		})
+	}
+}
+
+// The ranking relies on QuickScore giving the numbers Analyze reports. Check it on 400
+// random pairs of synthetic partners with several reacting units each (tolerance 1e-9 |β|,
+// summation order).
+func TestQuickAgreesWithAnalyzeSynthetic(t *testing.T) {
+	lib := SyntheticLibrary(60, 60, 9)
+	p, err := Prepare(context.Background(), lib, screenOpts(t), PrepareOptions{Workers: 2})
+	if err != nil || len(p.Failures) > 0 {
+		t.Fatal(err, p.Failures)
+	}
+	rnd := rand.New(rand.NewPCG(3, 3))
+	const tol = 1e-9
+	for range 400 {
+		d, e := rnd.IntN(len(p.Dienes)), rnd.IntN(len(p.Dienophiles))
+		q := QuickScore(p.Dienes[d], p.Dienophiles[e], p.Opts)
+		pair, err := Analyze(p.Dienes[d], p.Dienophiles[e], p.Opts)
+		if err != nil {
+			t.Errorf("%s + %s: %v", p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, err)
+			continue
+		}
+		if math.Abs(q.GapNormal-pair.GapNormal.Beta) > tol || math.Abs(q.Stabilization-pair.Orientations[0].Stabilization) > tol ||
+			math.Abs(q.RegioMargin-pair.RegioMargin) > tol {
+			t.Errorf("%s + %s: quick %v/%v/%v, analysis %v/%v/%v", p.Dienes[d].SMILES, p.Dienophiles[e].SMILES,
+				q.GapNormal, q.Stabilization, q.RegioMargin, pair.GapNormal.Beta, pair.Orientations[0].Stabilization, pair.RegioMargin)
+		}
 	}
 }
