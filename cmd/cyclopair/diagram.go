@@ -103,6 +103,10 @@ func runDiagram(s *streams, o *diagramOptions) error {
 	var pairs []*fmo.Pair
 	for _, m := range modes {
 		v, err := e.WithActivation(m, nil, opts)
+		if errors.Is(err, fmo.ErrNothingToActivate) && len(modes) > 1 {
+			fmt.Fprintf(s.err, "cyclopair: note: %s: --activate %s skipped: %v\n", e.SMILES, m, err)
+			continue
+		}
 		if err != nil {
 			return &inputError{fmt.Errorf("%s: --activate %s: %v", e.SMILES, m, err)}
 		}
@@ -112,6 +116,9 @@ func runDiagram(s *streams, o *diagramOptions) error {
 		}
 		variants = append(variants, v)
 		pairs = append(pairs, pair)
+	}
+	if len(variants) == 0 {
+		return &inputError{fmt.Errorf("%s: --activate %s: no mode applies to this dienophile", e.SMILES, o.activate)}
 	}
 	dg := pairDiagram(d, variants, pairs, p.Name, cal)
 	var buf bytes.Buffer
