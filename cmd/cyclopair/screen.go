@@ -98,7 +98,7 @@ Results are estimates for planning, not safety assessments.`,
 func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f := cmd.Flags()
 	f.StringVar(&o.activate, "activate", "", "activation `modes`, comma-separated: none, proton, lewis, iminium (default: the file's, else none)")
-	f.StringVar(&o.amine, "amine", "", "secondary amine `SMILES` for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
+	f.StringVar(&o.amine, "amine", "", "`SMILES` of the secondary amine for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
 	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
@@ -108,7 +108,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.Float64Var(&o.maxGap, "max-gap", 0, "keep only pairs whose controlling gap is at most `X` |β|")
 	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
-	f.IntVar(&o.workers, "workers", 0, "worker goroutines (0: all cores)")
+	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 }
 
