@@ -477,8 +477,9 @@ const maxRelaxAtoms = 40
 // that coincide are pulled apart by fixed, index-dependent offsets (no randomness).
 func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push float64) {
 	at := s.atoms
-	n := len(at)
-	p := make([]Point, n)
+	nr := len(at)
+	sys := l.systemOf[at[0]]
+	p := make([]Point, nr)
 	for i, a := range at {
 		p[i] = pos[a]
 	}
@@ -489,11 +490,35 @@ func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push floa
 			}
 		}
 	}
+	// Ghosts: one free particle per substituent bond, so the cage keeps room for the
+	// substituents that will be attached later.
+	var ghostOf []int // ring-atom index (into at) of each ghost
+	for i, a := range at {
+		var in Point
+		k := 0
+		for _, w := range l.g.adj[a] {
+			if l.systemOf[w] == sys {
+				in = in.add(pos[w].sub(pos[a]).unit())
+			} else {
+				k++
+			}
+		}
+		out := in.scale(-1).unit()
+		for j := 0; j < k; j++ {
+			ghostOf = append(ghostOf, i)
+			p = append(p, p[i].add(out.rotDeg(40*float64(j)-20*float64(k-1))))
+		}
+	}
+	n := len(p)
 	bonded := make([]bool, n*n)
 	for i, a := range at {
 		for j, b := range at {
 			bonded[i*n+j] = l.g.bondIndex(a, b) >= 0
 		}
+	}
+	for gi, ri := range ghostOf {
+		g := nr + gi
+		bonded[g*n+ri], bonded[ri*n+g] = true, true
 	}
 	f := make([]Point, n)
 	const step = 0.05
