@@ -328,8 +328,9 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 	if cfg.Selected != nil {
 		cfg.Selected(int64(len(sel)))
 	}
-	// Phase 2: full analysis of the selected rows, in windows so memory stays bounded.
-	window := max(cfg.Workers*64, 256)
+	// Phase 2: full analysis of the selected rows (milliseconds each), a few per worker at a
+	// time: memory stays bounded, the first rows come out soon, and a cancel is seen quickly.
+	window := max(cfg.Workers*4, 8)
 	rank := int64(0)
 	out := make([]*Pair, window)
 	errs := make([]error, window)
@@ -345,7 +346,7 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				for {
+				for ctx.Err() == nil {
 					i := int(nextIdx.Add(1) - 1)
 					if i >= len(part) {
 						return
