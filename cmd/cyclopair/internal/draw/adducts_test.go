@@ -5,7 +5,7 @@
 // checks the depiction contract on them. It takes a minute or two, so it only builds with
 // -tags adducts:
 //
-//	go test -tags adducts -run Adducts -v ./cmd/cyclopair/internal/draw
+//	go test -tags adducts -run AdductLayouts -v ./cmd/cyclopair/internal/draw
 package draw
 
 import (
