@@ -80,6 +80,7 @@ type Prepared struct {
 	NotApplicable int
 	activate      *ActivateOptions
 	quick         *QuickKernel
+	sides         SideChannelCache // dimerisation per diene, shared by every row of that diene
 }
 
 // Space is the pair space of the prepared library.
@@ -370,7 +371,7 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*Pair, error) {
 			}
 		}
 	}
-	pair.AttachSideChannels(SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
+	pair.AttachSideChannels(p.sides.SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
 	pair.DieneName = p.DieneRows[d].Name
 	pair.DienophileName = p.DphRows[e].Name
 	return pair, nil

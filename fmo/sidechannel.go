@@ -3,6 +3,7 @@ package fmo
 import (
 	"errors"
 	"fmt"
+	"sync"
 
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
@@ -66,6 +67,90 @@ func SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options) []SideC
 // SideChannelsWithin is SideChannels with a competition margin of margin |β|
 // (DefaultSideChannelBeta when margin ≤ 0).
 func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64) []SideChannel {
+	return sideChannels(diene, pair, opts, margin, nil)
+}
+
+// SideChannelCache memoises the part of the side-channel check that depends on the 4π
+// partner alone (its self-dimerisation), so a screen that analyses one diene with many
+// dienophiles solves that side reaction once per diene instead of once per row. It is safe for
+// concurrent use; the zero value is ready. Results are the same with or without it.
+type SideChannelCache struct {
+	mu sync.Mutex
+	m  map[*Partner]*sideOnce
+}
+
+type sideOnce struct {
+	once sync.Once
+	r    sideResult
+}
+
+// SideChannels is the package-level SideChannels with the dimerisation looked up in (and
+// stored into) the cache.
+func (c *SideChannelCache) SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options) []SideChannel {
+	return sideChannels(diene, pair, opts, DefaultSideChannelBeta, c)
+}
+
+func (c *SideChannelCache) dimerisation(diene *Partner, opts *Options) sideResult {
+	c.mu.Lock()
+	if c.m == nil {
+		c.m = make(map[*Partner]*sideOnce)
+	}
+	e := c.m[diene]
+	if e == nil {
+		e = &sideOnce{}
+		c.m[diene] = e
+	}
+	c.mu.Unlock()
+	e.once.Do(func() { e.r = dimerisation(diene, opts) })
+	return e.r
+}
+
+// sideResult is one side reaction analysed on its own, before it is compared with a pair.
+type sideResult struct {
+	kind, what string
+	skip       bool   // the side partner has no reacting unit: nothing to report
+	failed     string // non-empty: the check could not be made, and why
+	gap        Energy
+	site       string
+	score      float64
+}
+
+// analyseSide prepares m as a 2π partner and analyses it with diene.
+func analyseSide(kind, what string, diene *Partner, m *molecule.Molecule, opts *Options) sideResult {
+	r := sideResult{kind: kind, what: what}
+	sp, err := NewPartnerFromMolecule(m.Name, m, RoleDienophile, opts)
+	if err != nil {
+		if errors.Is(err, ErrNoUnit) {
+			r.skip = true
+		} else {
+			r.failed = err.Error()
+		}
+		return r
+	}
+	g, site, score, err := preferredGap(diene, sp, opts)
+	if err != nil {
+		r.failed = err.Error()
+		return r
+	}
+	r.gap, r.site, r.score = g, site, score
+	return r
+}
+
+// dimerisation analyses the 4π partner with itself; atom maps (pins) are dropped so any π
+// bond may react.
+func dimerisation(diene *Partner, opts *Options) sideResult {
+	self := diene.Mol.Clone()
+	for i := range self.Atoms {
+		self.Atoms[i].Map = 0
+	}
+	if self.Source != "" {
+		self.Source = smiles.Write(self)
+	}
+	self.Name = diene.Name
+	return analyseSide(SideDieneDimerisation, diene.Name+" dimerisation", diene, self, opts)
+}
+
+func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cache *SideChannelCache) []SideChannel {
 	if diene == nil || pair == nil || len(pair.Orientations) == 0 {
 		panic("fmo.SideChannels: nil diene or unanalysed pair")
 	}
@@ -75,20 +160,15 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 	ref := controllingGap(pair)
 	refScore := pair.Orientations[0].Score
 	out := []SideChannel{}
-	check := func(kind, what string, m *molecule.Molecule) {
-		sp, err := NewPartnerFromMolecule(m.Name, m, RoleDienophile, opts)
-		if err != nil {
-			if !errors.Is(err, ErrNoUnit) {
-				out = append(out, SideChannel{Kind: kind, Note: what + ": not checked: " + err.Error()})
-			}
+	add := func(r sideResult) {
+		switch {
+		case r.skip:
+			return
+		case r.failed != "":
+			out = append(out, SideChannel{Kind: r.kind, Note: r.what + ": not checked: " + r.failed})
 			return
 		}
-		g, site, score, err := preferredGap(diene, sp, opts)
-		if err != nil {
-			out = append(out, SideChannel{Kind: kind, Note: what + ": not checked: " + err.Error()})
-			return
-		}
-		sc := SideChannel{Kind: kind, Gap: g, Margin: g.Beta - ref.Beta, ScoreMargin: refScore - score}
+		sc := SideChannel{Kind: r.kind, Gap: r.gap, Margin: r.gap.Beta - ref.Beta, ScoreMargin: refScore - r.score}
 		sc.Competes = sc.Margin <= margin && sc.ScoreMargin <= margin
 		verdict := "does not compete"
 		switch {
@@ -99,26 +179,21 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 				fmt.Sprintf("%.3f |β| below the pair's", sc.ScoreMargin)
 		}
 		sc.Note = fmt.Sprintf("%s at %s: controlling gap %.3f |β| against %.3f |β| for the pair (margin %+.3f |β|; competes within %.2f |β|): %s",
-			what, site, g.Beta, ref.Beta, sc.Margin, margin, verdict)
+			r.what, r.site, r.gap.Beta, ref.Beta, sc.Margin, margin, verdict)
 		out = append(out, sc)
 	}
 
-	// The 4π partner with itself; atom maps (pins) are dropped so any π bond may react.
-	self := diene.Mol.Clone()
-	for i := range self.Atoms {
-		self.Atoms[i].Map = 0
+	if cache != nil {
+		add(cache.dimerisation(diene, opts))
+	} else {
+		add(dimerisation(diene, opts))
 	}
-	if self.Source != "" {
-		self.Source = smiles.Write(self)
-	}
-	self.Name = diene.Name
-	check(SideDieneDimerisation, diene.Name+" dimerisation", self)
 
 	// The adduct's remaining π bonds with the 4π partner.
 	prodSMILES := pair.Orientations[0].Product
 	if pm, err := smiles.Parse(prodSMILES); err == nil {
 		pm.Name = "adduct " + prodSMILES
-		check(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, pm)
+		add(analyseSide(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, diene, pm, opts))
 	} else {
 		out = append(out, SideChannel{Kind: SideProductDienophile, Note: "adduct " + prodSMILES + ": not checked: " + err.Error()})
 	}

@@ -134,3 +134,37 @@ func TestSideChannelScoreMargin(t *testing.T) {
 		t.Errorf("triazoline as dipolarophile: %+v, want not competing by the score margin", pd)
 	}
 }
+
+// The cache must change only the cost: the same channels, notes and verdicts as the uncached
+// check, for several dienophiles sharing one diene (cyclopentadiene, whose dimerisation is the
+// cached part), and again on a second lookup.
+func TestSideChannelCacheSameResult(t *testing.T) {
+	opts := defaultOpts(t)
+	d, err := NewPartner("cp", "C1=CCC=C1", RoleDiene, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var cache SideChannelCache
+	for round := 0; round < 2; round++ {
+		for _, s := range []string{"C=C", "O=C1OC(=O)C=C1", "C=CC=O"} {
+			e, err := NewPartner(s, s, RoleDienophile, opts)
+			if err != nil {
+				t.Fatal(err)
+			}
+			p, err := Analyze(d, e, opts)
+			if err != nil {
+				t.Fatal(err)
+			}
+			want := SideChannels(d, e, p, opts)
+			got := cache.SideChannels(d, e, p, opts)
+			if len(got) != len(want) {
+				t.Fatalf("%s: %d channels cached, %d uncached", s, len(got), len(want))
+			}
+			for i := range want {
+				if got[i] != want[i] {
+					t.Errorf("%s round %d channel %d: cached %+v, uncached %+v", s, round, i, got[i], want[i])
+				}
+			}
+		}
+	}
+}
