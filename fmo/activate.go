@@ -299,11 +299,38 @@ func Activate(m *molecule.Molecule, mode string, o *ActivateOptions) (*molecule.
 		if site.Kind == "ketone" {
 			warns = append(warns, fmt.Sprintf("%s is a ketone: ketones form iminium ions with secondary amines slowly, so the activated species may be minor (common practice, no source)", moleculeLabel(m)))
 		}
+		if enedione(m, site) {
+			warns = append(warns, fmt.Sprintf("%s is a quinone or ene-1,4-dione: secondary amines add to such acceptors in conjugate fashion (amino-quinones, with redox side reactions) rather than forming a usable iminium ion, so treat this variant as hypothetical (common practice, no source)", moleculeLabel(m)))
+		}
 		if hasAlphaH(m, site) {
 			warns = append(warns, fmt.Sprintf("%s has α-hydrogens on an sp3 carbon next to the carbonyl: with a secondary amine it may form an enamine instead of the iminium ion (common practice, no source)", moleculeLabel(m)))
 		}
 	}
 	return out, warns, nil
+}
+
+// enedione reports a second C=O carbon conjugated with the activated one through a C=C
+// (O=C–C=C–C=O: p-quinones, ene-1,4-diones) or directly bonded to it (o-quinones,
+// 1,2-diones).
+func enedione(m *molecule.Molecule, s ActivationSite) bool {
+	other := func(c int) bool { return c != s.Carbon && isCarbonylCarbon(m, c) }
+	for _, e := range m.Neighbors(s.Carbon) {
+		a := e.To
+		if other(a) {
+			return true
+		}
+		for _, f := range m.Neighbors(a) {
+			if f.To == s.Carbon || m.Bonds[f.Bond].Order != 2 || m.Atoms[f.To].Element != "C" {
+				continue
+			}
+			for _, g := range m.Neighbors(f.To) {
+				if g.To != a && other(g.To) {
+					return true
+				}
+			}
+		}
+	}
+	return false
 }
 
 // hasAlphaH reports an sp3 carbon bearing H next to the carbonyl carbon (enamine risk).
