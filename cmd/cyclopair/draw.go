@@ -43,12 +43,19 @@ with every member of the set side by side. --orbital takes homo, lumo, homo-1, l
 a 0-based level index (most bonding level first, as "index" in 'orbitals --format json').
 
 Pair picture: the 4π partner (diene, hetero-diene or 1,3-dipole) on top, the 2π partner
-below, joined by the two forming bonds (dashed) of the preferred orientation; the endo
-secondary contact is dotted; the lobes are the frontier orbitals of the controlling pairing
-(diene HOMO and dienophile LUMO for normal demand, the other two for inverse demand).
-The molecule, --diene and --dienophile take a SMILES or the name of a built-in substrate.
+below, joined by the two forming bonds (dashed) of the preferred orientation (or of the
+one --orientation names); the endo secondary contact is dotted; the lobes are the frontier
+orbitals of the controlling pairing (diene HOMO and dienophile LUMO for normal demand, the
+other two for inverse demand). An activated dienophile is drawn with its proton, Lewis acid
+or amine. The molecule, --diene and --dienophile take a SMILES or the name of a built-in
+substrate.
 
-Results are estimates for planning, not safety assessments.`,
+For one shareable page with these pictures, the ranked table, the parameters, the
+calibration and the accuracy on the literature check set, use 'cyclopair pair ... --format
+html' or 'cyclopair screen FILE --format html'.
+
+Results are estimates for planning, not safety assessments: check the SDS, a hazard review
+and local rules before any lab work.`,
 		Example: `  cyclopair draw C=CC=O --orbital lumo --svg acrolein-lumo.svg
   cyclopair draw c1ccccc1 --orbital homo > benzene-homo.svg
   cyclopair draw --diene C1=CC=CC1 --dienophile 'O=C1OC(=O)C=C1' --svg pair.svg
