@@ -82,10 +82,10 @@ func (c *canvas) circle(x, y, r float64, attrs string) {
 	c.body.WriteString(`<circle cx="` + num(x) + `" cy="` + num(y) + `" r="` + num(r) + `" ` + attrs + "/>\n")
 }
 
-// text writes escaped text; anchor is "start", "middle" or "end". The width estimate (0.58
+// text writes escaped text; anchor is "start", "middle" or "end". The width estimate (charWidth
 // em per character) only sizes the canvas.
 func (c *canvas) text(x, y float64, s string, size float64, anchor, attrs string) {
-	w := 0.58 * size * float64(len([]rune(s)))
+	w := charWidth * size * float64(len([]rune(s)))
 	switch anchor {
 	case "middle":
 		c.extend(x-w/2, y, size/2)
@@ -139,14 +139,20 @@ func sanitizeID(s string) string {
 }
 
 // captionChars is the caption line length for a canvas: the width of what is drawn so far
-// (the molecules and their labels) in characters, but at least 64 so short pictures do not
+// (the molecules and their labels) in characters, but at least 56 so short pictures do not
 // get tall captions.
+//
+// charWidth is the average advance of a character in em used to size text boxes: DejaVu Sans
+// digits are 0.64 em and capitals and '=' wider, so 0.58 let caption lines with SMILES run
+// past the right edge (seen in Chromium screenshots); 0.66 errs on the roomy side.
+const charWidth = 0.66
+
 func captionChars(c *canvas) int {
 	w := c.maxX - math.Min(c.minX, 0)
 	if math.IsInf(w, 0) || math.IsNaN(w) {
 		return 64
 	}
-	return max(64, int(w/(0.58*textSize)))
+	return max(56, int(w/(charWidth*textSize)))
 }
 
 // wrap breaks each line at spaces so no piece is longer than width characters (a single
