@@ -33,7 +33,7 @@ func ExampleAnalyze() {
 	// Output:
 	// normal I true
 	// para C1C=C(C)CCC1C(=O)OC clear
-	// gaps 1.001 / 1.643 |β|
+	// gaps 1.005 / 1.634 |β|
 }
 
 // QuickScore gives the ranking numbers of Analyze without building products.

@@ -1,8 +1,11 @@
 package fmo
 
 import (
+	"fmt"
 	"strings"
 	"testing"
+
+	"cyclopair/huckel/smiles"
 )
 
 func sideFor(t *testing.T, diene, dienophile string) (*Pair, []SideChannel) {
@@ -72,13 +75,35 @@ func TestSideChannelsCyclopentadiene(t *testing.T) {
 // concentrations (margin above DefaultSideChannelBeta), which matches the mono-adduct
 // forming first.
 func TestSideChannelsBenzoquinone(t *testing.T) {
-	_, sc := sideFor(t, "C=CC=C", "O=C1C=CC(=O)C=C1")
+	p, sc := sideFor(t, "C=CC=C", "O=C1C=CC(=O)C=C1")
 	pd := channel(sc, SideProductDienophile)
 	if pd == nil {
 		t.Fatalf("butadiene + benzoquinone: no product channel in %+v", sc)
 	}
-	if !strings.Contains(pd.Note, "+ C9-C10") {
-		t.Errorf("product channel at %q, want the enedione C9=C10 of the adduct", pd.Note)
+	// The 2π unit named in the note ("+ Cn-Cm", 1-based in the adduct SMILES) must be the
+	// enedione C=C: both carbons next to a carbonyl carbon.
+	var a, b int
+	if i := strings.Index(pd.Note, "+ C"); i < 0 {
+		t.Fatalf("no 2π unit in note %q", pd.Note)
+	} else if _, err := fmt.Sscanf(pd.Note[i:], "+ C%d-C%d", &a, &b); err != nil {
+		t.Fatalf("note %q: %v", pd.Note, err)
+	}
+	adduct, err := smiles.Parse(p.Orientations[0].Product)
+	if err != nil {
+		t.Fatal(err)
+	}
+	nextToCarbonyl := func(i int) bool {
+		for _, e := range adduct.Neighbors(i) {
+			for _, f := range adduct.Neighbors(e.To) {
+				if adduct.Atoms[f.To].Element == "O" && adduct.Bonds[f.Bond].Order == 2 {
+					return true
+				}
+			}
+		}
+		return false
+	}
+	if !nextToCarbonyl(a-1) || !nextToCarbonyl(b-1) {
+		t.Errorf("product channel at %q in %s, want the enedione C=C of the adduct", pd.Note, p.Orientations[0].Product)
 	}
 	if pd.Competes || pd.Margin <= DefaultSideChannelBeta || pd.Margin >= 0.5 {
 		t.Errorf("product channel margin %.3f |β| (competes %v): want reported, not competing, below 0.5 |β|", pd.Margin, pd.Competes)

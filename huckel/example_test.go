@@ -11,7 +11,7 @@ import (
 // Butadiene: the four π levels, the frontier orbitals and the π energy.
 func ExampleSolve() {
 	m, _ := smiles.Parse("C=CC=C")
-	p, _ := presets.Params(presets.DefaultParams)
+	p, _ := presets.Params("streitwieser1961")
 	ps, _ := huckel.Perceive(m, p)
 	o, err := huckel.Solve(ps)
 	if err != nil {
@@ -33,7 +33,7 @@ func ExampleSolve() {
 // Pyridine: the ring nitrogen is a one-electron centre with the set's h and k.
 func ExamplePerceive() {
 	m, _ := smiles.Parse("c1ccncc1")
-	p, _ := presets.Params(presets.DefaultParams)
+	p, _ := presets.Params("streitwieser1961")
 	ps, err := huckel.Perceive(m, p)
 	if err != nil {
 		fmt.Println(err)

@@ -18,10 +18,10 @@ import (
 //go:embed params/*.yaml
 var paramFS embed.FS
 
-// DefaultParams is the name of the parameter set used when none is chosen: Streitwieser's
-// (1961) recommended values with the heteroatom model of methyl hyperconjugation switched
-// on (see presets/params/streitwieser1961.yaml for the reasons).
-const DefaultParams = "streitwieser1961"
+// DefaultParams is the name of the parameter set used when none is chosen: Van-Catledge's
+// (1980) PPP-based values with Streitwieser's (1961) heteroatom model of methyl
+// hyperconjugation switched on (see presets/params/vancatledge1980.yaml for the reasons).
+const DefaultParams = "vancatledge1980"
 
 var (
 	paramOnce sync.Once

@@ -72,8 +72,12 @@ h:
 	if h, _ := p.H(huckel.NPyridine); h != 0.7 {
 		t.Errorf("override h(N=) = %g, want 0.7", h)
 	}
-	if h, _ := p.H(huckel.OCarbonyl); h != 1.0 {
-		t.Errorf("inherited h(O=) = %g, want 1.0 from %s", h, DefaultParams)
+	base, err := Params(DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if h, _ := p.H(huckel.OCarbonyl); h != must(base.H(huckel.OCarbonyl)) {
+		t.Errorf("inherited h(O=) = %g, want %g from %s", h, must(base.H(huckel.OCarbonyl)), DefaultParams)
 	}
 }
 
@@ -89,4 +93,11 @@ func TestDefaultCalibration(t *testing.T) {
 	if c.HOMOSlope >= 0 || c.LUMOSlope >= 0 || c.HOMON < 20 || c.LUMON < 10 || c.R2 < 0.5 {
 		t.Errorf("calibration %v", c)
 	}
+}
+
+func must(h float64, ok bool) float64 {
+	if !ok {
+		panic("presets test: missing parameter")
+	}
+	return h
 }
