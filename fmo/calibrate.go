@@ -111,11 +111,11 @@ var calibrationRowKeys = []string{"id", "kind", "molecule", "name", "value_eV", 
 const maxCalibrationFile = 4 << 20
 
 func readCalibrationCapped(r io.Reader, filename string) ([]byte, error) {
-	data, err := io.ReadAll(io.LimitReader(r, maxCalibrationFile+1))
+	data, tooLarge, err := readLimited(r, maxCalibrationFile)
 	if err != nil {
 		return nil, &RowError{File: filename, Msg: err.Error(), Hint: "check the file"}
 	}
-	if len(data) > maxCalibrationFile {
+	if tooLarge {
 		return nil, &RowError{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCalibrationFile)}
 	}
 	return data, nil
@@ -141,13 +141,8 @@ func parseYAMLRoot(data []byte, filename, want string) (*yaml.Node, error) {
 }
 
 func rejectAliasRows(n *yaml.Node, file string) error {
-	if n.Kind == yaml.AliasNode {
-		return &RowError{File: file, Line: n.Line, Col: n.Column, Msg: "YAML aliases are not allowed", Hint: "write the value out"}
-	}
-	for _, c := range n.Content {
-		if err := rejectAliasRows(c, file); err != nil {
-			return err
-		}
+	if a := firstAlias(n); a != nil {
+		return &RowError{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed", Hint: "write the value out"}
 	}
 	return nil
 }

@@ -235,11 +235,11 @@ func readCapped(r io.Reader, name string, max int64) ([]byte, error) {
 	if max <= 0 {
 		max = DefaultMaxFileBytes
 	}
-	data, err := io.ReadAll(io.LimitReader(r, max+1))
+	data, tooLarge, err := readLimited(r, max)
 	if err != nil {
 		return nil, &FileError{File: name, Msg: "cannot read: " + err.Error(), Kind: ErrFileSyntax, Cause: err}
 	}
-	if int64(len(data)) > max {
+	if tooLarge {
 		return nil, &FileError{File: name, Msg: fmt.Sprintf("larger than %d bytes", max),
 			Hint: "split the screen into several files, or use --shard", Kind: ErrFileTooLarge}
 	}

@@ -261,13 +261,8 @@ func checkKeys(root *yaml.Node, file string) error {
 }
 
 func rejectAliasNodes(n *yaml.Node, file string) error {
-	if n.Kind == yaml.AliasNode {
-		return &CheckSetError{File: file, Line: n.Line, Col: n.Column, Msg: "YAML aliases are not allowed in a check set (write the value out)"}
-	}
-	for _, c := range n.Content {
-		if err := rejectAliasNodes(c, file); err != nil {
-			return err
-		}
+	if a := firstAlias(n); a != nil {
+		return &CheckSetError{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed in a check set (write the value out)"}
 	}
 	return nil
 }
