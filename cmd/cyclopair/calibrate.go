@@ -241,6 +241,21 @@ func dash(s string) string {
 // p: "" or "default" is the built-in calibration fitted for p; anything else is a calibration
 // file written by 'cyclopair calibrate --out'. A file fitted for another parameter set is
 // used with a warning on stderr. Errors are inputErrors in the CLI's one-line format.
+// resolveModel resolves the --params and --calibration flags together: the parameter set
+// first, then the calibration fitted for it (or the user's file, with a warning when it was
+// fitted for another set).
+func resolveModel(s *streams, params, calibration string) (*huckel.Params, huckel.Calibration, error) {
+	p, err := resolveParams(params)
+	if err != nil {
+		return nil, huckel.Calibration{}, err
+	}
+	cal, err := resolveCalibration(s, calibration, p)
+	if err != nil {
+		return nil, huckel.Calibration{}, err
+	}
+	return p, cal, nil
+}
+
 func resolveCalibration(s *streams, spec string, p *huckel.Params) (huckel.Calibration, error) {
 	if spec == "" || spec == "default" {
 		cal, err := presets.Calibration(p)

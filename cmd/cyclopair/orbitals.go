@@ -77,11 +77,7 @@ type orbitalsInput struct {
 
 // runOrbitals computes and prints every input. It is the testable body of the command.
 func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
-	p, err := resolveParams(opts.params)
-	if err != nil {
-		return err
-	}
-	cal, err := resolveCalibration(s, opts.calibration, p)
+	p, cal, err := resolveModel(s, opts.params, opts.calibration)
 	if err != nil {
 		return err
 	}

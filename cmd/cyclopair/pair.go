@@ -105,11 +105,7 @@ and local rules before any lab work.`,
 
 // runPair is the testable body of 'cyclopair pair'.
 func runPair(s *streams, opts *pairOptions) error {
-	p, err := resolveParams(opts.params)
-	if err != nil {
-		return err
-	}
-	cal, err := resolveCalibration(s, opts.calibration, p)
+	p, cal, err := resolveModel(s, opts.params, opts.calibration)
 	if err != nil {
 		return err
 	}

@@ -69,11 +69,7 @@ Results are estimates for planning, not safety assessments.`,
 
 // runValidate is the testable body of 'cyclopair validate'.
 func runValidate(s *streams, opts *validateOptions) error {
-	p, err := resolveParams(opts.params)
-	if err != nil {
-		return err
-	}
-	cal, err := resolveCalibration(s, opts.calibration, p)
+	p, cal, err := resolveModel(s, opts.params, opts.calibration)
 	if err != nil {
 		return err
 	}
