@@ -464,7 +464,8 @@ func TestPairingTermContinuity(t *testing.T) {
 }
 
 // TestEndoTermBruteForce checks the expanded secondary-orbital formula against the direct sum
-// over frontier set members of (Σ_contacts w·c·c)², from the orbital coefficients.
+// over frontier set members of (Σ_contacts w·c·c)², from the orbital coefficients, in the
+// controlling pairing (the one with the smaller gap).
 func TestEndoTermBruteForce(t *testing.T) {
 	const tol = 1e-12 // |β|
 	o := testOptions(t)
@@ -501,7 +502,12 @@ func bruteEndo(d, e *Partner, du, eu Unit, dd, ed *unitData, or int, o *Options)
 		return p.Orb.Coefficient(level, atom)
 	}
 	total := 0.0
-	for _, pr := range [2][2]frontierSet{{dd.homo, ed.lumo}, {dd.lumo, ed.homo}} {
+	pairings := [2][2]frontierSet{{dd.homo, ed.lumo}, {dd.lumo, ed.homo}}
+	ctrl := pairings[:1]
+	if ed.homo.X-dd.lumo.X < dd.homo.X-ed.lumo.X {
+		ctrl = pairings[1:]
+	}
+	for _, pr := range ctrl {
 		g := pr[0].X - pr[1].X
 		if pr[0].X < pr[1].X {
 			g = pr[1].X - pr[0].X

@@ -204,10 +204,19 @@ func (d *unitData) endoUnit(kind UnitKind) endoUnit {
 // endoTerm is the secondary-orbital (endo) term of diene unit d with dienophile unit e in
 // orientation o: the extra stabilisation when the diene's inner atoms b and c also couple,
 // with γ_s, to the dienophile's conjugated substituent atoms x' and y' (b sits over the
-// substituent of the atom a bonds to, c over that of the atom d bonds to), in both frontier
-// pairings, with the same second-/first-order form as the frontier term:
+// substituent of the atom a bonds to, c over that of the atom d bonds to), in the controlling
+// frontier pairing (the smaller gap: HOMO(diene)–LUMO(dienophile) for normal demand), with the
+// same second-/first-order form as the frontier term:
 //
-//	endo = Σ_pairings [E(S_primary + 2γγ_s·X + γ_s²·Y) − E(S_primary)]
+//	endo = E(S_primary + 2γγ_s·X + γ_s²·Y) − E(S_primary)
+//
+// Only the controlling pairing counts because that is the interaction the secondary-orbital
+// argument is about (R. Hoffmann, R. B. Woodward, J. Am. Chem. Soc. 1965, 87, 4388: diene
+// HOMO with the dienophile LUMO at the carbonyl carbon). Summing the minor pairing too made
+// the term fall on Lewis-acid activation — its diene-LUMO part shrinks as the activated
+// dienophile's HOMO drops — against the growth of endo selectivity that catalysis shows and
+// that Houk & Strozier (J. Am. Chem. Soc. 1973, 95, 4094) explain by the larger LUMO
+// coefficient at the carbonyl carbon.
 //
 // where, for o = 0 (a–x, d–y) with set projectors P (diene) and Q (dienophile),
 // S_primary = γ²(P_aa Q_xx + P_dd Q_yy + 2 P_ad Q_xy), X = P_ab Q_xx' + P_ac Q_xy' + P_db Q_yx'
@@ -221,8 +230,13 @@ func (k *kernel) endoTerm(d, e *fastUnit, de, ee *endoUnit, o int) float64 {
 	cross := 2 * k.gamma * k.gammaS
 	sec := k.gammaS * k.gammaS
 	total := 0.0
-	// pairing 0: diene HOMO (set 0) × dienophile LUMO (set 1); pairing 1: LUMO × HOMO.
-	for pr := 0; pr < 2; pr++ {
+	// pairing 0: diene HOMO (set 0) × dienophile LUMO (set 1); pairing 1: LUMO × HOMO; only
+	// the controlling one (smaller gap) is used.
+	ctrl := 0
+	if e.hx-d.lx < d.hx-e.lx {
+		ctrl = 1
+	}
+	for pr := ctrl; pr <= ctrl; pr++ {
 		ds, es := pr, 1-pr
 		var dh, el *[3]float64
 		var g float64
