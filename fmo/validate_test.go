@@ -208,3 +208,46 @@ func FuzzLoadCheckSet(f *testing.F) {
 		}
 	})
 }
+
+// TestSiteCaseSymmetryEquivalent: p-benzoquinone's two C=C bonds are equivalent, so a site
+// case that maps one of them must count the other when the case also gives the observed
+// adduct (butadiene + p-benzoquinone gives the cis-fused 4a,5,8,8a-tetrahydronaphthoquinone;
+// O. Diels, K. Alder, Liebigs Ann. Chem. 1928, 460, 98; from memory). Without the product, the
+// atom maps alone decide, so mapping the C=C the engine does not choose is then a miss.
+func TestSiteCaseSymmetryEquivalent(t *testing.T) {
+	opts, err := DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Which C=C the engine picks: try the maps on each in turn.
+	probe := func(dienophile, product string) CaseResult {
+		t.Helper()
+		y := `cases:
+- id: t-1
+  category: site
+  diene: {name: butadiene, smiles: "C=CC=C"}
+  dienophile: {name: quinone, smiles: "` + dienophile + `"}
+  expect: {dienophile_atoms: [5, 6]` + product + `}
+  observed: "adds at a C=C"
+  source: "O. Diels, K. Alder, Liebigs Ann. Chem. 1928, 460, 98"
+  confidence: from memory
+`
+		set, err := LoadCheckSet(strings.NewReader(y), "t.yaml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		return Validate(set, opts).Cases[0]
+	}
+	a := probe("O=C1[CH:5]=[CH:6]C(=O)C=C1", "")
+	b := probe("O=C1C=CC(=O)[CH:5]=[CH:6]1", "")
+	if a.Hit == b.Hit {
+		t.Fatalf("maps on either C=C: hit %v and %v; want exactly one to match the engine's choice", a.Hit, b.Hit)
+	}
+	other := "O=C1[CH:5]=[CH:6]C(=O)C=C1"
+	if a.Hit {
+		other = "O=C1C=CC(=O)[CH:5]=[CH:6]1"
+	}
+	if r := probe(other, `, product: "O=C1C=CC(=O)C2CC=CCC12"`); !r.Hit {
+		t.Errorf("equivalent C=C with the observed product: %s, want a hit (got %s, product %s)", r.Status, r.Got, r.GotProduct)
+	}
+}
