@@ -144,6 +144,11 @@ func runPair(s *streams, opts *pairOptions) error {
 	if opts.format == "html" {
 		page = newPairHTML(s, diene, dienophile, fo, act, cal)
 	}
+	// Are the partners in the right roles? Checked once, on the unactivated substrates.
+	var roleWarning string
+	if base, err := fmo.Analyze(diene, dienophile, fo); err == nil {
+		roleWarning = fmo.RoleCheck(diene, dienophile, base, fo)
+	}
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
@@ -160,6 +165,9 @@ func runPair(s *streams, opts *pairOptions) error {
 		}
 		pair := v.Pair
 		pair.AttachSideChannels(fmo.SideChannels(diene, dienophile, pair, fo))
+		if roleWarning != "" {
+			pair.Warnings = append(pair.Warnings, roleWarning)
+		}
 		switch opts.format {
 		case "json":
 			b, err := json.Marshal(pair)
