@@ -10,7 +10,6 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/huckel"
-	"cyclopair/huckel/smiles"
 
 	"github.com/spf13/cobra"
 )
@@ -79,23 +78,11 @@ func runDiagram(s *streams, o *diagramOptions) error {
 	if len(modes) == 0 {
 		modes = []string{fmo.ActivateNone}
 	}
-	build := func(v string, role fmo.Role, flag string) (*fmo.Partner, error) {
-		name, smi := partnerInput(v)
-		part, err := fmo.NewPartner(name, smi, role, opts)
-		if err != nil {
-			var se *smiles.Error
-			if errors.As(err, &se) {
-				return nil, smilesErr(smi, err)
-			}
-			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, flag, err)}
-		}
-		return part, nil
-	}
-	d, err := build(o.diene, fmo.RoleDiene, "--diene")
+	d, err := pairPartner(o.diene, fmo.RoleDiene, opts)
 	if err != nil {
 		return err
 	}
-	e, err := build(o.dienophile, fmo.RoleDienophile, "--dienophile")
+	e, err := pairPartner(o.dienophile, fmo.RoleDienophile, opts)
 	if err != nil {
 		return err
 	}

@@ -252,23 +252,11 @@ func partnerInput(v string) (name, smi string) {
 
 func drawPair(opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
 	o := fmo.NewOptions(p, cal, cal.Name)
-	build := func(v string, role fmo.Role, flag string) (*fmo.Partner, error) {
-		name, smi := partnerInput(v)
-		part, err := fmo.NewPartner(name, smi, role, o)
-		if err != nil {
-			var se *smiles.Error
-			if errors.As(err, &se) {
-				return nil, smilesErr(smi, err)
-			}
-			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, flag, err)}
-		}
-		return part, nil
-	}
-	d, err := build(opts.diene, fmo.RoleDiene, "--diene")
+	d, err := pairPartner(opts.diene, fmo.RoleDiene, o)
 	if err != nil {
 		return nil, err
 	}
-	e, err := build(opts.dienophile, fmo.RoleDienophile, "--dienophile")
+	e, err := pairPartner(opts.dienophile, fmo.RoleDienophile, o)
 	if err != nil {
 		return nil, err
 	}
