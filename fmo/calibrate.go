@@ -64,7 +64,7 @@ func (e *RowError) Error() string {
 	var b strings.Builder
 	b.WriteString(e.File)
 	if e.Line > 0 {
-		fmt.Fprintf(&b, ":%d:%d", e.Line, e.Col)
+		fmt.Fprintf(&b, ": %d:%d", e.Line, e.Col)
 	}
 	b.WriteString(": ")
 	if e.ID != "" {

@@ -52,7 +52,7 @@ func loadPolyenes(t *testing.T) ([]CalibrationRow, []*RowError) {
 func TestFitCalibrationData(t *testing.T) {
 	rows, bad := loadPolyenes(t)
 	// BAD1 (kind), BAD3 (unknown key), BAD4 (no value) are caught while loading
-	wantLoad := []string{"polyenes.yaml:92:9: BAD1: unknown kind \"proton_affinity\"", "polyenes.yaml:102:3: BAD3: unknown key \"valu_eV\"", "BAD4: missing or non-finite value_eV"}
+	wantLoad := []string{"polyenes.yaml: 92:9: BAD1: unknown kind \"proton_affinity\"", "polyenes.yaml: 102:3: BAD3: unknown key \"valu_eV\"", "BAD4: missing or non-finite value_eV"}
 	if len(bad) != len(wantLoad) {
 		t.Fatalf("load: %d bad rows %v, want %d", len(bad), bad, len(wantLoad))
 	}
@@ -66,7 +66,7 @@ func TestFitCalibrationData(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(bad2) != 1 || !strings.Contains(bad2[0].Error(), `polyenes.yaml:97:20: BAD2: SMILES "C=CC(=C": unclosed branch`) || !strings.Contains(bad2[0].Error(), "BAD2") {
+	if len(bad2) != 1 || !strings.Contains(bad2[0].Error(), `polyenes.yaml: 97:20: BAD2: SMILES "C=CC(=C": unclosed branch`) || !strings.Contains(bad2[0].Error(), "BAD2") {
 		t.Errorf("fit: bad rows %v, want BAD2's SMILES error with its line", bad2)
 	}
 	phi := 2 * math.Cos(2*math.Pi/5)
@@ -149,12 +149,12 @@ func TestLoadCalibrationFileErrors(t *testing.T) {
 		t.Fatalf("good: %v", err)
 	}
 	for _, tc := range []struct{ name, text, want string }{
-		{"unknown key", good + "extra: 1\n", `c.yaml:6:1: unknown key "extra" (known here: format, name`},
-		{"unknown map key", strings.Replace(good, "slope: -2.9", "slop: -2.9", 1), `c.yaml:4:25: unknown key "slop"`},
-		{"bad number", strings.Replace(good, "-2.9", "steep", 1), "c.yaml:4:1: yaml: unmarshal errors"},
-		{"format", strings.Replace(good, "/1", "/9", 1), `c.yaml:1:9: format "cyclopair-calibration/9"`},
-		{"positive slope", strings.Replace(good, "slope: -1.8", "slope: 1.8", 1), "c.yaml:5:31: lumo: slope 1.8 must be negative"},
-		{"missing slope", strings.Replace(good, ", slope: -2.9", "", 1), "c.yaml:4:7: homo: needs intercept and slope"},
+		{"unknown key", good + "extra: 1\n", `c.yaml: 6:1: unknown key "extra" (known here: format, name`},
+		{"unknown map key", strings.Replace(good, "slope: -2.9", "slop: -2.9", 1), `c.yaml: 4:25: unknown key "slop"`},
+		{"bad number", strings.Replace(good, "-2.9", "steep", 1), "c.yaml: 4:1: yaml: unmarshal errors"},
+		{"format", strings.Replace(good, "/1", "/9", 1), `c.yaml: 1:9: format "cyclopair-calibration/9"`},
+		{"positive slope", strings.Replace(good, "slope: -1.8", "slope: 1.8", 1), "c.yaml: 5:31: lumo: slope 1.8 must be negative"},
+		{"missing slope", strings.Replace(good, ", slope: -2.9", "", 1), "c.yaml: 4:7: homo: needs intercept and slope"},
 		{"syntax", "format: [\n", "c.yaml: yaml:"},
 		{"not a mapping", "- 1\n", "top level is not a mapping"},
 	} {

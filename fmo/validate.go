@@ -48,7 +48,7 @@ type CheckSetError struct {
 
 func (e *CheckSetError) Error() string {
 	if e.Line > 0 {
-		return fmt.Sprintf("%s:%d:%d: %s", e.File, e.Line, e.Col, e.Msg)
+		return fmt.Sprintf("%s: %d:%d: %s", e.File, e.Line, e.Col, e.Msg)
 	}
 	return e.File + ": " + e.Msg
 }

@@ -148,11 +148,11 @@ func TestLoadCheckSetErrors(t *testing.T) {
 	for _, tc := range []struct {
 		name, edit, want string
 	}{
-		{"unknown key", strings.Replace(good, "  source:", "  sorce: x\n  source:", 1), `bad.yaml:7:3: unknown key "sorce" (known here: id, category`},
-		{"unknown expect key", strings.Replace(good, "{bonds:", "{bond: 1, bonds:", 1), `bad.yaml:6:12: unknown key "bond"`},
-		{"bad category", strings.Replace(good, "category: regio", "category: regiox", 1), `bad.yaml:3:13: a: unknown category "regiox"`},
+		{"unknown key", strings.Replace(good, "  source:", "  sorce: x\n  source:", 1), `bad.yaml: 7:3: unknown key "sorce" (known here: id, category`},
+		{"unknown expect key", strings.Replace(good, "{bonds:", "{bond: 1, bonds:", 1), `bad.yaml: 6:12: unknown key "bond"`},
+		{"bad category", strings.Replace(good, "category: regio", "category: regiox", 1), `bad.yaml: 3:13: a: unknown category "regiox"`},
 		{"missing map", strings.Replace(good, "[4, 6]", "[4, 7]", 1), "atom map 7 does not occur in the dienophile SMILES"},
-		{"bad smiles", strings.Replace(good, "C=[CH2:4]", "C=[CH2:4", 1), "bad.yaml:4:"},
+		{"bad smiles", strings.Replace(good, "C=[CH2:4]", "C=[CH2:4", 1), "bad.yaml: 4:"},
 		{"bad confidence", strings.Replace(good, "from memory", "sure", 1), `confidence "sure"`},
 		{"no source", strings.Replace(good, `  source: "A. Author, J. Chem. 1970, 1, 1"`+"\n", "", 1), "missing source"},
 		{"duplicate id", good + strings.TrimPrefix(good, "cases:\n"), "duplicate id a"},

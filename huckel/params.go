@@ -98,7 +98,7 @@ type ParamsError struct {
 func (e *ParamsError) Error() string {
 	pos := e.File
 	if e.Line > 0 {
-		pos = fmt.Sprintf("%s:%d:%d", e.File, e.Line, e.Col)
+		pos = fmt.Sprintf("%s: %d:%d", e.File, e.Line, e.Col)
 	}
 	return pos + ": " + e.Msg
 }

@@ -12,19 +12,19 @@ func TestParseParamsErrors(t *testing.T) {
 	tests := []struct {
 		name, src, want string
 	}{
-		{"unknown key", "name: x\nhh: 1\n", "x.yaml:2:1: unknown key \"hh\" at the top level (keys: name,"},
-		{"unknown entry key", "name: x\nh:\n  - {type: C, hh: 1, source: s}\n", "x.yaml:3:15: unknown key \"hh\" in an h entry (keys: type, h, source)"},
-		{"not a number", "name: x\nh:\n  - {type: C, h: one, source: s}\n", "x.yaml:3:18: cannot unmarshal !!str `one` into a number"},
-		{"unknown type", "name: x\nh:\n  - {type: Q, h: 1, source: s}\n", "x.yaml:3:12: h entry 1: unknown centre type \"Q\""},
-		{"missing source", "name: x\nh:\n  - {type: C, h: 1}\n", "x.yaml:3:5: h entry 1 (C): missing source"},
-		{"duplicate h", "name: x\nh:\n  - {type: C, h: 1, source: s}\n  - {type: C, h: 2, source: s}\n", "x.yaml:4:5: h entry 2: duplicate entry for type C"},
-		{"bad k arity", "name: x\nk:\n  - {types: [C], k: 1, source: s}\n", "x.yaml:3:5: k entry 1: types must list exactly two"},
-		{"negative k", "name: x\nk:\n  - {types: [C, C], k: -1, source: s}\n", "x.yaml:3:24: k entry 1 (C–C): k = -1 must be in (0, 5]"},
+		{"unknown key", "name: x\nhh: 1\n", "x.yaml: 2:1: unknown key \"hh\" at the top level (keys: name,"},
+		{"unknown entry key", "name: x\nh:\n  - {type: C, hh: 1, source: s}\n", "x.yaml: 3:15: unknown key \"hh\" in an h entry (keys: type, h, source)"},
+		{"not a number", "name: x\nh:\n  - {type: C, h: one, source: s}\n", "x.yaml: 3:18: cannot unmarshal !!str `one` into a number"},
+		{"unknown type", "name: x\nh:\n  - {type: Q, h: 1, source: s}\n", "x.yaml: 3:12: h entry 1: unknown centre type \"Q\""},
+		{"missing source", "name: x\nh:\n  - {type: C, h: 1}\n", "x.yaml: 3:5: h entry 1 (C): missing source"},
+		{"duplicate h", "name: x\nh:\n  - {type: C, h: 1, source: s}\n  - {type: C, h: 2, source: s}\n", "x.yaml: 4:5: h entry 2: duplicate entry for type C"},
+		{"bad k arity", "name: x\nk:\n  - {types: [C], k: 1, source: s}\n", "x.yaml: 3:5: k entry 1: types must list exactly two"},
+		{"negative k", "name: x\nk:\n  - {types: [C, C], k: -1, source: s}\n", "x.yaml: 3:24: k entry 1 (C–C): k = -1 must be in (0, 5]"},
 		{"bad order", "name: x\nk:\n  - {types: [C, C], order: 4, k: 1, source: s}\n", "k entry 1: order must be 1, 2 or 3"},
-		{"wrong kind", "name: x\nh: 3\n", "x.yaml:2:4: cannot unmarshal !!int `3` into a list of h entries"},
+		{"wrong kind", "name: x\nh: 3\n", "x.yaml: 2:4: cannot unmarshal !!int `3` into a list of h entries"},
 		{"syntax", "name: [x\n", "x.yaml: not valid YAML"},
-		{"alias", "name: &a x\ntitle: *a\n", "x.yaml:2:8: YAML aliases are not allowed"},
-		{"omega range", "name: x\nomega: 9\n", "x.yaml:2:8: omega must be between 0 and 5"},
+		{"alias", "name: &a x\ntitle: *a\n", "x.yaml: 2:8: YAML aliases are not allowed"},
+		{"omega range", "name: x\nomega: 9\n", "x.yaml: 2:8: omega must be between 0 and 5"},
 		{"empty", "", "x.yaml: empty file"},
 	}
 	for _, tc := range tests {

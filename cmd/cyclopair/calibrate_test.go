@@ -20,8 +20,8 @@ func TestCalibrateCLI(t *testing.T) {
 			t.Errorf("%s: exit %d, want %d (bad rows)\n%s", format, code, exitPartial, errOut)
 		}
 		for _, want := range []string{
-			`cyclopair: testdata/calibrate/data.yaml:14:20: BAD1: unknown kind "electron_afinity" (use ionization_energy or electron_affinity)`,
-			"testdata/calibrate/data.yaml:15:54: BAD2: SMILES \"C=C[Xx]\": unknown element Xx",
+			`cyclopair: testdata/calibrate/data.yaml: 14:20: BAD1: unknown kind "electron_afinity" (use ionization_energy or electron_affinity)`,
+			"testdata/calibrate/data.yaml: 15:54: BAD2: SMILES \"C=C[Xx]\": unknown element Xx",
 			"cyclopair: 2 of 10 inputs failed",
 		} {
 			if !strings.Contains(errOut, want) {
@@ -72,7 +72,7 @@ func TestCalibrateOutAndLoad(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, errOut, code = runCLI(t, "", "validate", "--cases", cases, "--calibration", bad)
-	if code != exitUsage || !strings.Contains(errOut, "bad.cal.yaml:3:30: homo: slope 2 must be negative") {
+	if code != exitUsage || !strings.Contains(errOut, "bad.cal.yaml: 3:30: homo: slope 2 must be negative") {
 		t.Errorf("bad calibration: exit %d, stderr %s", code, errOut)
 	}
 	_, errOut, code = runCLI(t, "", "validate", "--calibration", filepath.Join(dir, "none.yaml"))

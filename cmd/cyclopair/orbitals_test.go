@@ -147,7 +147,7 @@ func TestOrbitalsErrors(t *testing.T) {
 	}{
 		{[]string{"orbitals", "C=C", "--format", "xml"}, 2, "--format \"xml\""},
 		{[]string{"orbitals", "C=C", "--params", "nosuch"}, 2, "nosuch: no such parameter set or file (built-in sets:"},
-		{[]string{"orbitals", "C=C", "--params", bad}, 2, "bad.yaml:3:12: h entry 1: unknown centre type \"Q\""},
+		{[]string{"orbitals", "C=C", "--params", bad}, 2, "bad.yaml: 3:12: h entry 1: unknown centre type \"Q\""},
 		{[]string{"orbitals", "CCC"}, 2, "cyclopair: CCC: no π system"},
 		{[]string{"orbitals", "C=C", "-"}, 2, "'-' (read stdin) cannot be combined"},
 		{[]string{"orbitals", "C=C", "C1CC"}, 1, "cyclopair: C1CC: column 2"},

@@ -69,7 +69,7 @@ func TestValidateStrict(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, errOut, code = runCLI(t, "", "validate", "--cases", bad)
-	if code != exitUsage || !strings.Contains(errOut, `bad.yaml:5:13: regio-01: unknown category "regiox"`) {
+	if code != exitUsage || !strings.Contains(errOut, `bad.yaml: 5:13: regio-01: unknown category "regiox"`) {
 		t.Errorf("bad check set: exit %d, stderr %q", code, errOut)
 	}
 }
