@@ -174,48 +174,41 @@ func drawOrbital(arg string, opts *drawOptions, p *huckel.Params, cal huckel.Cal
 }
 
 // pickLevel resolves homo, lumo, homo-N, lumo+N, somo or a 0-based index to a level index.
+// Levels are sorted bonding first, so homo-N counts towards smaller indices and lumo+N
+// towards larger ones.
 func pickLevel(orb *huckel.Orbitals, spec string) (int, string, error) {
 	spec = strings.ToLower(strings.TrimSpace(spec))
 	n := len(orb.Levels)
-	base, off, word := -1, 0, ""
-	switch {
-	case strings.HasPrefix(spec, "homo"):
-		base, word = orb.HOMO, "HOMO"
-		if base < 0 {
-			return 0, "", errors.New("the π system has no occupied level (use lumo or a level index)")
+	for _, f := range []struct {
+		name, word, sign, shown, other string
+		base, step                     int
+	}{
+		{"homo", "HOMO", "-", "−", "lumo", orb.HOMO, -1},
+		{"lumo", "LUMO", "+", "+", "homo", orb.LUMO, +1},
+	} {
+		rest, ok := strings.CutPrefix(spec, f.name)
+		if !ok {
+			continue
 		}
-		rest := spec[4:]
-		if rest != "" {
-			k, err := strconv.Atoi(strings.TrimPrefix(rest, "-"))
-			if err != nil || !strings.HasPrefix(rest, "-") || k < 0 {
-				return 0, "", errors.New("want homo, homo-1, homo-2, …")
+		if f.base < 0 {
+			kind := "occupied"
+			if f.step > 0 {
+				kind = "empty"
 			}
-			off = k // lower in energy = more bonding = smaller index
-			word = fmt.Sprintf("HOMO−%d", k)
-			if k == 0 {
-				word = "HOMO"
-			}
-			return checkLevel(base-off, n, word)
+			return 0, "", fmt.Errorf("the π system has no %s level (use %s or a level index)", kind, f.other)
 		}
-		return base, word, nil
-	case strings.HasPrefix(spec, "lumo"):
-		base, word = orb.LUMO, "LUMO"
-		if base < 0 {
-			return 0, "", errors.New("the π system has no empty level (use homo or a level index)")
+		if rest == "" {
+			return f.base, f.word, nil
 		}
-		rest := spec[4:]
-		if rest != "" {
-			k, err := strconv.Atoi(strings.TrimPrefix(rest, "+"))
-			if err != nil || !strings.HasPrefix(rest, "+") || k < 0 {
-				return 0, "", errors.New("want lumo, lumo+1, lumo+2, …")
-			}
-			word = fmt.Sprintf("LUMO+%d", k)
-			if k == 0 {
-				word = "LUMO"
-			}
-			return checkLevel(base+k, n, word)
+		k, err := strconv.Atoi(strings.TrimPrefix(rest, f.sign))
+		if err != nil || !strings.HasPrefix(rest, f.sign) || k < 0 {
+			return 0, "", fmt.Errorf("want %[1]s, %[1]s%[2]s1, %[1]s%[2]s2, …", f.name, f.sign)
 		}
-		return base, word, nil
+		word := f.word
+		if k > 0 {
+			word = fmt.Sprintf("%s%s%d", f.word, f.shown, k)
+		}
+		return checkLevel(f.base+f.step*k, n, word)
 	}
 	if spec == "somo" {
 		if orb.SOMO < 0 {
