@@ -422,6 +422,14 @@ func isDigit(c byte) bool       { return c >= '0' && c <= '9' }
 func isDirectional(c byte) bool { return c == symUp || c == symDown }
 func isUpper(c byte) bool       { return c >= 'A' && c <= 'Z' }
 func isLower(c byte) bool       { return c >= 'a' && c <= 'z' }
+
+// aromaticSymbol maps the aromatic (lowercase) spellings OpenSMILES allows to element
+// symbols: the one-letter ones also outside brackets, the two-letter ones inside only.
+var aromaticSymbol = map[string]string{
+	"b": "B", "c": "C", "n": "N", "o": "O", "p": "P", "s": "S",
+	"se": "Se", "as": "As", "te": "Te",
+}
+
 func isAromaticOrganic(c byte) bool {
 	return c == 'b' || c == 'c' || c == 'n' || c == 'o' || c == 'p' || c == 's'
 }
@@ -493,18 +501,10 @@ func (p *parser) organicAtom(i int) (int, bool) {
 		el = "F"
 	case 'I':
 		el = "I"
-	case 'b':
-		el, arom = "B", true
-	case 'c':
-		el, arom = "C", true
-	case 'n':
-		el, arom = "N", true
-	case 'o':
-		el, arom = "O", true
-	case 'p':
-		el, arom = "P", true
-	case 's':
-		el, arom = "S", true
+	default:
+		if isAromaticOrganic(c) {
+			el, arom = aromaticSymbol[s[i:i+1]], true
+		}
 	}
 	if el != "" {
 		// Two-letter elements outside the organic subset that start like one (Na, Sc, Sn,
@@ -627,26 +627,11 @@ func (p *parser) bracketAtom(i int) (int, bool) {
 		if j+1 < len(s) && isLower(s[j+1]) {
 			two = s[j : j+2]
 		}
-		switch {
-		case two == "se":
-			a.Element, j = "Se", j+2
-		case two == "as":
-			a.Element, j = "As", j+2
-		case two == "te":
-			a.Element, j = "Te", j+2
-		case c == 'b':
-			a.Element, j = "B", j+1
-		case c == 'c':
-			a.Element, j = "C", j+1
-		case c == 'n':
-			a.Element, j = "N", j+1
-		case c == 'o':
-			a.Element, j = "O", j+1
-		case c == 'p':
-			a.Element, j = "P", j+1
-		case c == 's':
-			a.Element, j = "S", j+1
-		default:
+		if el, ok := aromaticSymbol[two]; ok {
+			a.Element, j = el, j+2
+		} else if el, ok := aromaticSymbol[s[j:j+1]]; ok {
+			a.Element, j = el, j+1
+		} else {
 			n := 1
 			if two != "" {
 				n = 2
