@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"encoding/xml"
 	"errors"
-	"flag"
 	"io"
 	"math"
 	"os"
@@ -14,6 +13,7 @@ import (
 	"strings"
 	"testing"
 
+	"cyclopair/cmd/cyclopair/internal/golden"
 	"cyclopair/fmo"
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
@@ -223,8 +223,6 @@ func TestPairClearance(t *testing.T) {
 	}
 }
 
-var update = flag.Bool("update", false, "rewrite golden files")
-
 // TestOrbitalGolden pins the bytes of one picture (butadiene HOMO: all-carbon, so the
 // coefficients are the closed-form Hückel values 0.372/0.602 and do not move with parameter
 // sets; no calibration so no eV figure). Refresh with -update after a deliberate change, and
@@ -239,19 +237,7 @@ func TestOrbitalGolden(t *testing.T) {
 	if !bytes.Equal(a, b) {
 		t.Fatal("same picture twice gives different bytes")
 	}
-	golden := filepath.Join("testdata", "butadiene-homo.svg")
-	if *update {
-		if err := os.WriteFile(golden, a, 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run go test -update once)", err)
-	}
-	if !bytes.Equal(want, a) {
-		t.Errorf("picture changed; got\n%s", a)
-	}
+	golden.Check(t, "butadiene-homo.svg", a)
 }
 
 // TestLobeAreaIsDensity: circle radius ∝ |c| (so area ∝ c²). Butadiene HOMO coefficients in

@@ -4,37 +4,17 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
-	"flag"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 
+	goldenfile "cyclopair/cmd/cyclopair/internal/golden"
 	"cyclopair/fmo"
 )
-
-var update = flag.Bool("update", false, "rewrite golden files under testdata/")
 
 // golden compares got with testdata/name, or rewrites it under -update.
 func golden(t *testing.T, name string, got []byte) {
 	t.Helper()
-	path := filepath.Join("testdata", name)
-	if *update {
-		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(path, got, 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run go test -update to create it)", err)
-	}
-	if !bytes.Equal(got, want) {
-		t.Errorf("%s differs from golden file\n--- got ---\n%s\n--- want ---\n%s", name, got, want)
-	}
+	goldenfile.Check(t, name, got)
 }
 
 // samplePairs are hand-built Pair values (numbers invented for the renderer tests, not
