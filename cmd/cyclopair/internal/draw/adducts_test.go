@@ -14,28 +14,10 @@ import (
 	"cyclopair/fmo"
 	"cyclopair/huckel/depict"
 	"cyclopair/huckel/smiles"
-	"cyclopair/presets"
 )
 
 func TestAdductLayouts(t *testing.T) {
-	p, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		t.Fatal(err)
-	}
-	opts := fmo.NewOptions(p, nil, "")
-	var dienes, dienophiles []*fmo.Partner
-	for _, sub := range presets.Substrates() {
-		switch sub.Role {
-		case "diene", "dipole":
-			if d, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDiene, opts); err == nil {
-				dienes = append(dienes, d)
-			}
-		case "dienophile":
-			if e, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDienophile, opts); err == nil {
-				dienophiles = append(dienophiles, e)
-			}
-		}
-	}
+	opts, dienes, dienophiles := presetPartners(t)
 	seen := map[string]bool{} // dedup only
 	bad, n, badPref, nPref := 0, 0, 0, 0
 	for _, d := range dienes {

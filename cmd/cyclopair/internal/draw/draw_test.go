@@ -313,24 +313,7 @@ func TestEveryPresetSubstrate(t *testing.T) {
 // TestDemoPairs draws the preferred orientation of every diene × dienophile × activation of
 // the demo scenario's substrates and checks the partners never overlap.
 func TestDemoPairs(t *testing.T) {
-	p, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		t.Fatal(err)
-	}
-	opts := fmo.NewOptions(p, nil, "")
-	var dienes, dienophiles []*fmo.Partner
-	for _, sub := range presets.Substrates() {
-		switch sub.Role {
-		case "diene", "dipole":
-			if d, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDiene, opts); err == nil {
-				dienes = append(dienes, d)
-			}
-		case "dienophile":
-			if e, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDienophile, opts); err == nil {
-				dienophiles = append(dienophiles, e)
-			}
-		}
-	}
+	opts, dienes, dienophiles := presetPartners(t)
 	drawn := 0
 	for _, d := range dienes {
 		for _, e0 := range dienophiles {
@@ -361,4 +344,28 @@ func TestDemoPairs(t *testing.T) {
 	if drawn < 20 {
 		t.Errorf("only %d pair pictures drawn", drawn)
 	}
+}
+
+// presetPartners prepares every named preset substrate in its role with the default
+// parameter set (no calibration: pictures need no eV), skipping any that cannot be prepared.
+func presetPartners(t *testing.T) (opts *fmo.Options, dienes, dienophiles []*fmo.Partner) {
+	t.Helper()
+	p, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	opts = fmo.NewOptions(p, nil, "")
+	for _, sub := range presets.Substrates() {
+		switch sub.Role {
+		case "diene", "dipole":
+			if d, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDiene, opts); err == nil {
+				dienes = append(dienes, d)
+			}
+		case "dienophile":
+			if e, err := fmo.NewPartner(sub.Name, sub.SMILES, fmo.RoleDienophile, opts); err == nil {
+				dienophiles = append(dienophiles, e)
+			}
+		}
+	}
+	return opts, dienes, dienophiles
 }
