@@ -144,11 +144,18 @@ func runPair(s *streams, opts *pairOptions) error {
 	if opts.format == "html" {
 		page = newPairHTML(s, diene, dienophile, fo, act, cal)
 	}
-	// Are the partners in the right roles? Checked once, on the unactivated substrates.
-	var roleWarning string
-	if base, err := fmo.Analyze(diene, dienophile, fo); err == nil {
-		roleWarning = fmo.RoleCheck(diene, dienophile, base, fo)
+	// Are the partners in the right roles? Checked once, on the unactivated substrates (the
+	// "none" variant when it was asked for, else analysed here).
+	var base *fmo.Pair
+	for _, v := range variants {
+		if v.Mode == fmo.ActivateNone && v.Err == nil {
+			base = v.Pair
+		}
 	}
+	if base == nil {
+		base, _ = fmo.Analyze(diene, dienophile, fo)
+	}
+	roleWarning := fmo.RoleCheck(diene, dienophile, base, fo)
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
