@@ -37,9 +37,12 @@ func (c Calibration) EV(x float64, occupied bool) float64 {
 }
 
 // String is a one-line description for output next to eV values.
-func (c Calibration) String() string {
-	return fmt.Sprintf("%s: E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV)",
-		c.Name, c.HOMOIntercept, c.HOMOSlope, c.LUMOIntercept, c.LUMOSlope, c.N, c.R2, c.RMSE)
+func (c Calibration) String() string { return c.Name + ": " + c.Detail() }
+
+// Detail is String without the name: the two fitted lines and the fit statistics.
+func (c Calibration) Detail() string {
+	return fmt.Sprintf("E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV)",
+		c.HOMOIntercept, c.HOMOSlope, c.LUMOIntercept, c.LUMOSlope, c.N, c.R2, c.RMSE)
 }
 
 // CalibrationPoint is one reference molecule: the Hückel x of its HOMO (Occupied) or LUMO

@@ -20,7 +20,7 @@ func newPairHTML(s *streams, diene, dienophile *fmo.Partner, fo *fmo.Options, ac
 		Title:             nameOrSMILES(diene) + " + " + nameOrSMILES(dienophile),
 		Params:            fo.Params.Name,
 		Calibration:       cal.Name,
-		CalibrationDetail: cal.String(),
+		CalibrationDetail: cal.Detail(),
 	}
 	figures := 0 // default: the first few variants get pictures
 	return &pairHTML{w: htmlreport.New(s.out, rep, htmlreport.Config{

@@ -405,7 +405,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		Source:            sourceName(o),
 		Params:            params.Name,
 		Calibration:       cal.Name,
-		CalibrationDetail: strings.TrimPrefix(cal.String(), cal.Name+": "),
+		CalibrationDetail: cal.Detail(),
 		RankBy:            string(lib.RankBy),
 		Filters:           lib.Filter.Describe(),
 		Shard:             shard.String(),

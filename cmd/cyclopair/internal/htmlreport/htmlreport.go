@@ -190,12 +190,8 @@ func (w *Writer) summary(b *page, s render.Summary) {
 	item("Input", w.rep.Source)
 	item("Parameter set", w.rep.Params)
 	cal := w.rep.Calibration
-	switch d := w.rep.CalibrationDetail; {
-	case d == "":
-	case strings.HasPrefix(d, cal):
-		cal = d // the detail already starts with the name
-	default:
-		cal += " — " + d
+	if w.rep.CalibrationDetail != "" {
+		cal += " — " + w.rep.CalibrationDetail
 	}
 	item("Calibration", cal)
 	if w.rep.RankBy != "" && w.rep.RankBy != "none" {
