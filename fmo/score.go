@@ -229,38 +229,27 @@ func (k *kernel) endoTerm(d, e *fastUnit, de, ee *endoUnit, o int) float64 {
 	}
 	cross := 2 * k.gamma * k.gammaS
 	sec := k.gammaS * k.gammaS
-	total := 0.0
-	// pairing 0: diene HOMO (set 0) × dienophile LUMO (set 1); pairing 1: LUMO × HOMO; only
+	// Pairing 0: diene HOMO (set 0) × dienophile LUMO (set 1); pairing 1: LUMO × HOMO. Only
 	// the controlling one (smaller gap) is used.
-	ctrl := 0
-	if e.hx-d.lx < d.hx-e.lx {
-		ctrl = 1
+	pr := 0
+	dh, el, g := &d.h, &e.l, d.hx-e.lx
+	if gi := e.hx - d.lx; gi < g {
+		pr, dh, el, g = 1, &d.l, &e.h, gi
 	}
-	for pr := ctrl; pr <= ctrl; pr++ {
-		ds, es := pr, 1-pr
-		var dh, el *[3]float64
-		var g float64
-		if pr == 0 {
-			dh, el, g = &d.h, &e.l, d.hx-e.lx
-		} else {
-			dh, el, g = &d.l, &e.h, e.hx-d.lx
-		}
-		P, Q := &de.e[ds], &ee.e[es]
-		var prim, x, y float64
-		if o == 0 {
-			prim = dh[0]*el[0] + dh[1]*el[1] + 2*dh[2]*el[2]
-			x = P[0]*Q[0] + P[1]*Q[1] + P[2]*Q[2] + P[3]*Q[3]
-			y = P[4]*Q[4] + P[5]*Q[5] + 2*P[6]*Q[6]
-		} else {
-			prim = dh[0]*el[1] + dh[1]*el[0] + 2*dh[2]*el[2]
-			// x↔y, x'↔y': Q_xx'→Q_yy', Q_xy'→Q_yx', Q_yx'→Q_xy', Q_yy'→Q_xx'
-			x = P[0]*Q[3] + P[1]*Q[2] + P[2]*Q[1] + P[3]*Q[0]
-			y = P[4]*Q[5] + P[5]*Q[4] + 2*P[6]*Q[6]
-		}
-		sp := k.g2 * prim
-		f, _ := term(sp+cross*x+sec*y, g)
-		p0, _ := term(sp, g)
-		total += f - p0
+	P, Q := &de.e[pr], &ee.e[1-pr]
+	var prim, x, y float64
+	if o == 0 {
+		prim = dh[0]*el[0] + dh[1]*el[1] + 2*dh[2]*el[2]
+		x = P[0]*Q[0] + P[1]*Q[1] + P[2]*Q[2] + P[3]*Q[3]
+		y = P[4]*Q[4] + P[5]*Q[5] + 2*P[6]*Q[6]
+	} else {
+		prim = dh[0]*el[1] + dh[1]*el[0] + 2*dh[2]*el[2]
+		// x↔y, x'↔y': Q_xx'→Q_yy', Q_xy'→Q_yx', Q_yx'→Q_xy', Q_yy'→Q_xx'
+		x = P[0]*Q[3] + P[1]*Q[2] + P[2]*Q[1] + P[3]*Q[0]
+		y = P[4]*Q[5] + P[5]*Q[4] + 2*P[6]*Q[6]
 	}
-	return total
+	sp := k.g2 * prim
+	f, _ := term(sp+cross*x+sec*y, g)
+	p0, _ := term(sp, g)
+	return f - p0
 }
