@@ -14,6 +14,7 @@ import (
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
+	"cyclopair/huckel/yamlfile"
 )
 
 // This file refits the x → eV calibration from a user's data and reads and writes the
@@ -48,37 +49,9 @@ const (
 )
 
 // ErrCalibrationData is wrapped by every error about a calibration data or calibration file.
+// Those errors are *yamlfile.Error values; one about a single entry (Path holds its ID)
+// leaves the other entries usable.
 var ErrCalibrationData = errors.New("invalid calibration data")
-
-// RowError is a positioned problem in a calibration data or calibration file. A RowError
-// about one entry (ID set) leaves the other entries usable.
-type RowError struct {
-	File      string
-	Line, Col int // 1-based; 0 when unknown
-	ID        string
-	Msg       string
-	Hint      string
-}
-
-func (e *RowError) Error() string {
-	var b strings.Builder
-	b.WriteString(e.File)
-	if e.Line > 0 {
-		fmt.Fprintf(&b, ": %d:%d", e.Line, e.Col)
-	}
-	b.WriteString(": ")
-	if e.ID != "" {
-		b.WriteString(e.ID + ": ")
-	}
-	b.WriteString(e.Msg)
-	if e.Hint != "" {
-		b.WriteString(" (" + e.Hint + ")")
-	}
-	return b.String()
-}
-
-// Unwrap lets errors.Is(err, ErrCalibrationData) succeed.
-func (e *RowError) Unwrap() error { return ErrCalibrationData }
 
 // CalibrationRow is one entry of a calibration data file.
 type CalibrationRow struct {
@@ -111,12 +84,12 @@ var calibrationRowKeys = []string{"id", "kind", "molecule", "name", "value_eV", 
 const maxCalibrationFile = 4 << 20
 
 func readCalibrationCapped(r io.Reader, filename string) ([]byte, error) {
-	data, tooLarge, err := readLimited(r, maxCalibrationFile)
+	data, tooLarge, err := yamlfile.ReadLimited(r, maxCalibrationFile)
 	if err != nil {
-		return nil, &RowError{File: filename, Msg: err.Error(), Hint: "check the file"}
+		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Hint: "check the file", Err: ErrCalibrationData}
 	}
 	if tooLarge {
-		return nil, &RowError{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCalibrationFile)}
+		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCalibrationFile), Err: ErrCalibrationData}
 	}
 	return data, nil
 }
@@ -125,14 +98,14 @@ func readCalibrationCapped(r io.Reader, filename string) ([]byte, error) {
 func parseYAMLRoot(data []byte, filename, want string) (*yaml.Node, error) {
 	var root yaml.Node
 	if err := yaml.Unmarshal(data, &root); err != nil {
-		return nil, &RowError{File: filename, Msg: err.Error(), Hint: "fix the YAML syntax"}
+		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Hint: "fix the YAML syntax", Err: ErrCalibrationData}
 	}
 	if len(root.Content) == 0 {
-		return nil, &RowError{File: filename, Msg: "empty file", Hint: want}
+		return nil, &yamlfile.Error{File: filename, Msg: "empty file", Hint: want, Err: ErrCalibrationData}
 	}
 	top := root.Content[0]
 	if top.Kind != yaml.MappingNode {
-		return nil, &RowError{File: filename, Line: top.Line, Col: top.Column, Msg: "top level is not a mapping", Hint: want}
+		return nil, &yamlfile.Error{File: filename, Line: top.Line, Col: top.Column, Msg: "top level is not a mapping", Hint: want, Err: ErrCalibrationData}
 	}
 	if err := rejectAliasRows(top, filename); err != nil {
 		return nil, err
@@ -141,8 +114,8 @@ func parseYAMLRoot(data []byte, filename, want string) (*yaml.Node, error) {
 }
 
 func rejectAliasRows(n *yaml.Node, file string) error {
-	if a := firstAlias(n); a != nil {
-		return &RowError{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed", Hint: "write the value out"}
+	if a := yamlfile.FirstAlias(n); a != nil {
+		return &yamlfile.Error{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed", Hint: "write the value out", Err: ErrCalibrationData}
 	}
 	return nil
 }
@@ -152,7 +125,7 @@ func rejectAliasRows(n *yaml.Node, file string) error {
 // and nothing is usable. Problems with single entries — an unknown key, a missing or
 // non-numeric value_eV, an unknown kind, a missing molecule — are returned as bad (in file
 // order) and those entries are left out of rows; SMILES are checked by FitCalibrationData.
-func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, bad []*RowError, err error) {
+func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, bad yamlfile.ErrorList, err error) {
 	data, err := readCalibrationCapped(r, filename)
 	if err != nil {
 		return nil, nil, err
@@ -166,17 +139,17 @@ func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, b
 	for i := 0; i+1 < len(top.Content); i += 2 {
 		k, v := top.Content[i], top.Content[i+1]
 		if k.Value != "entries" {
-			return nil, nil, &RowError{File: filename, Line: k.Line, Col: k.Column, Msg: fmt.Sprintf("unknown top-level key %q", k.Value), Hint: want}
+			return nil, nil, &yamlfile.Error{File: filename, Line: k.Line, Col: k.Column, Msg: fmt.Sprintf("unknown top-level key %q", k.Value), Hint: want, Err: ErrCalibrationData}
 		}
 		entries = v
 	}
 	if entries == nil || entries.Kind != yaml.SequenceNode || len(entries.Content) == 0 {
-		return nil, nil, &RowError{File: filename, Line: top.Line, Col: top.Column, Msg: "no entries", Hint: want}
+		return nil, nil, &yamlfile.Error{File: filename, Line: top.Line, Col: top.Column, Msg: "no entries", Hint: want, Err: ErrCalibrationData}
 	}
 	for i, e := range entries.Content {
 		id := fmt.Sprintf("entry %d", i+1)
 		fail := func(n *yaml.Node, msg, hint string) {
-			bad = append(bad, &RowError{File: filename, Line: n.Line, Col: n.Column, ID: id, Msg: msg, Hint: hint})
+			bad = append(bad, &yamlfile.Error{File: filename, Line: n.Line, Col: n.Column, Path: id, Msg: msg, Hint: hint, Err: ErrCalibrationData})
 		}
 		if e.Kind != yaml.MappingNode {
 			fail(e, "entry is not a mapping", "write {kind: ..., molecule: ..., value_eV: ...}")
@@ -220,13 +193,13 @@ func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, b
 		}
 		switch {
 		case row.Kind != KindIonization && row.Kind != KindAffinity:
-			bad = append(bad, &RowError{File: filename, Line: calNZ(row.kindLine, e.Line), Col: calNZ(row.kindCol, e.Column), ID: row.ID,
-				Msg: fmt.Sprintf("unknown kind %q", row.Kind), Hint: "use " + KindIonization + " or " + KindAffinity})
+			bad = append(bad, &yamlfile.Error{File: filename, Line: calNZ(row.kindLine, e.Line), Col: calNZ(row.kindCol, e.Column), Path: row.ID,
+				Msg: fmt.Sprintf("unknown kind %q", row.Kind), Hint: "use " + KindIonization + " or " + KindAffinity, Err: ErrCalibrationData})
 		case row.Molecule == "":
 			fail(e, "missing molecule", "give the SMILES as molecule:")
 		case row.ValueEV == nil || math.IsNaN(*row.ValueEV) || math.IsInf(*row.ValueEV, 0):
-			bad = append(bad, &RowError{File: filename, Line: calNZ(row.valueLine, e.Line), Col: calNZ(row.valueColumn, e.Column), ID: row.ID,
-				Msg: "missing or non-finite value_eV", Hint: "give the measured value in eV"})
+			bad = append(bad, &yamlfile.Error{File: filename, Line: calNZ(row.valueLine, e.Line), Col: calNZ(row.valueColumn, e.Column), Path: row.ID,
+				Msg: "missing or non-finite value_eV", Hint: "give the measured value in eV", Err: ErrCalibrationData})
 		default:
 			rows = append(rows, row)
 		}
@@ -279,9 +252,9 @@ func orbitalEnergy(r CalibrationRow) (level string, e float64) {
 // whose SMILES does not parse or whose π system cannot be perceived or solved are returned
 // in bad and left out. err is set (wrapping huckel.ErrCalibration) when a map has too few
 // usable points. name names the result (default "fit-" + p.Name).
-func FitCalibrationData(rows []CalibrationRow, p *huckel.Params, dataFile, name string) (*CalibrationFit, []*RowError, error) {
+func FitCalibrationData(rows []CalibrationRow, p *huckel.Params, dataFile, name string) (*CalibrationFit, yamlfile.ErrorList, error) {
 	fit := &CalibrationFit{Params: p.Name, Data: dataFile}
-	var bad []*RowError
+	var bad yamlfile.ErrorList
 	var pts []huckel.CalibrationPoint
 	var solver huckel.Solver
 	for _, r := range rows {
@@ -294,22 +267,22 @@ func FitCalibrationData(rows []CalibrationRow, p *huckel.Params, dataFile, name 
 			if errors.As(err, &se) {
 				c += se.Pos // molCol is the column of the SMILES' first character
 				msg = fmt.Sprintf("SMILES %q: %s", r.Molecule, se.Msg)
-				bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: msg, Hint: se.Hint})
+				bad = append(bad, &yamlfile.Error{File: dataFile, Line: l, Col: c, Path: r.ID, Msg: msg, Hint: se.Hint, Err: ErrCalibrationData})
 				continue
 			}
-			bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: fmt.Sprintf("SMILES %q: %s", r.Molecule, msg)})
+			bad = append(bad, &yamlfile.Error{File: dataFile, Line: l, Col: c, Path: r.ID, Msg: fmt.Sprintf("SMILES %q: %s", r.Molecule, msg), Err: ErrCalibrationData})
 			continue
 		}
 		ps, err := huckel.Perceive(m, p)
 		if err != nil {
 			l, c := pos()
-			bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: err.Error(), Hint: "the parameter set cannot describe this π system"})
+			bad = append(bad, &yamlfile.Error{File: dataFile, Line: l, Col: c, Path: r.ID, Msg: err.Error(), Hint: "the parameter set cannot describe this π system", Err: ErrCalibrationData})
 			continue
 		}
 		var orb huckel.Orbitals
 		if err := solver.Solve(ps, &orb); err != nil {
 			l, c := pos()
-			bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: err.Error()})
+			bad = append(bad, &yamlfile.Error{File: dataFile, Line: l, Col: c, Path: r.ID, Msg: err.Error(), Err: ErrCalibrationData})
 			continue
 		}
 		level, e := orbitalEnergy(r)
@@ -319,7 +292,7 @@ func FitCalibrationData(rows []CalibrationRow, p *huckel.Params, dataFile, name 
 		}
 		if idx < 0 {
 			l, c := pos()
-			bad = append(bad, &RowError{File: dataFile, Line: l, Col: c, ID: r.ID, Msg: "no π " + strings.ToUpper(level) + " to fit"})
+			bad = append(bad, &yamlfile.Error{File: dataFile, Line: l, Col: c, Path: r.ID, Msg: "no π " + strings.ToUpper(level) + " to fit", Err: ErrCalibrationData})
 			continue
 		}
 		fp := FitPoint{ID: r.ID, Name: r.Name, SMILES: r.Molecule, Level: level, X: orb.Levels[idx].X, EnergyEV: e}
@@ -425,7 +398,7 @@ type LoadedCalibration struct {
 // LoadCalibrationFile reads a calibration file written by WriteCalibrationFile (or by hand
 // in the same format). Decoding is strict: unknown keys, a wrong format: value, missing or
 // non-finite intercepts and slopes and non-negative slopes (x > 0 is bonding, so orbital
-// energies must fall as x grows) are *RowError values with file:line:column.
+// energies must fall as x grows) are *yamlfile.Error values (wrapping ErrCalibrationData) with file:line:column.
 func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, error) {
 	data, err := readCalibrationCapped(r, filename)
 	if err != nil {
@@ -436,8 +409,8 @@ func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, erro
 	if err != nil {
 		return nil, err
 	}
-	pos := func(key ...string) (int, int) { return fieldPos(top, key...) }
-	if err := checkCalibrationKeys(top, filename, want); err != nil {
+	pos := func(key ...string) (int, int) { return yamlfile.FieldPos(top, key...) }
+	if err := yamlfile.CheckKeys(top, calibrationFileKeys, filename, want, ErrCalibrationData); err != nil {
 		return nil, err
 	}
 	var f calFile
@@ -451,11 +424,11 @@ func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, erro
 			fmt.Sscanf(msg[i:], "line %d", &l)
 			c = 1
 		}
-		return nil, &RowError{File: filename, Line: l, Col: c, Msg: msg, Hint: want}
+		return nil, &yamlfile.Error{File: filename, Line: l, Col: c, Msg: msg, Hint: want, Err: ErrCalibrationData}
 	}
 	fail := func(msg string, key ...string) error {
 		l, c := pos(key...)
-		return &RowError{File: filename, Line: l, Col: c, Msg: msg, Hint: want}
+		return &yamlfile.Error{File: filename, Line: l, Col: c, Msg: msg, Hint: want, Err: ErrCalibrationData}
 	}
 	if f.Format != CalibrationFormat {
 		return nil, fail(fmt.Sprintf("format %q, want %q", f.Format, CalibrationFormat), "format")
@@ -493,39 +466,6 @@ var calibrationFileKeys = map[string][]string{
 	"homo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
 	"lumo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
 	"points[]": {"id", "name", "smiles", "level", "x", "energy_eV", "fit_eV", "residual_eV"},
-}
-
-// checkCalibrationKeys rejects unknown keys of a calibration file with line and column.
-func checkCalibrationKeys(top *yaml.Node, file, want string) error {
-	var walk func(n *yaml.Node, path string) error
-	walk = func(n *yaml.Node, path string) error {
-		switch n.Kind {
-		case yaml.SequenceNode:
-			for _, c := range n.Content {
-				if err := walk(c, path+"[]"); err != nil {
-					return err
-				}
-			}
-		case yaml.MappingNode:
-			allowed, known := calibrationFileKeys[path]
-			for i := 0; i+1 < len(n.Content); i += 2 {
-				k := n.Content[i]
-				if known && !slices.Contains(allowed, k.Value) {
-					return &RowError{File: file, Line: k.Line, Col: k.Column,
-						Msg: fmt.Sprintf("unknown key %q (known here: %s)", k.Value, strings.Join(allowed, ", ")), Hint: want}
-				}
-				sub := k.Value
-				if path != "" {
-					sub = path + "." + k.Value
-				}
-				if err := walk(n.Content[i+1], sub); err != nil {
-					return err
-				}
-			}
-		}
-		return nil
-	}
-	return walk(top, "")
 }
 
 func calFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }

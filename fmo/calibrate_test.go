@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/yamlfile"
 )
 
 // olsFit is the closed-form least-squares line y = a + b x (b = Sxy/Sxx), written out here
@@ -30,7 +31,7 @@ func olsFit(x, y []float64) (a, b float64) {
 	return my - b*mx, b
 }
 
-func loadPolyenes(t *testing.T) ([]CalibrationRow, []*RowError) {
+func loadPolyenes(t *testing.T) ([]CalibrationRow, yamlfile.ErrorList) {
 	t.Helper()
 	f, err := os.Open("testdata/calibration/polyenes.yaml")
 	if err != nil {
@@ -200,7 +201,7 @@ func FuzzLoadCalibrationData(f *testing.F) {
 	f.Add("entries: [{kind: electron_affinity, molecule: '[Xx]', value_eV: .nan}]")
 	f.Fuzz(func(t *testing.T, s string) {
 		rows, bad, err := LoadCalibrationData(strings.NewReader(s), "f.yaml")
-		for _, e := range append(bad, asRowError(err)...) {
+		for _, e := range append(bad, asFileError(err)...) {
 			if !strings.HasPrefix(e.Error(), "f.yaml") {
 				t.Fatalf("unpositioned error %q", e)
 			}
@@ -214,10 +215,10 @@ func FuzzLoadCalibrationData(f *testing.F) {
 	})
 }
 
-func asRowError(err error) []*RowError {
-	var re *RowError
+func asFileError(err error) yamlfile.ErrorList {
+	var re *yamlfile.Error
 	if errors.As(err, &re) {
-		return []*RowError{re}
+		return yamlfile.ErrorList{re}
 	}
 	return nil
 }

@@ -16,6 +16,7 @@ import (
 
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
+	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
 
 	"go.yaml.in/yaml/v3"
@@ -43,7 +44,7 @@ import (
 // over the size cap are errors with file:line:column. Problems confined to one substrate
 // (bad SMILES, unknown preset, a missing name) make that row bad; the other rows load.
 
-// Sentinel errors of the substrate-file loader. Every *FileError wraps one of them.
+// Sentinel errors of the substrate-file loader. Every *yamlfile.Error it returns wraps one of them.
 var (
 	ErrFileSyntax    = errors.New("unreadable substrate file")
 	ErrFileTooLarge  = errors.New("substrate file too large")
@@ -68,74 +69,6 @@ const (
 	maxNotesBytes  = 4096
 	maxRows        = 1 << 20 // per list
 )
-
-// FileError is one problem in a substrate file, at a 1-based line and column (0 when the
-// position is unknown). Error() reads "file: 7:15: dienes[2] \"x\": what (hint)".
-type FileError struct {
-	File      string
-	Line, Col int
-	Path      string // where in the document, e.g. "dienes[2].smiles"; may be empty
-	Msg       string
-	Hint      string
-	Kind      error // one of the Err* sentinels above
-	Cause     error // underlying error (a *smiles.Error for bad SMILES), may be nil
-}
-
-func (e *FileError) Error() string {
-	var b strings.Builder
-	b.WriteString(e.File)
-	if e.Line > 0 {
-		fmt.Fprintf(&b, ": %d:%d", e.Line, e.Col)
-	}
-	b.WriteString(": ")
-	if e.Path != "" {
-		b.WriteString(e.Path)
-		b.WriteString(": ")
-	}
-	b.WriteString(e.Msg)
-	if e.Hint != "" {
-		b.WriteString(" (" + e.Hint + ")")
-	}
-	return b.String()
-}
-
-// Unwrap exposes the sentinel and the cause to errors.Is and errors.As.
-func (e *FileError) Unwrap() []error {
-	if e.Cause != nil {
-		return []error{e.Kind, e.Cause}
-	}
-	return []error{e.Kind}
-}
-
-// FileErrors is a list of problems, itself an error ("first (and N more errors)").
-type FileErrors []*FileError
-
-func (l FileErrors) Error() string {
-	switch len(l) {
-	case 0:
-		return "no errors"
-	case 1:
-		return l[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more errors)", l[0], len(l)-1)
-}
-
-// Err returns nil for an empty list.
-func (l FileErrors) Err() error {
-	if len(l) == 0 {
-		return nil
-	}
-	return l
-}
-
-// Unwrap lets errors.Is and errors.As see every error.
-func (l FileErrors) Unwrap() []error {
-	out := make([]error, len(l))
-	for i, e := range l {
-		out[i] = e
-	}
-	return out
-}
 
 // Substrate is one row of a substrate list.
 type Substrate struct {
@@ -235,58 +168,22 @@ func readCapped(r io.Reader, name string, max int64) ([]byte, error) {
 	if max <= 0 {
 		max = DefaultMaxFileBytes
 	}
-	data, tooLarge, err := readLimited(r, max)
+	data, tooLarge, err := yamlfile.ReadLimited(r, max)
 	if err != nil {
-		return nil, &FileError{File: name, Msg: "cannot read: " + err.Error(), Kind: ErrFileSyntax, Cause: err}
+		return nil, &yamlfile.Error{File: name, Msg: "cannot read: " + err.Error(), Err: ErrFileSyntax, Cause: err}
 	}
 	if tooLarge {
-		return nil, &FileError{File: name, Msg: fmt.Sprintf("larger than %d bytes", max),
-			Hint: "split the screen into several files, or use --shard", Kind: ErrFileTooLarge}
+		return nil, &yamlfile.Error{File: name, Msg: fmt.Sprintf("larger than %d bytes", max),
+			Hint: "split the screen into several files, or use --shard", Err: ErrFileTooLarge}
 	}
 	return data, nil
 }
 
-// checkText rejects text that is not UTF-8, naming the line and column of the first bad
-// byte; UTF-16 (a byte-order mark or NUL bytes) gets its own hint.
-func checkText(data []byte, name string) error {
-	if bytes.HasPrefix(data, []byte{0xFF, 0xFE}) || bytes.HasPrefix(data, []byte{0xFE, 0xFF}) ||
-		(len(data) > 1 && (data[0] == 0 || data[1] == 0)) {
-		return &FileError{File: name, Line: 1, Col: 1, Msg: "text is UTF-16, not UTF-8",
-			Hint: "save the file as UTF-8", Kind: ErrNotUTF8}
-	}
-	if utf8.Valid(data) {
-		if i := bytes.IndexByte(data, 0); i >= 0 {
-			l, c := lineCol(data, i)
-			return &FileError{File: name, Line: l, Col: c, Msg: "NUL byte in text",
-				Hint: "is this a binary file?", Kind: ErrNotUTF8}
-		}
-		return nil
-	}
-	for i := 0; i < len(data); {
-		r, n := utf8.DecodeRune(data[i:])
-		if r == utf8.RuneError && n == 1 {
-			l, c := lineCol(data, i)
-			return &FileError{File: name, Line: l, Col: c,
-				Msg:  fmt.Sprintf("byte 0x%02X is not valid UTF-8", data[i]),
-				Hint: "save the file as UTF-8 (it may be Latin-1 or Windows-1252)", Kind: ErrNotUTF8}
-		}
-		i += n
-	}
-	return nil
-}
-
-// lineCol converts a byte offset into a 1-based line and column (columns count runes).
-func lineCol(data []byte, off int) (int, int) {
-	line := 1 + bytes.Count(data[:off], []byte{'\n'})
-	start := bytes.LastIndexByte(data[:off], '\n') + 1
-	return line, 1 + utf8.RuneCount(data[start:off])
-}
-
 // LoadLibrary reads a YAML substrate file. It returns the library with every good row, the
 // problems confined to single rows (bad), and a non-nil err when the file as a whole cannot
-// be used (syntax, size, encoding, structure, bad settings); err is then a FileErrors or
-// *FileError and lib is nil.
-func LoadLibrary(r io.Reader, o LoadOptions) (lib *Library, bad FileErrors, err error) {
+// be used (syntax, size, encoding, structure, bad settings); err is then a yamlfile.ErrorList or
+// *yamlfile.Error and lib is nil.
+func LoadLibrary(r io.Reader, o LoadOptions) (lib *Library, bad yamlfile.ErrorList, err error) {
 	name := o.name()
 	data, err := readCapped(r, name, o.MaxBytes)
 	if err != nil {
@@ -296,18 +193,18 @@ func LoadLibrary(r io.Reader, o LoadOptions) (lib *Library, bad FileErrors, err 
 }
 
 // ParseLibrary is LoadLibrary on bytes already read (the size cap still applies).
-func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad FileErrors, err error) {
+func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad yamlfile.ErrorList, err error) {
 	name := o.name()
 	max := o.MaxBytes
 	if max <= 0 {
 		max = DefaultMaxFileBytes
 	}
 	if int64(len(data)) > max {
-		return nil, nil, &FileError{File: name, Msg: fmt.Sprintf("larger than %d bytes", max),
-			Hint: "split the screen into several files, or use --shard", Kind: ErrFileTooLarge}
+		return nil, nil, &yamlfile.Error{File: name, Msg: fmt.Sprintf("larger than %d bytes", max),
+			Hint: "split the screen into several files, or use --shard", Err: ErrFileTooLarge}
 	}
-	if err := checkText(data, name); err != nil {
-		return nil, nil, err
+	if e := yamlfile.CheckUTF8(data, name, ErrNotUTF8); e != nil {
+		return nil, nil, e
 	}
 	var doc, extra yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
@@ -317,8 +214,8 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad FileErrors, err
 	// A second document ("---") would be ignored silently by a plain Unmarshal.
 	switch err := dec.Decode(&extra); {
 	case err == nil:
-		return nil, nil, &FileError{File: name, Line: extra.Line, Col: extra.Column, Msg: "a second YAML document",
-			Hint: "a substrate file is one document: remove the '---' line, or split the file", Kind: ErrFileSyntax}
+		return nil, nil, &yamlfile.Error{File: name, Line: extra.Line, Col: extra.Column, Msg: "a second YAML document",
+			Hint: "a substrate file is one document: remove the '---' line, or split the file", Err: ErrFileSyntax}
 	case !errors.Is(err, io.EOF):
 		return nil, nil, yamlSyntaxError(name, err)
 	}
@@ -339,16 +236,16 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad FileErrors, err
 		return lib, w.bad, nil
 	}
 	if err := strictDecode(data); err != nil {
-		return nil, nil, &FileError{File: name, Msg: err.Error(), Kind: ErrUnknownKey}
+		return nil, nil, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrUnknownKey}
 	}
 	lib.Source = name
 	return lib, w.bad, nil
 }
 
 // yamlSyntaxError turns a yaml.v3 syntax error ("yaml: line 3: did not find expected key")
-// into a FileError with the line (yaml.v3 gives no column; its line is sometimes the line
+// into an Error with the line (yaml.v3 gives no column; its line is sometimes the line
 // of the enclosing construct).
-func yamlSyntaxError(name string, err error) *FileError {
+func yamlSyntaxError(name string, err error) *yamlfile.Error {
 	msg := strings.TrimPrefix(err.Error(), "yaml: ")
 	line := 0
 	if rest, ok := strings.CutPrefix(msg, "line "); ok {
@@ -359,9 +256,9 @@ func yamlSyntaxError(name string, err error) *FileError {
 			}
 		}
 	}
-	return &FileError{File: name, Line: line, Col: 1, Msg: "YAML syntax: " + msg,
+	return &yamlfile.Error{File: name, Line: line, Col: 1, Msg: "YAML syntax: " + msg,
 		Hint: "check indentation and quoting near this line; quote SMILES that start with [ or contain #, : or spaces",
-		Kind: ErrFileSyntax, Cause: err}
+		Err:  ErrFileSyntax, Cause: err}
 }
 
 // fileSchema mirrors the substrate-file format for the strict decoder.
@@ -425,12 +322,12 @@ func strictDecode(data []byte) error {
 type walker struct {
 	file  string
 	modes []string
-	fatal FileErrors // whole-file problems
-	bad   FileErrors // row problems
+	fatal yamlfile.ErrorList // whole-file problems
+	bad   yamlfile.ErrorList // row problems
 }
 
-func (w *walker) errAt(n *yaml.Node, path string, kind error, msg, hint string) *FileError {
-	e := &FileError{File: w.file, Path: path, Msg: msg, Hint: hint, Kind: kind}
+func (w *walker) errAt(n *yaml.Node, path string, kind error, msg, hint string) *yamlfile.Error {
+	e := &yamlfile.Error{File: w.file, Path: path, Msg: msg, Hint: hint, Err: kind}
 	if n != nil {
 		e.Line, e.Col = n.Line, n.Column
 	}
@@ -461,7 +358,7 @@ func kindName(n *yaml.Node) string {
 
 // noAlias reports an alias or anchor at n (aliases are never followed: an alias bomb costs
 // nothing here).
-func (w *walker) noAlias(n *yaml.Node, path string, errs *FileErrors) bool {
+func (w *walker) noAlias(n *yaml.Node, path string, errs *yamlfile.ErrorList) bool {
 	if n.Kind == yaml.AliasNode || n.Anchor != "" {
 		*errs = append(*errs, w.errAt(n, path, ErrAlias, "anchor or alias", "write the value out in full"))
 		return false
@@ -519,7 +416,7 @@ func (w *walker) document(doc *yaml.Node) *Library {
 				m, err := smiles.Parse(a)
 				if err != nil {
 					var se *smiles.Error
-					fe := &FileError{File: w.file, Line: v.Line, Col: v.Column, Path: "amine", Kind: ErrBadSMILES, Cause: err,
+					fe := &yamlfile.Error{File: w.file, Line: v.Line, Col: v.Column, Path: "amine", Err: ErrBadSMILES, Cause: err,
 						Msg: fmt.Sprintf("SMILES %q: %v", short(a), err)}
 					if errors.As(err, &se) {
 						fe.Col += scalarOffset(v, se.Pos)
@@ -608,7 +505,7 @@ func editDistance(a, b string) int {
 }
 
 // str reads a scalar as text (numbers are accepted as their text), at most maxLen bytes.
-func (w *walker) str(n *yaml.Node, path string, errs *FileErrors, maxLen int) (string, bool) {
+func (w *walker) str(n *yaml.Node, path string, errs *yamlfile.ErrorList, maxLen int) (string, bool) {
 	if !w.noAlias(n, path, errs) {
 		return "", false
 	}
@@ -623,7 +520,7 @@ func (w *walker) str(n *yaml.Node, path string, errs *FileErrors, maxLen int) (s
 	return n.Value, true
 }
 
-func (w *walker) int(n *yaml.Node, path string, errs *FileErrors) (int, bool) {
+func (w *walker) int(n *yaml.Node, path string, errs *yamlfile.ErrorList) (int, bool) {
 	if !w.noAlias(n, path, errs) {
 		return 0, false
 	}
@@ -639,7 +536,7 @@ func (w *walker) int(n *yaml.Node, path string, errs *FileErrors) (int, bool) {
 	return int(v), true
 }
 
-func (w *walker) float(n *yaml.Node, path string, errs *FileErrors) (float64, bool) {
+func (w *walker) float(n *yaml.Node, path string, errs *yamlfile.ErrorList) (float64, bool) {
 	if !w.noAlias(n, path, errs) {
 		return 0, false
 	}
@@ -655,7 +552,7 @@ func (w *walker) float(n *yaml.Node, path string, errs *FileErrors) (float64, bo
 	return v, true
 }
 
-func (w *walker) bool(n *yaml.Node, path string, errs *FileErrors) (bool, bool) {
+func (w *walker) bool(n *yaml.Node, path string, errs *yamlfile.ErrorList) (bool, bool) {
 	if !w.noAlias(n, path, errs) {
 		return false, false
 	}
@@ -805,7 +702,7 @@ func (w *walker) list(n *yaml.Node, key string, pinMax int) []Substrate {
 
 func (w *walker) entry(n *yaml.Node, path string, pinMax int) (Substrate, bool) {
 	s := Substrate{File: w.file, Line: n.Line, Col: n.Column}
-	var errs FileErrors
+	var errs yamlfile.ErrorList
 	defer func() { w.bad = append(w.bad, errs...) }()
 	if !w.noAlias(n, path, &errs) {
 		return s, false
@@ -928,7 +825,7 @@ func checkName(name string) string {
 	return ""
 }
 
-func (w *walker) pins(n *yaml.Node, path string, errs *FileErrors) []int {
+func (w *walker) pins(n *yaml.Node, path string, errs *yamlfile.ErrorList) []int {
 	if !w.noAlias(n, path, errs) {
 		return nil
 	}
@@ -979,9 +876,9 @@ func applyPin(m *molecule.Molecule, pin []int, pinMax int) (string, int) {
 }
 
 // smilesError places a SMILES error at its column inside the YAML scalar.
-func (w *walker) smilesError(sn, entry *yaml.Node, path string, s Substrate, err error) *FileError {
+func (w *walker) smilesError(sn, entry *yaml.Node, path string, s Substrate, err error) *yamlfile.Error {
 	var se *smiles.Error
-	fe := &FileError{File: w.file, Path: fmt.Sprintf("%s %q", path, short(s.Name)), Kind: ErrBadSMILES, Cause: err}
+	fe := &yamlfile.Error{File: w.file, Path: fmt.Sprintf("%s %q", path, short(s.Name)), Err: ErrBadSMILES, Cause: err}
 	if errors.As(err, &se) {
 		fe.Msg = fmt.Sprintf("SMILES %q column %d: %s", short(s.SMILES), se.Column(), se.Msg)
 		fe.Hint = se.Hint
@@ -1028,13 +925,13 @@ func scalarOffset(n *yaml.Node, pos int) int {
 // whitespace and a name; blank lines and lines starting with # are skipped). The format is
 // CSV when the first data line contains a comma. Each bad row is returned in bad; the good
 // rows load. err is non-nil only when the text cannot be read at all.
-func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Substrate, bad FileErrors, err error) {
+func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Substrate, bad yamlfile.ErrorList, err error) {
 	data, err := readCapped(r, name, maxBytes)
 	if err != nil {
 		return nil, nil, err
 	}
-	if err := checkText(data, name); err != nil {
-		return nil, nil, err
+	if e := yamlfile.CheckUTF8(data, name, ErrNotUTF8); e != nil {
+		return nil, nil, e
 	}
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	isCSV := false
@@ -1055,7 +952,7 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 			s.Name = smi
 		}
 		fe := func(kind error, msg, hint string, c int) {
-			bad = append(bad, &FileError{File: name, Line: line, Col: c, Msg: msg, Hint: hint, Kind: kind})
+			bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: c, Msg: msg, Hint: hint, Err: kind})
 		}
 		if e := checkName(s.Name); e != "" {
 			fe(ErrBadValue, e, "", col)
@@ -1071,7 +968,7 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		}
 		m, err := smiles.Parse(smi)
 		if err != nil {
-			e := &FileError{File: name, Line: line, Col: col, Path: fmt.Sprintf("%q", short(s.Name)), Kind: ErrBadSMILES, Cause: err}
+			e := &yamlfile.Error{File: name, Line: line, Col: col, Path: fmt.Sprintf("%q", short(s.Name)), Err: ErrBadSMILES, Cause: err}
 			var se *smiles.Error
 			if errors.As(err, &se) {
 				e.Col = col + se.Pos
@@ -1102,14 +999,14 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 			if err != nil {
 				var pe *csv.ParseError
 				if errors.As(err, &pe) {
-					bad = append(bad, &FileError{File: name, Line: pe.Line, Col: pe.Column, Msg: "CSV: " + pe.Err.Error(),
-						Hint: "quote fields that contain commas or quotes", Kind: ErrFileSyntax, Cause: err})
+					bad = append(bad, &yamlfile.Error{File: name, Line: pe.Line, Col: pe.Column, Msg: "CSV: " + pe.Err.Error(),
+						Hint: "quote fields that contain commas or quotes", Err: ErrFileSyntax, Cause: err})
 					if len(bad) > 1000 {
 						return subs, bad, nil
 					}
 					continue
 				}
-				return subs, bad, &FileError{File: name, Msg: err.Error(), Kind: ErrFileSyntax, Cause: err}
+				return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 			}
 			line, col := cr.FieldPos(0) // valid only for a record read without error
 			if first && len(rec) >= 2 && strings.EqualFold(strings.TrimSpace(rec[0]), "name") && strings.EqualFold(strings.TrimSpace(rec[1]), "smiles") {
@@ -1121,8 +1018,8 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 				continue
 			}
 			if len(rec) != 2 {
-				bad = append(bad, &FileError{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
-					Kind: ErrBadValue})
+				bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
+					Err: ErrBadValue})
 				continue
 			}
 			_, scol := cr.FieldPos(1)
@@ -1148,7 +1045,7 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		add(lineNo, col, strings.TrimSpace(nm), smi)
 	}
 	if err := sc.Err(); err != nil {
-		return subs, bad, &FileError{File: name, Msg: err.Error(), Kind: ErrFileSyntax, Cause: err}
+		return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 	}
 	return subs, bad, nil
 }

@@ -269,7 +269,7 @@ func FuzzLoadLibrary(f *testing.F) {
 			t.Fatal("nil library without error")
 		}
 		for _, b := range bad {
-			if b.Kind == nil || b.Error() == "" {
+			if b.Err == nil || b.Error() == "" {
 				t.Fatalf("bad row without kind or message: %#v", b)
 			}
 		}

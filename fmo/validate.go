@@ -14,6 +14,7 @@ import (
 
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
+	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets/literature"
 )
 
@@ -36,25 +37,9 @@ const (
 	ConfidenceFromMemory  = "from memory"
 )
 
-// ErrCheckSet is wrapped by every error about a check-set file's content.
+// ErrCheckSet is wrapped by every error about a check-set file's content (a
+// *yamlfile.Error with the file, line and column).
 var ErrCheckSet = errors.New("invalid check set")
-
-// CheckSetError is a positioned problem in a check-set file.
-type CheckSetError struct {
-	File      string
-	Line, Col int // 1-based; 0 when unknown
-	Msg       string
-}
-
-func (e *CheckSetError) Error() string {
-	if e.Line > 0 {
-		return fmt.Sprintf("%s: %d:%d: %s", e.File, e.Line, e.Col, e.Msg)
-	}
-	return e.File + ": " + e.Msg
-}
-
-// Unwrap lets errors.Is(err, ErrCheckSet) succeed.
-func (e *CheckSetError) Unwrap() error { return ErrCheckSet }
 
 // CasePartner is one partner of a case: a name and a SMILES whose atom maps (atom classes)
 // pin the atoms the expected outcome talks about. Validate removes the maps before the
@@ -138,30 +123,30 @@ func BundledCheckSet() (*CheckSet, error) {
 // LoadCheckSet reads a check-set file (format: see presets/literature/cases.yaml). Decoding
 // is strict: unknown keys, aliases, missing fields, unknown categories, confidences or
 // outcome words, unparsable SMILES and atom maps that do not occur exactly once in their
-// SMILES are errors of type *CheckSetError (wrapping ErrCheckSet) with file:line:column.
+// SMILES are errors of type *yamlfile.Error (wrapping ErrCheckSet) with file:line:column.
 func LoadCheckSet(r io.Reader, filename string) (*CheckSet, error) {
 	data, err := io.ReadAll(io.LimitReader(r, maxCheckSetSize+1))
 	if err != nil {
-		return nil, &CheckSetError{File: filename, Msg: err.Error()}
+		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Err: ErrCheckSet}
 	}
 	if len(data) > maxCheckSetSize {
-		return nil, &CheckSetError{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCheckSetSize)}
+		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCheckSetSize), Err: ErrCheckSet}
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(data, &root); err != nil {
-		return nil, &CheckSetError{File: filename, Msg: err.Error()}
+		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Err: ErrCheckSet}
 	}
 	if err := rejectAliasNodes(&root, filename); err != nil {
 		return nil, err
 	}
-	if err := checkKeys(&root, filename); err != nil {
+	if err := yamlfile.CheckKeys(&root, checkSetSchema, filename, "", ErrCheckSet); err != nil {
 		return nil, err
 	}
 	set := &CheckSet{File: filename}
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	dec.KnownFields(true)
 	if err := dec.Decode(set); err != nil {
-		return nil, &CheckSetError{File: filename, Msg: strings.ReplaceAll(err.Error(), "\n", ";")}
+		return nil, &yamlfile.Error{File: filename, Msg: strings.ReplaceAll(err.Error(), "\n", ";"), Err: ErrCheckSet}
 	}
 	set.File = filename
 	// positions of list items
@@ -184,7 +169,7 @@ func LoadCheckSet(r io.Reader, filename string) (*CheckSet, error) {
 		return nil
 	}
 	if len(set.Cases) == 0 && len(set.Series) == 0 {
-		return nil, &CheckSetError{File: filename, Msg: "no cases and no series (expected top-level keys cases: and series:)"}
+		return nil, &yamlfile.Error{File: filename, Msg: "no cases and no series (expected top-level keys cases: and series:)", Err: ErrCheckSet}
 	}
 	ids := map[string]bool{}
 	for i := range set.Cases {
@@ -220,85 +205,21 @@ var checkSetSchema = map[string][]string{
 	"series[].members[]": {"name", "smiles", "k"},
 }
 
-// checkKeys rejects unknown mapping keys with their line and column (the strict decoder
-// that follows reports only a line).
-func checkKeys(root *yaml.Node, file string) error {
-	var walk func(n *yaml.Node, path string) error
-	walk = func(n *yaml.Node, path string) error {
-		switch n.Kind {
-		case yaml.DocumentNode:
-			for _, c := range n.Content {
-				if err := walk(c, path); err != nil {
-					return err
-				}
-			}
-		case yaml.SequenceNode:
-			for _, c := range n.Content {
-				if err := walk(c, path+"[]"); err != nil {
-					return err
-				}
-			}
-		case yaml.MappingNode:
-			allowed, known := checkSetSchema[path]
-			for i := 0; i+1 < len(n.Content); i += 2 {
-				k := n.Content[i]
-				if known && !slices.Contains(allowed, k.Value) {
-					return &CheckSetError{File: file, Line: k.Line, Col: k.Column,
-						Msg: fmt.Sprintf("unknown key %q (known here: %s)", k.Value, strings.Join(allowed, ", "))}
-				}
-				sub := k.Value
-				if path != "" {
-					sub = path + "." + k.Value
-				}
-				if err := walk(n.Content[i+1], sub); err != nil {
-					return err
-				}
-			}
-		}
-		return nil
-	}
-	return walk(root, "")
-}
-
 func rejectAliasNodes(n *yaml.Node, file string) error {
-	if a := firstAlias(n); a != nil {
-		return &CheckSetError{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed in a check set (write the value out)"}
+	if a := yamlfile.FirstAlias(n); a != nil {
+		return &yamlfile.Error{File: file, Line: a.Line, Col: a.Column, Msg: "YAML aliases are not allowed in a check set (write the value out)", Err: ErrCheckSet}
 	}
 	return nil
 }
 
-// fieldPos returns the position of key in mapping node n (or of n itself).
-func fieldPos(n *yaml.Node, key ...string) (int, int) {
-	if n == nil {
-		return 0, 0
-	}
-	cur := n
-	for _, k := range key {
-		if cur.Kind != yaml.MappingNode {
-			break
-		}
-		found := false
-		for i := 0; i+1 < len(cur.Content); i += 2 {
-			if cur.Content[i].Value == k {
-				cur, found = cur.Content[i+1], true
-				break
-			}
-		}
-		if !found {
-			break
-		}
-	}
-	return cur.Line, cur.Column
-}
-
 func checkCase(c *Case, n *yaml.Node, file string, ids map[string]bool) error {
 	fail := func(msg string, key ...string) error {
-		l, col := fieldPos(n, key...)
+		l, col := yamlfile.FieldPos(n, key...)
 		id := c.ID
 		if id == "" {
 			id = "case"
 		}
-		return &CheckSetError{File: file, Line: l, Col: col, Msg: id + ": " + msg}
+		return &yamlfile.Error{File: file, Line: l, Col: col, Msg: id + ": " + msg, Err: ErrCheckSet}
 	}
 	if c.ID == "" {
 		return fail("missing id")
@@ -387,8 +308,8 @@ func checkCase(c *Case, n *yaml.Node, file string, ids map[string]bool) error {
 
 func checkSeries(s *Series, n *yaml.Node, file string, ids map[string]bool) error {
 	fail := func(msg string, key ...string) error {
-		l, col := fieldPos(n, key...)
-		return &CheckSetError{File: file, Line: l, Col: col, Msg: s.ID + ": " + msg}
+		l, col := yamlfile.FieldPos(n, key...)
+		return &yamlfile.Error{File: file, Line: l, Col: col, Msg: s.ID + ": " + msg, Err: ErrCheckSet}
 	}
 	if s.ID == "" {
 		return fail("missing id")

@@ -9,6 +9,8 @@ import (
 	"strings"
 
 	"go.yaml.in/yaml/v3"
+
+	"cyclopair/huckel/yamlfile"
 )
 
 // Params is a Hückel parameter set: Coulomb parameters h per centre type (α_X = α + h·β)
@@ -88,24 +90,6 @@ const KFallbackGeometricMean = "geometric-mean"
 // ErrParams is wrapped by every error about a parameter file's content.
 var ErrParams = errors.New("invalid parameter set")
 
-// ParamsError is a positioned error in a parameter file.
-type ParamsError struct {
-	File      string
-	Line, Col int // 1-based; 0 when unknown
-	Msg       string
-}
-
-func (e *ParamsError) Error() string {
-	pos := e.File
-	if e.Line > 0 {
-		pos = fmt.Sprintf("%s: %d:%d", e.File, e.Line, e.Col)
-	}
-	return pos + ": " + e.Msg
-}
-
-// Unwrap lets errors.Is(err, ErrParams) succeed.
-func (e *ParamsError) Unwrap() error { return ErrParams }
-
 // maxParamsSize caps a parameter file (they are a few kB).
 const maxParamsSize = 1 << 20
 
@@ -156,18 +140,18 @@ type fileParams struct {
 //	  - {types: [C, C], order: 2, k: 1.1, source: "..."}   # order-specific
 //
 // Decoding is strict: unknown keys, unknown centre types, duplicate entries, missing
-// values and non-finite numbers are errors of type *ParamsError (wrapping ErrParams) with
+// values and non-finite numbers are errors of type *yamlfile.Error (wrapping ErrParams) with
 // file:line:column. filename is used only in messages. Every entry needs a source.
 func ParseParams(data []byte, filename string) (*Params, error) {
 	if len(data) > maxParamsSize {
-		return nil, &ParamsError{File: filename, Msg: fmt.Sprintf("file is larger than %d bytes", maxParamsSize)}
+		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file is larger than %d bytes", maxParamsSize), Err: ErrParams}
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(data, &root); err != nil {
-		return nil, &ParamsError{File: filename, Msg: "not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}
+		return nil, &yamlfile.Error{File: filename, Msg: "not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: "), Err: ErrParams}
 	}
 	if len(root.Content) == 0 {
-		return nil, &ParamsError{File: filename, Msg: "empty file (expected a mapping with keys name, h, k)"}
+		return nil, &yamlfile.Error{File: filename, Msg: "empty file (expected a mapping with keys name, h, k)", Err: ErrParams}
 	}
 	if err := rejectAliases(&root, filename); err != nil {
 		return nil, err
@@ -188,7 +172,7 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 			}
 			msg, col = friendlyTypeError(&root, line, msg)
 		}
-		return nil, &ParamsError{File: filename, Line: line, Col: col, Msg: msg}
+		return nil, &yamlfile.Error{File: filename, Line: line, Col: col, Msg: msg, Err: ErrParams}
 	}
 	top := root.Content[0]
 	p := &Params{
@@ -290,7 +274,7 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		p.KEntries = append(p.KEntries, KEntry{A: a, B: b, Order: e.Order, K: *e.K, Source: e.Source, Line: lineOf(n)})
 	}
 	if !p.Replace && p.Name == "" && len(p.HEntries) == 0 && len(p.KEntries) == 0 && !p.alkylSet && !p.omegaSet && !p.auxSet {
-		return nil, &ParamsError{File: filename, Msg: "no parameters found (expected keys h and k)"}
+		return nil, &yamlfile.Error{File: filename, Msg: "no parameters found (expected keys h and k)", Err: ErrParams}
 	}
 	p.compile()
 	return p, nil
@@ -349,12 +333,8 @@ func typeHint() string {
 	return "known types: " + strings.Join(names, " ")
 }
 
-func perr(file string, n *yaml.Node, format string, args ...any) *ParamsError {
-	e := &ParamsError{File: file, Msg: fmt.Sprintf(format, args...)}
-	if n != nil {
-		e.Line, e.Col = n.Line, n.Column
-	}
-	return e
+func perr(file string, n *yaml.Node, format string, args ...any) *yamlfile.Error {
+	return yamlfile.At(file, n, fmt.Sprintf(format, args...), ErrParams)
 }
 
 func lineOf(n *yaml.Node) int {
@@ -365,13 +345,8 @@ func lineOf(n *yaml.Node) int {
 }
 
 func rejectAliases(n *yaml.Node, file string) error {
-	if n.Kind == yaml.AliasNode {
-		return perr(file, n, "YAML aliases are not allowed in parameter files (write the value out)")
-	}
-	for _, c := range n.Content {
-		if err := rejectAliases(c, file); err != nil {
-			return err
-		}
+	if a := yamlfile.FirstAlias(n); a != nil {
+		return perr(file, a, "YAML aliases are not allowed in parameter files (write the value out)")
 	}
 	return nil
 }

@@ -13,6 +13,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/huckel"
+	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -183,7 +184,7 @@ func pointsJSON(pts []fmo.FitPoint) []fitPointJSON {
 	return out
 }
 
-func writeCalibrateJSON(w io.Writer, fit *fmo.CalibrationFit, bad []*fmo.RowError) error {
+func writeCalibrateJSON(w io.Writer, fit *fmo.CalibrationFit, bad yamlfile.ErrorList) error {
 	c := fit.Calibration
 	j := calibrateJSON{
 		Name: c.Name, Params: fit.Params, Data: fit.Data, Source: c.Source,
