@@ -1,21 +1,14 @@
 package fmo
 
 import (
-	"syscall"
 	"testing"
 	"time"
+
+	"cyclopair/fmo/internal/testsupport"
 )
 
-// cpuTime is the process's user+system CPU time. On this shared 2-core machine wall-clock
-// ns/op swings with other jobs' load; CPU time consumed per operation does much less, so the
-// benchmarks report both (pairs/s from wall clock, pairs/cpu-s from CPU time).
-func cpuTime() time.Duration {
-	var ru syscall.Rusage
-	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
-}
+// cpuTime is the process's user+system CPU time (see testsupport.CPUTime).
+var cpuTime = testsupport.CPUTime
 
 func reportPairs(b *testing.B, n int, cpu0 time.Duration) {
 	b.ReportMetric(float64(n)/b.Elapsed().Seconds(), "pairs/s")

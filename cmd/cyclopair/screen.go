@@ -12,14 +12,16 @@ import (
 	"text/tabwriter"
 	"unicode/utf8"
 
+	"github.com/spf13/cobra"
+
 	"cyclopair/cmd/cyclopair/internal/htmlreport"
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
+	"cyclopair/fmo/screen"
+	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
-
-	"github.com/spf13/cobra"
 )
 
 // screenOptions are the flags of 'cyclopair screen' (and 'cyclopair demo').
@@ -114,7 +116,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 
 // screenInput is a loaded screen: the library plus the rows that failed to load.
 type screenInput struct {
-	lib *fmo.Library
+	lib *substrates.Library
 	bad []error
 	dir string // directory of the substrate file, for params_file
 }
@@ -126,7 +128,7 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 	if o.file != "" {
 		if data == nil {
 			var err error
-			data, err = screenReadInput(s, o.file, fmo.DefaultMaxFileBytes)
+			data, err = screenReadInput(s, o.file, substrates.DefaultMaxFileBytes)
 			if err != nil {
 				return nil, err
 			}
@@ -138,7 +140,7 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 		if name == "-" {
 			name = "stdin"
 		}
-		lib, bad, err := fmo.ParseLibrary(data, fmo.LoadOptions{Name: name})
+		lib, bad, err := substrates.ParseLibrary(data, screen.FileOptions(name))
 		if err != nil {
 			return nil, &inputError{err}
 		}
@@ -147,11 +149,11 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 			in.bad = append(in.bad, b)
 		}
 	} else {
-		in.lib = &fmo.Library{Activations: []string{fmo.ActivateNone}, RankBy: fmo.RankNormalGap, Set: map[string]bool{}}
+		in.lib = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(screen.RankNormalGap), Set: map[string]bool{}}
 	}
 	for _, side := range []struct {
 		file string
-		dst  *[]fmo.Substrate
+		dst  *[]substrates.Substrate
 		max  int
 	}{{o.dienes, &in.lib.Dienes, 4}, {o.dienophiles, &in.lib.Dienophiles, 2}} {
 		if side.file == "" {
@@ -161,7 +163,7 @@ func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, e
 		if err != nil {
 			return nil, err
 		}
-		subs, bad, err := fmo.LoadList(r, side.file, side.max, fmo.DefaultMaxFileBytes)
+		subs, bad, err := substrates.LoadList(r, side.file, side.max, substrates.DefaultMaxFileBytes)
 		closeFn()
 		if err != nil {
 			return nil, &inputError{err}
@@ -212,7 +214,7 @@ func unwrapPathError(err error) error {
 }
 
 // applyFlags lets the command-line flags override the library's settings.
-func applyFlags(lib *fmo.Library, o *screenOptions) error {
+func applyFlags(lib *substrates.Library, o *screenOptions) error {
 	changed := o.changed
 	if changed == nil {
 		changed = func(string) bool { return false }
@@ -237,11 +239,11 @@ func applyFlags(lib *fmo.Library, o *screenOptions) error {
 		lib.Activations = modes
 	}
 	if changed("rank-by") {
-		k, err := fmo.ParseRankKey(o.rankBy)
+		k, err := screen.ParseRankKey(o.rankBy)
 		if err != nil {
 			return &usageError{fmt.Errorf("--rank-by: %v", err)}
 		}
-		lib.RankBy = k
+		lib.RankBy = string(k)
 	}
 	if changed("top") {
 		if o.top < 0 {
@@ -344,9 +346,9 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		}
 		format = string(f)
 	}
-	var shard fmo.Shard
+	var shard screen.Shard
 	if o.shard != "" {
-		sh, err := fmo.ParseShard(o.shard)
+		sh, err := screen.ParseShard(o.shard)
 		if err != nil {
 			return &usageError{fmt.Errorf("--shard: %v", err)}
 		}
@@ -385,7 +387,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		act = &fmo.ActivateOptions{Amine: lib.AmineMol}
 	}
 	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(lib.Activations))))
-	prep, err := fmo.Prepare(ctx, lib, opts, fmo.PrepareOptions{Workers: o.workers, Activate: act, Progress: prepProg.Add})
+	prep, err := screen.Prepare(ctx, lib, opts, screen.PrepareOptions{Workers: o.workers, Activate: act, Progress: prepProg.Add})
 	prepProg.Stop()
 	if err != nil {
 		return fmt.Errorf("interrupted while preparing molecules: %w", err)
@@ -439,18 +441,18 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
-	st, runErr := prep.Screen(ctx, fmo.ScreenOptions{
-		Workers: o.workers, RankBy: lib.RankBy, Top: lib.Top, Filter: lib.Filter, Shard: shard,
+	st, runErr := prep.Screen(ctx, screen.ScreenOptions{
+		Workers: o.workers, RankBy: screen.RankKey(lib.RankBy), Top: lib.Top, Filter: lib.Filter, Shard: shard,
 		Progress: prog.Add,
 		Selected: func(n int64) {
 			prog.Stop()
 			prog = nil
 			rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
 		},
-	}, func(r fmo.ScreenRow) error {
+	}, func(r screen.ScreenRow) error {
 		rowProg.Add(1)
 		return w.WriteRow(render.Row{Rank: int(r.Rank), Number: r.Index + 1, Pair: r.Pair})
-	}, func(f fmo.ScreenFailure) {
+	}, func(f screen.ScreenFailure) {
 		rowProg.Add(1)
 		pairFailures = append(pairFailures, f)
 	})
@@ -506,7 +508,7 @@ func printFailures(s *streams, failures []error) {
 
 // screenDiagram draws the energy-level diagram of the top row's partners: its diene and its
 // dienophile under every activation of the screen that applies.
-func screenDiagram(prep *fmo.Prepared, rows []render.Row, cal huckel.Calibration) ([]byte, error) {
+func screenDiagram(prep *screen.Prepared, rows []render.Row, cal huckel.Calibration) ([]byte, error) {
 	if len(rows) == 0 {
 		return nil, nil
 	}

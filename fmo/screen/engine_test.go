@@ -1,4 +1,4 @@
-package fmo
+package screen
 
 import (
 	"context"
@@ -10,6 +10,8 @@ import (
 	"strconv"
 	"testing"
 	"time"
+
+	"cyclopair/fmo"
 )
 
 // fakeJob is a screenJob with arithmetic "chemistry": many tied keys, some pairs that do not
@@ -36,11 +38,11 @@ func (f fakeJob) score(_ int, k int64) (float64, bool, bool) {
 	return key, k%3 != 0, true
 }
 
-func (fakeJob) analyze(_ int, k int64) (*Pair, error) {
+func (fakeJob) analyze(_ int, k int64) (*fmo.Pair, error) {
 	if k%13 == 4 {
 		return nil, fmt.Errorf("pair %d: %w", k, errFake)
 	}
-	return &Pair{DieneName: strconv.FormatInt(k, 10)}, nil
+	return &fmo.Pair{DieneName: strconv.FormatInt(k, 10)}, nil
 }
 
 type row struct {
@@ -51,7 +53,7 @@ func runFake(t *testing.T, job screenJob, cfg engineConfig) ([]row, []int64, eng
 	t.Helper()
 	var rows []row
 	var failed []int64
-	st, err := engineRun(context.Background(), job, cfg, func(rank, k int64, p *Pair) error {
+	st, err := engineRun(context.Background(), job, cfg, func(rank, k int64, p *fmo.Pair) error {
 		if p.DieneName != strconv.FormatInt(k, 10) {
 			t.Fatalf("row for pair %d carries pair %s", k, p.DieneName)
 		}
@@ -185,7 +187,7 @@ func TestEngineCancel(t *testing.T) {
 		go func() {
 			defer close(done)
 			st, err = engineRun(ctx, fakeJob{}, engineConfig{Workers: 4, Ranked: ranked, Lo: 0, Hi: 1 << 40, Chunk: 100},
-				func(rank, k int64, p *Pair) error {
+				func(rank, k int64, p *fmo.Pair) error {
 					n++
 					if n == 10 {
 						cancel()
@@ -211,7 +213,7 @@ func TestEngineCancel(t *testing.T) {
 func TestEngineEmitError(t *testing.T) {
 	stop := errors.New("disk full")
 	_, err := engineRun(context.Background(), fakeJob{}, engineConfig{Workers: 3, Lo: 0, Hi: 100000, Chunk: 10},
-		func(rank, k int64, p *Pair) error {
+		func(rank, k int64, p *fmo.Pair) error {
 			if rank > 3 {
 				return stop
 			}

@@ -1,10 +1,14 @@
-package fmo
+// Package testsupport holds what the benchmarks and tests of several fmo packages share:
+// a synthetic substrate library for measuring speed and memory at scale, and a CPU clock.
+// It is not part of the production code (no non-test package imports it).
+package testsupport
 
 import (
 	"fmt"
 	"math/rand/v2"
 	"strings"
 
+	"cyclopair/fmo/substrates"
 	"cyclopair/huckel/smiles"
 )
 
@@ -18,13 +22,13 @@ import (
 //
 // The result is deterministic for a seed. It panics if more molecules are asked for than the
 // templates can produce (about 10⁴ of each kind) — a programmer error.
-func SyntheticLibrary(nDienes, nDienophiles int, seed uint64) *Library {
+func SyntheticLibrary(nDienes, nDienophiles int, seed uint64) *substrates.Library {
 	rnd := rand.New(rand.NewPCG(seed, seed^0x5eed))
-	lib := &Library{
+	lib := &substrates.Library{
 		Source:      "synthetic",
 		Title:       fmt.Sprintf("synthetic benchmark library (%d dienes × %d dienophiles, seed %d)", nDienes, nDienophiles, seed),
-		Activations: []string{ActivateNone},
-		RankBy:      RankNormalGap,
+		Activations: []string{"none"}, // fmo.ActivateNone
+		RankBy:      "normal_gap",
 		Set:         map[string]bool{},
 	}
 	lib.Dienes = synthesize(rnd, "diene", nDienes, dieneTemplates, dieneSubstituents)
@@ -67,12 +71,12 @@ var dienophileSubstituents = []string{
 }
 
 // synthesize draws n distinct molecules of one kind.
-func synthesize(rnd *rand.Rand, kind string, n int, tpls []synthTemplate, subs []string) []Substrate {
-	out := make([]Substrate, 0, n)
+func synthesize(rnd *rand.Rand, kind string, n int, tpls []synthTemplate, subs []string) []substrates.Substrate {
+	out := make([]substrates.Substrate, 0, n)
 	seen := map[string]bool{}
 	for tries := 0; len(out) < n; tries++ {
 		if tries > 50*n+10000 {
-			panic(fmt.Sprintf("fmo: SyntheticLibrary cannot make %d distinct %ss", n, kind))
+			panic(fmt.Sprintf("testsupport: SyntheticLibrary cannot make %d distinct %ss", n, kind))
 		}
 		t := tpls[rnd.IntN(len(tpls))]
 		slots := strings.Count(t.smiles, "%s")
@@ -87,7 +91,7 @@ func synthesize(rnd *rand.Rand, kind string, n int, tpls []synthTemplate, subs [
 		smi := fmt.Sprintf(t.smiles, fill...)
 		m, err := smiles.Parse(smi)
 		if err != nil {
-			panic(fmt.Sprintf("fmo: synthetic %s %q does not parse: %v", kind, smi, err))
+			panic(fmt.Sprintf("testsupport: synthetic %s %q does not parse: %v", kind, smi, err))
 		}
 		canon := smiles.Canonical(m)
 		if seen[canon] {
@@ -96,7 +100,7 @@ func synthesize(rnd *rand.Rand, kind string, n int, tpls []synthTemplate, subs [
 		seen[canon] = true
 		name := fmt.Sprintf("%s-%s-%04d", kind, t.core, len(out)+1)
 		m.Name = name
-		out = append(out, Substrate{Name: name, SMILES: smi, Mol: m, File: "synthetic"})
+		out = append(out, substrates.Substrate{Name: name, SMILES: smi, Mol: m, File: "synthetic"})
 	}
 	return out
 }

@@ -1,9 +1,13 @@
-package fmo
+package screen
 
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strings"
+
+	"cyclopair/fmo"
+	"cyclopair/fmo/substrates"
 )
 
 // RankKey names the quantity a screen ranks pairs by. Every key has a direction (gaps:
@@ -37,6 +41,16 @@ var RankKeys = []RankKey{RankNormalGap, RankGap, RankStabilization, RankRegioMar
 // ErrRankKey is wrapped by ParseRankKey for an unknown key.
 var ErrRankKey = errors.New("unknown ranking key")
 
+// RankKeyNames lists the key names in the order of RankKeys (the vocabulary substrate files
+// are checked against).
+func RankKeyNames() []string {
+	names := make([]string, len(RankKeys))
+	for i, k := range RankKeys {
+		names[i] = string(k)
+	}
+	return names
+}
+
 // ParseRankKey reads a key name ("" is RankNormalGap).
 func ParseRankKey(s string) (RankKey, error) {
 	s = strings.ToLower(strings.TrimSpace(s))
@@ -48,9 +62,55 @@ func ParseRankKey(s string) (RankKey, error) {
 			return k, nil
 		}
 	}
-	names := make([]string, len(RankKeys))
-	for i, k := range RankKeys {
-		names[i] = string(k)
+	return "", fmt.Errorf("%w %q (choose %s)", ErrRankKey, s, strings.Join(RankKeyNames(), ", "))
+}
+
+// rankValue is the ranking key of a QuickScore result, lower is better.
+func rankValue(key RankKey, q *fmo.Quick) float64 {
+	switch key {
+	case RankGap:
+		return math.Min(q.GapNormal, q.GapInverse)
+	case RankStabilization:
+		return -q.Stabilization
+	case RankRegioMargin:
+		return -q.RegioMargin
+	case RankScore:
+		return -q.Best
 	}
-	return "", fmt.Errorf("%w %q (choose %s)", ErrRankKey, s, strings.Join(names, ", "))
+	return q.GapNormal
+}
+
+// passes applies the filters that QuickScore can decide.
+func passes(f *substrates.Filter, q *fmo.Quick) bool {
+	if !q.OK {
+		return false
+	}
+	switch f.Demand {
+	case "normal":
+		if q.Demand != 1 {
+			return false
+		}
+	case "inverse":
+		if q.Demand != -1 {
+			return false
+		}
+	case "neutral":
+		if q.Demand != 0 {
+			return false
+		}
+	}
+	if f.MinRegioMargin > 0 && !(q.RegioMargin >= f.MinRegioMargin) {
+		return false
+	}
+	if f.MaxGap > 0 && !(math.Min(q.GapNormal, q.GapInverse) <= f.MaxGap) {
+		return false
+	}
+	return true
+}
+
+// FileOptions are the options a screen reads substrate files with: the file name for
+// messages and the screen's vocabularies (fmo.Modes() for activations, RankKeyNames for
+// rank_by).
+func FileOptions(name string) substrates.LoadOptions {
+	return substrates.LoadOptions{Name: name, Modes: fmo.Modes(), RankKeys: RankKeyNames()}
 }

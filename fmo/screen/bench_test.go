@@ -1,4 +1,4 @@
-package fmo
+package screen
 
 import (
 	"context"
@@ -9,13 +9,16 @@ import (
 	"sync"
 	"sync/atomic"
 	"testing"
-	"time"
+
+	"cyclopair/fmo"
+	"cyclopair/fmo/internal/testsupport"
+	"cyclopair/fmo/substrates"
 )
 
 // The generator gives valid, distinct, deterministic molecules that the analysis accepts.
 func TestSyntheticLibrary(t *testing.T) {
-	a := SyntheticLibrary(300, 300, 1)
-	b := SyntheticLibrary(300, 300, 1)
+	a := testsupport.SyntheticLibrary(300, 300, 1)
+	b := testsupport.SyntheticLibrary(300, 300, 1)
 	if len(a.Dienes) != 300 || len(a.Dienophiles) != 300 {
 		t.Fatalf("got %d/%d molecules", len(a.Dienes), len(a.Dienophiles))
 	}
@@ -41,33 +44,31 @@ func TestSyntheticLibrary(t *testing.T) {
 	}
 }
 
-func cpuNow() time.Duration { return cpuTime() }
-
 // BenchmarkPrepare measures molecules/s for the preparation stage of a screen: parse,
 // perceive, solve, find reacting units (the SMILES are generated outside the timed loop),
 // single worker, so the figure is per core.
 func BenchmarkPrepare(b *testing.B) {
 	o := screenOpts(b)
-	lib := SyntheticLibrary(200, 200, 7)
-	var src []Substrate
+	lib := testsupport.SyntheticLibrary(200, 200, 7)
+	var src []substrates.Substrate
 	src = append(src, lib.Dienes...)
 	src = append(src, lib.Dienophiles...)
 	b.ReportAllocs()
 	n := 0
-	cpu0 := cpuNow()
+	cpu0 := testsupport.CPUTime()
 	for b.Loop() {
 		s := src[n%len(src)]
-		role := RoleDiene
+		role := fmo.RoleDiene
 		if n%len(src) >= len(lib.Dienes) {
-			role = RoleDienophile
+			role = fmo.RoleDienophile
 		}
-		if _, err := NewPartner(s.Name, s.SMILES, role, o); err != nil {
+		if _, err := fmo.NewPartner(s.Name, s.SMILES, role, o); err != nil {
 			b.Fatal(err)
 		}
 		n++
 	}
 	b.ReportMetric(float64(n)/b.Elapsed().Seconds(), "molecules/s")
-	if c := cpuNow() - cpu0; c > 0 {
+	if c := testsupport.CPUTime() - cpu0; c > 0 {
 		b.ReportMetric(float64(n)/c.Seconds(), "molecules/cpu-s")
 	}
 }
@@ -77,7 +78,7 @@ var benchPrepared *Prepared
 
 func prepared2000(b *testing.B) *Prepared {
 	if benchPrepared == nil {
-		lib := SyntheticLibrary(2000, 2000, 42)
+		lib := testsupport.SyntheticLibrary(2000, 2000, 42)
 		p, err := Prepare(context.Background(), lib, screenOpts(b), PrepareOptions{Workers: 0})
 		if err != nil {
 			b.Fatal(err)
@@ -94,7 +95,7 @@ func BenchmarkScreenKernelBaseline(b *testing.B) {
 	p := prepared2000(b)
 	b.ReportAllocs()
 	pairs := int64(0)
-	cpu0 := cpuNow()
+	cpu0 := testsupport.CPUTime()
 	var sink float64
 	for b.Loop() {
 		for _, d := range p.Dienes {
@@ -112,7 +113,7 @@ func BenchmarkScreenKernelBaseline(b *testing.B) {
 	}
 	_ = sink
 	b.ReportMetric(float64(pairs)/b.Elapsed().Seconds(), "pairs/s")
-	if c := cpuNow() - cpu0; c > 0 {
+	if c := testsupport.CPUTime() - cpu0; c > 0 {
 		b.ReportMetric(float64(pairs)/c.Seconds(), "pairs/cpu-s")
 	}
 }
@@ -127,7 +128,7 @@ func BenchmarkScreenScore(b *testing.B) {
 		b.Run(map[bool]string{true: "workers=1", false: "workers=all"}[workers == 1], func(b *testing.B) {
 			b.ReportAllocs()
 			pairs := int64(0)
-			cpu0 := cpuNow()
+			cpu0 := testsupport.CPUTime()
 			for b.Loop() {
 				st, err := p.Screen(context.Background(), ScreenOptions{Workers: workers, RankBy: RankNormalGap, Top: 100},
 					func(ScreenRow) error { return nil }, func(ScreenFailure) {})
@@ -137,7 +138,7 @@ func BenchmarkScreenScore(b *testing.B) {
 				pairs += st.Scored
 			}
 			b.ReportMetric(float64(pairs)/b.Elapsed().Seconds(), "pairs/s")
-			if c := cpuNow() - cpu0; c > 0 {
+			if c := testsupport.CPUTime() - cpu0; c > 0 {
 				b.ReportMetric(float64(pairs)/c.Seconds(), "pairs/cpu-s")
 			}
 		})
@@ -213,7 +214,7 @@ func BenchmarkScreenMemory(b *testing.B) {
 // random pairs of synthetic partners with several reacting units each (tolerance 1e-9 |β|,
 // summation order).
 func TestQuickAgreesWithAnalyzeSynthetic(t *testing.T) {
-	lib := SyntheticLibrary(60, 60, 9)
+	lib := testsupport.SyntheticLibrary(60, 60, 9)
 	p, err := Prepare(context.Background(), lib, screenOpts(t), PrepareOptions{Workers: 2})
 	if err != nil || len(p.Failures) > 0 {
 		t.Fatal(err, p.Failures)
@@ -222,8 +223,8 @@ func TestQuickAgreesWithAnalyzeSynthetic(t *testing.T) {
 	const tol = 1e-9
 	for range 400 {
 		d, e := rnd.IntN(len(p.Dienes)), rnd.IntN(len(p.Dienophiles))
-		q := QuickScore(p.Dienes[d], p.Dienophiles[e], p.Opts)
-		pair, err := Analyze(p.Dienes[d], p.Dienophiles[e], p.Opts)
+		q := fmo.QuickScore(p.Dienes[d], p.Dienophiles[e], p.Opts)
+		pair, err := fmo.Analyze(p.Dienes[d], p.Dienophiles[e], p.Opts)
 		if err != nil {
 			t.Errorf("%s + %s: %v", p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, err)
 			continue

@@ -1,91 +1,24 @@
-package fmo
+package screen
 
 import (
 	"context"
-	"errors"
-	"fmt"
 	"math"
 	"runtime"
 	"slices"
-	"strconv"
-	"strings"
 	"sync"
 	"sync/atomic"
+
+	"cyclopair/fmo"
 )
 
 // This file holds the batch machinery of Screen, independent of the chemistry: a pair space
 // enumerated in a fixed order, sharding, a worker pool that scores chunks of the space, a
 // bounded top-K selection with deterministic tie-breaking and an in-order streamer. The
-// chemistry (QuickScore, Analyze) is plugged in through screenJob (screen.go).
+// chemistry (QuickScore, Analyze) is plugged in through screenJob (preparedJob in screen.go).
 //
 // Determinism: every pair has a fixed index in the pair space; ranking compares (key, index)
 // pairs, a strict total order, so the selected rows and their order do not depend on how the
 // space was split between workers. The unranked stream emits chunks strictly in index order.
-
-// PairSpace enumerates diene × dienophile × activation triples. Index k stands for
-// diene k / (Dienophiles·Activations), dienophile (k / Activations) mod Dienophiles and
-// activation k mod Activations: dienes vary slowest, activations fastest.
-type PairSpace struct {
-	Dienes, Dienophiles, Activations int
-}
-
-// Len is the number of triples.
-func (s PairSpace) Len() int64 {
-	return int64(s.Dienes) * int64(s.Dienophiles) * int64(s.Activations)
-}
-
-// Split returns the diene, dienophile and activation indices of pair k.
-func (s PairSpace) Split(k int64) (diene, dienophile, activation int) {
-	a := int(k % int64(s.Activations))
-	k /= int64(s.Activations)
-	return int(k / int64(s.Dienophiles)), int(k % int64(s.Dienophiles)), a
-}
-
-// Shard selects a deterministic slice of the pair space: shard Index of Count (1-based).
-// The zero value (and 1/1) is the whole space. Shards are contiguous index ranges, so the
-// unranked outputs of shards 1..Count concatenate to the unsharded unranked output.
-type Shard struct {
-	Index, Count int
-}
-
-// ErrBadShard is wrapped by ParseShard and Range for an impossible shard.
-var ErrBadShard = errors.New("bad shard")
-
-// ParseShard reads "i/n" with 1 ≤ i ≤ n.
-func ParseShard(s string) (Shard, error) {
-	a, b, ok := strings.Cut(strings.TrimSpace(s), "/")
-	i, err1 := strconv.Atoi(a)
-	n, err2 := strconv.Atoi(b)
-	if !ok || err1 != nil || err2 != nil {
-		return Shard{}, fmt.Errorf("%w %q (write i/n, e.g. 2/8 for the second of eight shards)", ErrBadShard, s)
-	}
-	if n < 1 || i < 1 || i > n {
-		return Shard{}, fmt.Errorf("%w %q (need 1 ≤ i ≤ n)", ErrBadShard, s)
-	}
-	return Shard{Index: i, Count: n}, nil
-}
-
-// String is "i/n", or "" for the whole space.
-func (sh Shard) String() string {
-	if sh.Count <= 1 {
-		return ""
-	}
-	return fmt.Sprintf("%d/%d", sh.Index, sh.Count)
-}
-
-// Range returns the half-open index range [lo, hi) of the shard within n pairs.
-func (sh Shard) Range(n int64) (lo, hi int64) {
-	if sh.Count <= 1 {
-		return 0, n
-	}
-	if sh.Index < 1 || sh.Index > sh.Count {
-		panic(fmt.Sprintf("fmo: shard %d/%d out of range", sh.Index, sh.Count))
-	}
-	c := int64(sh.Count)
-	i := int64(sh.Index)
-	// n·i/c without overflow for any realistic n (n < 2^62/c).
-	return n/c*(i-1) + n%c*(i-1)/c, n/c*i + n%c*i/c
-}
 
 // scored is the ranking record of one pair: lower key is better (keys that rank
 // "largest first" are negated when they are made), ties go to the lower index.
@@ -170,7 +103,7 @@ type screenJob interface {
 	// cost to the kernel itself (no interface call, no index division per pair).
 	scoreChunk(worker int, lo, hi int64, out []chunkScore)
 	// analyze runs the full analysis of pair k.
-	analyze(worker int, k int64) (*Pair, error)
+	analyze(worker int, k int64) (*fmo.Pair, error)
 }
 
 // chunkScore is one scored pair of a chunk.
@@ -218,7 +151,7 @@ type pairFailure struct {
 // emits, in order, the rows of chunks already finished before the first gap, and the run
 // returns ctx.Err() with Canceled set.
 func engineRun(ctx context.Context, job screenJob, cfg engineConfig,
-	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	emit func(rank int64, k int64, p *fmo.Pair) error, fail func(pairFailure)) (engineStats, error) {
 	if cfg.Workers <= 0 {
 		cfg.Workers = runtime.GOMAXPROCS(0)
 	}
@@ -256,7 +189,7 @@ func (cfg *engineConfig) chunks() int64 {
 // passing records when Top is 0), phase 2 merges them and runs the full analysis of the
 // selected rows in parallel, emitting in rank order.
 func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
-	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	emit func(rank int64, k int64, p *fmo.Pair) error, fail func(pairFailure)) (engineStats, error) {
 	var st engineStats
 	nChunks := cfg.chunks()
 	var next atomic.Int64
@@ -332,7 +265,7 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 	// time: memory stays bounded, the first rows come out soon, and a cancel is seen quickly.
 	window := max(cfg.Workers*4, 8)
 	rank := int64(0)
-	out := make([]*Pair, window)
+	out := make([]*fmo.Pair, window)
 	errs := make([]error, window)
 	for start := 0; start < len(sel); start += window {
 		if err := ctx.Err(); err != nil {
@@ -381,7 +314,7 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 type chunkResult struct {
 	c       int64
 	ks      []int64
-	pairs   []*Pair
+	pairs   []*fmo.Pair
 	errs    []error
 	scoredN int64
 	missing int64
@@ -392,7 +325,7 @@ type chunkResult struct {
 // order. At most 2·Workers chunks are in flight, so memory is bounded by the chunk size, not
 // by the number of pairs.
 func engineStream(ctx context.Context, job screenJob, cfg engineConfig,
-	emit func(rank int64, k int64, p *Pair) error, fail func(pairFailure)) (engineStats, error) {
+	emit func(rank int64, k int64, p *fmo.Pair) error, fail func(pairFailure)) (engineStats, error) {
 	var st engineStats
 	nChunks := cfg.chunks()
 	ctx, cancel := context.WithCancel(ctx)

@@ -1,4 +1,4 @@
-package fmo
+package substrates
 
 import (
 	"errors"
@@ -6,9 +6,18 @@ import (
 	"testing"
 	"time"
 
+	"cyclopair/fmo"
 	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 )
+
+// withVocab adds the screen's vocabularies (activation modes, ranking keys) to o, as
+// package screen does.
+func withVocab(o LoadOptions) LoadOptions {
+	o.Modes = fmo.Modes()
+	o.RankKeys = []string{"normal_gap", "gap", "stabilization", "regio_margin", "score", "none"}
+	return o
+}
 
 const goodLibrary = `title: test screen
 dienes:
@@ -28,7 +37,7 @@ top: 7
 `
 
 func TestLoadLibraryGood(t *testing.T) {
-	lib, bad, err := LoadLibrary(strings.NewReader(goodLibrary), LoadOptions{Name: "good.yaml"})
+	lib, bad, err := LoadLibrary(strings.NewReader(goodLibrary), withVocab(LoadOptions{Name: "good.yaml"}))
 	if err != nil || len(bad) > 0 {
 		t.Fatalf("err = %v, bad = %v", err, bad)
 	}
@@ -49,17 +58,17 @@ func TestLoadLibraryGood(t *testing.T) {
 		t.Errorf("activations = %q (duplicates must collapse)", got)
 	}
 	want := Filter{Demand: "normal", MinRegioMargin: 0.01, MaxGap: 1.5, AllowedOnly: true}
-	if lib.Filter != want || lib.RankBy != RankStabilization || lib.Top != 7 || lib.Params != "streitwieser1961" || lib.Calibration != "default" || lib.Title != "test screen" {
+	if lib.Filter != want || lib.RankBy != "stabilization" || lib.Top != 7 || lib.Params != "streitwieser1961" || lib.Calibration != "default" || lib.Title != "test screen" {
 		t.Errorf("settings = %+v", lib)
 	}
 }
 
 func TestLoadLibraryDefaults(t *testing.T) {
-	lib, _, err := LoadLibrary(strings.NewReader("dienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n"), LoadOptions{})
+	lib, _, err := LoadLibrary(strings.NewReader("dienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n"), withVocab(LoadOptions{}))
 	if err != nil {
 		t.Fatal(err)
 	}
-	if lib.RankBy != RankNormalGap || len(lib.Activations) != 1 || lib.Activations[0] != "none" || lib.Dienes[0].Name != "C=CC=C" {
+	if lib.RankBy != "normal_gap" || len(lib.Activations) != 1 || lib.Activations[0] != "none" || lib.Dienes[0].Name != "C=CC=C" {
 		t.Errorf("defaults = %+v", lib)
 	}
 }
@@ -107,7 +116,7 @@ func TestLoadLibraryFatal(t *testing.T) {
 			var err error
 			go func() {
 				defer close(done)
-				_, _, err = LoadLibrary(strings.NewReader(c.src), LoadOptions{Name: "x.yaml"})
+				_, _, err = LoadLibrary(strings.NewReader(c.src), withVocab(LoadOptions{Name: "x.yaml"}))
 			}()
 			select {
 			case <-done:
@@ -128,7 +137,7 @@ func TestLoadLibraryFatal(t *testing.T) {
 }
 
 func TestLoadLibraryTooLarge(t *testing.T) {
-	_, _, err := LoadLibrary(strings.NewReader(strings.Repeat("#", 2000)), LoadOptions{MaxBytes: 1000})
+	_, _, err := LoadLibrary(strings.NewReader(strings.Repeat("#", 2000)), withVocab(LoadOptions{MaxBytes: 1000}))
 	if !errors.Is(err, ErrFileTooLarge) {
 		t.Errorf("err = %v, want ErrFileTooLarge", err)
 	}
@@ -156,7 +165,7 @@ dienophiles:
   - {name: ok, smiles: C=C}
   - {name: ok2, smiles: C=C, notes: [a]}
 `
-	lib, bad, err := LoadLibrary(strings.NewReader(src), LoadOptions{Name: "rows.yaml"})
+	lib, bad, err := LoadLibrary(strings.NewReader(src), withVocab(LoadOptions{Name: "rows.yaml"}))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -246,7 +255,7 @@ func TestLoadList(t *testing.T) {
 // The embedded demo file loads without a single bad row.
 func TestDemoLibraryLoads(t *testing.T) {
 	name, data := presets.DemoFile()
-	lib, bad, err := ParseLibrary(data, LoadOptions{Name: name})
+	lib, bad, err := ParseLibrary(data, withVocab(LoadOptions{Name: name}))
 	if err != nil || len(bad) > 0 {
 		t.Fatalf("err = %v, bad = %v", err, bad)
 	}
@@ -264,7 +273,7 @@ func FuzzLoadLibrary(f *testing.F) {
 	f.Add([]byte("top: 99999999999999999999\nfilter: {max_gap: 1e400}\n"))
 	f.Add([]byte("\xef\xbb\xbfdienes: []\ndienophiles: []\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		lib, bad, err := ParseLibrary(data, LoadOptions{Name: "fuzz.yaml", MaxBytes: 1 << 16})
+		lib, bad, err := ParseLibrary(data, withVocab(LoadOptions{Name: "fuzz.yaml", MaxBytes: 1 << 16}))
 		if err == nil && lib == nil {
 			t.Fatal("nil library without error")
 		}
@@ -281,11 +290,11 @@ func FuzzLoadLibrary(f *testing.F) {
 }
 
 func TestLoadLibraryAmine(t *testing.T) {
-	lib, _, err := ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC1\n"), LoadOptions{})
+	lib, _, err := ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC1\n"), withVocab(LoadOptions{}))
 	if err != nil || lib.AmineMol == nil || lib.Amine != "C1CCNCC1" {
 		t.Fatalf("amine not loaded: %v", err)
 	}
-	_, _, err = ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC\n"), LoadOptions{Name: "a.yaml"})
+	_, _, err = ParseLibrary([]byte("dienes: []\ndienophiles: []\namine: C1CCNCC\n"), withVocab(LoadOptions{Name: "a.yaml"}))
 	if !errors.Is(err, ErrBadSMILES) || !strings.Contains(err.Error(), "a.yaml: 3:9: amine: SMILES") {
 		t.Errorf("bad amine: %v", err)
 	}

@@ -1,4 +1,4 @@
-package fmo
+package screen
 
 import (
 	"bytes"
@@ -10,11 +10,13 @@ import (
 	"strings"
 	"testing"
 
+	"cyclopair/fmo"
+	"cyclopair/fmo/substrates"
 	"cyclopair/presets"
 )
 
 // screenOpts builds analysis options with the default parameter set and calibration.
-func screenOpts(t testing.TB) *Options {
+func screenOpts(t testing.TB) *fmo.Options {
 	t.Helper()
 	p, err := presets.Params(presets.DefaultParams)
 	if err != nil {
@@ -24,13 +26,13 @@ func screenOpts(t testing.TB) *Options {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return NewOptions(p, cal, cal.Name)
+	return fmo.NewOptions(p, cal, cal.Name)
 }
 
 func demoPrepared(t testing.TB) *Prepared {
 	t.Helper()
 	name, data := presets.DemoFile()
-	lib, bad, err := ParseLibrary(data, LoadOptions{Name: name})
+	lib, bad, err := substrates.ParseLibrary(data, FileOptions(name))
 	if err != nil || len(bad) > 0 {
 		t.Fatalf("demo: %v %v", err, bad)
 	}
@@ -81,7 +83,7 @@ func TestScreenWorkersIdentical(t *testing.T) {
 		{RankBy: RankNormalGap, Top: 10},
 		{RankBy: RankStabilization, Top: 25},
 		{RankBy: RankNone, Top: 30},
-		{RankBy: RankRegioMargin, Top: 5, Filter: Filter{Demand: "normal"}},
+		{RankBy: RankRegioMargin, Top: 5, Filter: substrates.Filter{Demand: "normal"}},
 	} {
 		so.Workers = 1
 		one, _ := screenBytes(t, p, so)
@@ -98,7 +100,7 @@ func TestScreenShardsConcatenate(t *testing.T) {
 	p := demoPrepared(t)
 	// A gap filter keeps the number of full analyses (the slow part) small; the shards still
 	// cut the whole pair space.
-	flt := Filter{MaxGap: 0.3}
+	flt := substrates.Filter{MaxGap: 0.3}
 	whole, st := screenBytes(t, p, ScreenOptions{RankBy: RankNone, Workers: 2, Filter: flt})
 	for _, n := range []int{2, 3, 7} {
 		var cat []byte
@@ -126,7 +128,7 @@ func TestScreenQuickAgreesWithAnalyze(t *testing.T) {
 		if v == nil {
 			continue
 		}
-		q := QuickScore(p.Dienes[d], v, p.Opts)
+		q := fmo.QuickScore(p.Dienes[d], v, p.Opts)
 		pair, err := p.AnalyzeAt(d, e, a)
 		if err != nil {
 			t.Errorf("%d: %v", k, err)
@@ -152,7 +154,7 @@ func TestScreenQuickAgreesWithAnalyze(t *testing.T) {
 // The ranking is sorted by its key and the top rows are the first rows of the full ranking.
 func TestScreenRankingOrder(t *testing.T) {
 	p := demoPrepared(t)
-	var all []*Pair
+	var all []*fmo.Pair
 	_, err := p.Screen(context.Background(), ScreenOptions{RankBy: RankNormalGap}, func(r ScreenRow) error {
 		all = append(all, r.Pair)
 		return nil
@@ -165,7 +167,7 @@ func TestScreenRankingOrder(t *testing.T) {
 			t.Fatalf("row %d has a smaller normal gap than row %d", i+1, i)
 		}
 	}
-	var top []*Pair
+	var top []*fmo.Pair
 	p.Screen(context.Background(), ScreenOptions{RankBy: RankNormalGap, Top: 7}, func(r ScreenRow) error {
 		top = append(top, r.Pair)
 		return nil
@@ -209,7 +211,7 @@ func TestScreenPin(t *testing.T) {
 dienophiles:
   - {name: ethylene, smiles: C=C}
 `
-	lib, bad, err := ParseLibrary([]byte(src), LoadOptions{Name: "pin.yaml"})
+	lib, bad, err := substrates.ParseLibrary([]byte(src), FileOptions("pin.yaml"))
 	if err != nil || len(bad) > 0 {
 		t.Fatal(err, bad)
 	}
@@ -246,7 +248,7 @@ dienophiles:
   - preset: methyl-acrylate
 activations: [none, lewis]
 `
-	lib, bad, err := ParseLibrary([]byte(src), LoadOptions{Name: "trends.yaml"})
+	lib, bad, err := substrates.ParseLibrary([]byte(src), FileOptions("trends.yaml"))
 	if err != nil || len(bad) > 0 {
 		t.Fatal(err, bad)
 	}
@@ -291,7 +293,7 @@ func TestPresetSubstratesPrepare(t *testing.T) {
 			fmt.Fprintf(&b, "  - preset: %s\n", s.Name)
 		}
 	}
-	lib, bad, err := ParseLibrary([]byte(b.String()), LoadOptions{Name: "presets"})
+	lib, bad, err := substrates.ParseLibrary([]byte(b.String()), FileOptions("presets"))
 	if err != nil || len(bad) > 0 {
 		t.Fatal(err, bad)
 	}
