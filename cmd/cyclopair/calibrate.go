@@ -11,7 +11,7 @@ import (
 	"text/tabwriter"
 
 	"cyclopair/cmd/cyclopair/internal/render"
-	"cyclopair/fmo"
+	"cyclopair/fmo/check"
 	"cyclopair/huckel"
 	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
@@ -100,11 +100,11 @@ func runCalibrate(s *streams, opts *calibrateOptions, path string) error {
 		return err
 	}
 	defer done()
-	rows, bad, err := fmo.LoadCalibrationData(r, name)
+	rows, bad, err := check.LoadCalibrationData(r, name)
 	if err != nil {
 		return &inputError{err}
 	}
-	fit, bad2, err := fmo.FitCalibrationData(rows, p, name, opts.name)
+	fit, bad2, err := check.FitCalibrationData(rows, p, name, opts.name)
 	bad = append(bad, bad2...)
 	for _, b := range bad {
 		fmt.Fprintf(s.err, "cyclopair: %v\n", b)
@@ -114,7 +114,7 @@ func runCalibrate(s *streams, opts *calibrateOptions, path string) error {
 	}
 	if opts.out != "" {
 		var buf bytes.Buffer
-		if err := fmo.WriteCalibrationFile(&buf, fit); err != nil {
+		if err := check.WriteCalibrationFile(&buf, fit); err != nil {
 			return err
 		}
 		if err := os.WriteFile(opts.out, buf.Bytes(), 0o644); err != nil {
@@ -124,7 +124,7 @@ func runCalibrate(s *streams, opts *calibrateOptions, path string) error {
 	}
 	switch opts.format {
 	case "yaml":
-		if err := fmo.WriteCalibrationFile(s.out, fit); err != nil {
+		if err := check.WriteCalibrationFile(s.out, fit); err != nil {
 			return err
 		}
 	case "json":
@@ -175,7 +175,7 @@ type calibrateJSON struct {
 	Caution string         `json:"caution"`
 }
 
-func pointsJSON(pts []fmo.FitPoint) []fitPointJSON {
+func pointsJSON(pts []check.FitPoint) []fitPointJSON {
 	out := make([]fitPointJSON, 0, len(pts))
 	for _, p := range pts {
 		out = append(out, fitPointJSON{ID: p.ID, Name: p.Name, SMILES: p.SMILES, Level: p.Level, X: num(p.X),
@@ -184,7 +184,7 @@ func pointsJSON(pts []fmo.FitPoint) []fitPointJSON {
 	return out
 }
 
-func writeCalibrateJSON(w io.Writer, fit *fmo.CalibrationFit, bad yamlfile.ErrorList) error {
+func writeCalibrateJSON(w io.Writer, fit *check.CalibrationFit, bad yamlfile.ErrorList) error {
 	c := fit.Calibration
 	j := calibrateJSON{
 		Name: c.Name, Params: fit.Params, Data: fit.Data, Source: c.Source,
@@ -205,7 +205,7 @@ func writeCalibrateJSON(w io.Writer, fit *fmo.CalibrationFit, bad yamlfile.Error
 	return err
 }
 
-func writeCalibrateTable(w io.Writer, fit *fmo.CalibrationFit) {
+func writeCalibrateTable(w io.Writer, fit *check.CalibrationFit) {
 	c := fit.Calibration
 	fmt.Fprintf(w, "calibration %s: least-squares fit of %s with parameter set %s\n", c.Name, fit.Data, fit.Params)
 	fmt.Fprintf(w, "E(eV) = intercept + slope·x, E = α + xβ (x > 0 bonding); occupied levels against −IE, empty against −EA\n\n")
@@ -218,7 +218,7 @@ func writeCalibrateTable(w io.Writer, fit *fmo.CalibrationFit) {
 	fmt.Fprintln(w)
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "id\tname\tlevel\tx\tE/eV\tfit/eV\tresidual/eV\t")
-	row := func(p fmo.FitPoint, note string) {
+	row := func(p check.FitPoint, note string) {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%.4f\t%.3f\t%.3f\t%+.3f\t%s\n", p.ID, dash(p.Name), p.Level, zero(p.X), p.EnergyEV, p.FitEV, zero(p.Residual), note)
 	}
 	for _, p := range fit.Points {
@@ -274,7 +274,7 @@ func resolveCalibration(s *streams, spec string, p *huckel.Params) (huckel.Calib
 		return huckel.Calibration{}, &inputError{fmt.Errorf("%s: cannot open calibration (%s)", spec, hint)}
 	}
 	defer f.Close()
-	lc, err := fmo.LoadCalibrationFile(f, spec)
+	lc, err := check.LoadCalibrationFile(f, spec)
 	if err != nil {
 		return huckel.Calibration{}, &inputError{err}
 	}

@@ -9,6 +9,7 @@ import (
 
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
+	"cyclopair/fmo/check"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -73,9 +74,9 @@ func runValidate(s *streams, opts *validateOptions) error {
 	if err != nil {
 		return err
 	}
-	var set *fmo.CheckSet
+	var set *check.CheckSet
 	if opts.cases == "" {
-		set, err = fmo.BundledCheckSet()
+		set, err = check.BundledCheckSet()
 		if err != nil {
 			return err
 		}
@@ -84,14 +85,14 @@ func runValidate(s *streams, opts *validateOptions) error {
 		if err != nil {
 			return err
 		}
-		set, err = fmo.LoadCheckSet(r, name)
+		set, err = check.LoadCheckSet(r, name)
 		done()
 		if err != nil {
 			return &inputError{err}
 		}
 	}
 	fo := fmo.NewOptions(p, cal, cal.Name)
-	rep := fmo.Validate(set, fo)
+	rep := check.Validate(set, fo)
 	switch opts.format {
 	case "json":
 		if err := writeValidateJSON(s.out, rep); err != nil {
@@ -104,7 +105,7 @@ func runValidate(s *streams, opts *validateOptions) error {
 	}
 	errs, disagree := 0, 0
 	for _, c := range rep.Cases {
-		if c.Status == fmo.StatusError {
+		if c.Status == check.StatusError {
 			errs++
 			fmt.Fprintf(s.err, "cyclopair: %s: %s: cannot analyse: %s\n", set.File, c.ID, c.Error)
 		}
@@ -131,12 +132,12 @@ func runValidate(s *streams, opts *validateOptions) error {
 }
 
 type validateJSON struct {
-	*fmo.ValidationReport
+	*check.ValidationReport
 	Agrees  bool   `json:"agrees_with_record"`
 	Caution string `json:"caution"`
 }
 
-func writeValidateJSON(w io.Writer, rep *fmo.ValidationReport) error {
+func writeValidateJSON(w io.Writer, rep *check.ValidationReport) error {
 	b, err := json.Marshal(validateJSON{ValidationReport: rep, Agrees: rep.Agrees(), Caution: render.Caution})
 	if err != nil {
 		return err
@@ -152,7 +153,7 @@ func pct(hits, total int) string {
 	return fmt.Sprintf("%.0f%%", 100*float64(hits)/float64(total))
 }
 
-func seriesVerdict(s fmo.SeriesResult) string {
+func seriesVerdict(s check.SeriesResult) string {
 	switch {
 	case s.Error != "":
 		return "error: " + s.Error
@@ -166,7 +167,7 @@ func seriesVerdict(s fmo.SeriesResult) string {
 	return "MISS (not recorded)"
 }
 
-func writeValidateTable(w io.Writer, rep *fmo.ValidationReport) {
+func writeValidateTable(w io.Writer, rep *check.ValidationReport) {
 	fmt.Fprintf(w, "literature check set %s: parameter set %s, calibration %s\n\n", rep.File, rep.Params, rep.Calibration)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "category\thits\ttotal\trate\tknown misses\tnew misses\tunexpected hits\terrors")
@@ -184,9 +185,9 @@ func writeValidateTable(w io.Writer, rep *fmo.ValidationReport) {
 		}
 		tw.Flush()
 	}
-	var misses []fmo.CaseResult
+	var misses []check.CaseResult
 	for _, c := range rep.Cases {
-		if c.Status != fmo.StatusHit {
+		if c.Status != check.StatusHit {
 			misses = append(misses, c)
 		}
 	}
@@ -220,7 +221,7 @@ func mdCell(s string) string {
 	return strings.ReplaceAll(s, "\n", " ")
 }
 
-func writeValidateMarkdown(w io.Writer, rep *fmo.ValidationReport) {
+func writeValidateMarkdown(w io.Writer, rep *check.ValidationReport) {
 	fmt.Fprintf(w, "# Literature check: %s\n\n", mdCell(rep.File))
 	fmt.Fprintf(w, "Parameter set `%s`, calibration `%s`.\n\n", rep.Params, rep.Calibration)
 	fmt.Fprintln(w, "| category | hits | total | rate | known misses | new misses | unexpected hits | errors |")

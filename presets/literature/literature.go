@@ -1,7 +1,7 @@
 // Package literature embeds cyclopair's literature check set, cases.yaml: experimental
 // regiochemistry, reacting-site, endo/exo and electron-demand outcomes of thermal
 // cycloadditions and one measured reactivity series, each with its source and confidence.
-// fmo.LoadCheckSet reads it; `cyclopair validate` and the tests of package fmo run it. This
+// check.LoadCheckSet reads it; `cyclopair validate` and the tests of package fmo run it. This
 // file is the single copy of the check set (Go cannot embed files outside the package
 // directory, so it lives here rather than under testdata/).
 package literature

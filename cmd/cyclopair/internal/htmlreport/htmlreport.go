@@ -30,6 +30,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/draw"
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
+	"cyclopair/fmo/check"
 	"cyclopair/huckel"
 )
 
@@ -49,9 +50,9 @@ type Config struct {
 	// Figures is how many top rows get pictures (0: DefaultFigures; negative: none).
 	Figures int
 	// Validation is the literature check-set run to summarise. When nil, Close runs the
-	// bundled check set (fmo.BundledCheckSet, a few tens of milliseconds) with Options, so the
+	// bundled check set (check.BundledCheckSet, a few tens of milliseconds) with Options, so the
 	// accuracy shown is that of the parameter set and options of this report.
-	Validation *fmo.ValidationReport
+	Validation *check.ValidationReport
 	// NoValidation leaves the check set out (the section then says it was not run).
 	NoValidation bool
 	// Diagram, if set, draws the energy-level diagram (inline SVG) of the rows.
@@ -569,13 +570,13 @@ func (w *Writer) validation(b *page) {
 	b.raw("\n")
 	v := w.cfg.Validation
 	if v == nil && !w.cfg.NoValidation {
-		set, err := fmo.BundledCheckSet()
+		set, err := check.BundledCheckSet()
 		if err != nil {
 			b.el("p", `class="error"`, "The bundled literature check set could not be loaded: "+err.Error())
 			b.raw("\n</section>\n")
 			return
 		}
-		v = fmo.Validate(set, w.cfg.Options)
+		v = check.Validate(set, w.cfg.Options)
 	}
 	if v == nil {
 		b.el("p", "", "The literature check set was not run for this report ('cyclopair validate' runs it).")

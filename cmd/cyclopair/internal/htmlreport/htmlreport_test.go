@@ -12,6 +12,7 @@ import (
 
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
+	"cyclopair/fmo/check"
 	"cyclopair/presets"
 )
 
@@ -28,11 +29,11 @@ func sample(t testing.TB) []byte {
 		t.Fatal(err)
 	}
 	opts := fmo.NewOptions(p, cal, cal.Name)
-	set, err := fmo.BundledCheckSet()
+	set, err := check.BundledCheckSet()
 	if err != nil {
 		t.Fatal(err)
 	}
-	val := fmo.Validate(set, opts)
+	val := check.Validate(set, opts)
 	rep := render.Report{Title: `demo <script>alert("x")</script> & friends`, Source: "fixture.yaml",
 		Params: p.Name, Calibration: cal.Name, CalibrationDetail: cal.String(), RankBy: "gap"}
 	w := New(nil, rep, Config{Options: opts, Calibration: &cal, Validation: val})
@@ -165,7 +166,7 @@ func TestRunsCheckSet(t *testing.T) {
 	if !strings.Contains(s, "hit rate") {
 		t.Fatal("check-set table missing")
 	}
-	for _, c := range fmo.Categories() {
+	for _, c := range check.Categories() {
 		if !strings.Contains(s, "<td>"+c+"</td>") {
 			t.Errorf("category %q missing from the accuracy table", c)
 		}

@@ -1,4 +1,4 @@
-package fmo
+package check
 
 import (
 	"bytes"
