@@ -7,8 +7,6 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
-	"strings"
 	"text/tabwriter"
 	"unicode/utf8"
 
@@ -18,9 +16,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/fmo/screen"
-	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
-	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 )
 
@@ -114,226 +110,48 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 }
 
-// screenInput is a loaded screen: the library plus the rows that failed to load.
-type screenInput struct {
-	lib *substrates.Library
-	bad []error
-	dir string // directory of the substrate file, for params_file
-}
-
-// loadScreenInput reads the substrate file and list files named in o. data, if not nil, is
-// the substrate file's content (the demo passes the embedded file).
-func loadScreenInput(s *streams, o *screenOptions, data []byte) (*screenInput, error) {
-	in := &screenInput{}
-	if o.file != "" {
-		if data == nil {
-			var err error
-			data, err = screenReadInput(s, o.file, substrates.DefaultMaxFileBytes)
-			if err != nil {
-				return nil, err
-			}
-			if o.file != "-" {
-				in.dir = filepath.Dir(o.file)
-			}
-		}
-		name := o.file
-		if name == "-" {
-			name = "stdin"
-		}
-		lib, bad, err := substrates.ParseLibrary(data, screen.FileOptions(name))
-		if err != nil {
-			return nil, &inputError{err}
-		}
-		in.lib = lib
-		for _, b := range bad {
-			in.bad = append(in.bad, b)
-		}
-	} else {
-		in.lib = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(screen.RankNormalGap), Set: map[string]bool{}}
-	}
-	for _, side := range []struct {
-		file string
-		dst  *[]substrates.Substrate
-		max  int
-	}{{o.dienes, &in.lib.Dienes, 4}, {o.dienophiles, &in.lib.Dienophiles, 2}} {
-		if side.file == "" {
-			continue
-		}
-		r, closeFn, err := screenOpenInput(s, side.file)
-		if err != nil {
-			return nil, err
-		}
-		subs, bad, err := substrates.LoadList(r, side.file, side.max, substrates.DefaultMaxFileBytes)
-		closeFn()
-		if err != nil {
-			return nil, &inputError{err}
-		}
-		*side.dst = subs
-		for _, b := range bad {
-			in.bad = append(in.bad, b)
-		}
-	}
-	return in, nil
-}
-
-// screenOpenInput opens a file, or stdin for "-".
-func screenOpenInput(s *streams, name string) (io.Reader, func(), error) {
-	if name == "-" {
-		return s.in, func() {}, nil
-	}
-	f, err := os.Open(name)
-	if err != nil {
-		return nil, nil, &inputError{fmt.Errorf("%s: cannot open (%v)", name, unwrapPathError(err))}
-	}
-	return f, func() { f.Close() }, nil
-}
-
-// screenReadInput reads a whole file (or stdin) up to max bytes.
-func screenReadInput(s *streams, name string, max int64) ([]byte, error) {
-	r, closeFn, err := screenOpenInput(s, name)
-	if err != nil {
-		return nil, err
-	}
-	defer closeFn()
-	data, err := io.ReadAll(io.LimitReader(r, max+1))
-	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: cannot read (%v)", name, err)}
-	}
-	if int64(len(data)) > max {
-		return nil, &inputError{fmt.Errorf("%s: larger than %d bytes (split the screen, or use --shard)", name, max)}
-	}
-	return data, nil
-}
-
-func unwrapPathError(err error) error {
-	var pe *os.PathError
-	if errors.As(err, &pe) {
-		return pe.Err
-	}
-	return err
-}
-
-// applyFlags lets the command-line flags override the library's settings.
-func applyFlags(lib *substrates.Library, o *screenOptions) error {
+// screenRequest turns the flags into a screen request: a flag the user set overrides the
+// substrate file's setting. data, if not nil, is the substrate file's content (the demo).
+func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 	changed := o.changed
 	if changed == nil {
 		changed = func(string) bool { return false }
 	}
+	req := screen.Request{
+		File: o.file, Data: data, Dienes: o.dienes, Dienophiles: o.dienophiles, Stdin: s.in,
+		Params: o.params, Calibration: o.calibration, Amine: o.amine, Workers: o.workers, Shard: o.shard,
+		LoadParams: resolveParams,
+		LoadCalibration: func(spec string, p *huckel.Params) (huckel.Calibration, error) {
+			return resolveCalibration(s, spec, p)
+		},
+	}
 	if changed("activate") {
-		var modes []string
-		for _, m := range strings.Split(o.activate, ",") {
-			m = strings.ToLower(strings.TrimSpace(m))
-			if m == "" {
-				continue
-			}
-			if !contains(fmo.Modes(), m) {
-				return &usageError{fmt.Errorf("--activate: unknown mode %q (modes: %s)", m, strings.Join(fmo.Modes(), ", "))}
-			}
-			if !contains(modes, m) {
-				modes = append(modes, m)
-			}
-		}
-		if len(modes) == 0 {
-			return &usageError{errors.New("--activate: no mode given")}
-		}
-		lib.Activations = modes
+		req.Activate = &o.activate
 	}
 	if changed("rank-by") {
-		k, err := screen.ParseRankKey(o.rankBy)
-		if err != nil {
-			return &usageError{fmt.Errorf("--rank-by: %v", err)}
-		}
-		lib.RankBy = string(k)
+		req.RankBy = &o.rankBy
 	}
 	if changed("top") {
-		if o.top < 0 {
-			return &usageError{errors.New("--top: must be 0 (all) or positive")}
-		}
-		lib.Top = o.top
+		req.Top = &o.top
 	}
 	if changed("demand") {
-		switch o.demand {
-		case "normal", "inverse", "neutral":
-			lib.Filter.Demand = o.demand
-		case "any", "":
-			lib.Filter.Demand = ""
-		default:
-			return &usageError{fmt.Errorf("--demand %q: want normal, inverse, neutral or any", o.demand)}
-		}
+		req.Demand = &o.demand
 	}
 	if changed("min-regio-margin") {
-		if o.minRegioMargin < 0 {
-			return &usageError{errors.New("--min-regio-margin: must be ≥ 0")}
-		}
-		lib.Filter.MinRegioMargin = o.minRegioMargin
+		req.MinRegioMargin = &o.minRegioMargin
 	}
 	if changed("max-gap") {
-		if o.maxGap < 0 {
-			return &usageError{errors.New("--max-gap: must be ≥ 0 (0: no limit)")}
-		}
-		lib.Filter.MaxGap = o.maxGap
+		req.MaxGap = &o.maxGap
 	}
 	if changed("allowed-only") {
-		lib.Filter.AllowedOnly = o.allowedOnly
+		req.AllowedOnly = &o.allowedOnly
 	}
-	return nil
+	return req
 }
 
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
-}
-
-// screenParams picks the parameter set: --params, else the file's params_file (relative to
-// the file), else its params, else the default.
-func screenParams(in *screenInput, o *screenOptions) (*huckel.Params, error) {
-	switch {
-	case o.params != "":
-		return resolveParams(o.params)
-	case in.lib.ParamsFile != "":
-		path := in.lib.ParamsFile
-		if !filepath.IsAbs(path) && in.dir != "" {
-			path = filepath.Join(in.dir, path)
-		}
-		p, err := resolveParams(path)
-		if err != nil {
-			return nil, &inputError{fmt.Errorf("%s: params_file: %v", in.lib.Where("params_file"), err)}
-		}
-		return p, nil
-	case in.lib.Params != "":
-		p, err := resolveParams(in.lib.Params)
-		if err != nil {
-			return nil, &inputError{fmt.Errorf("%s: params: %v", in.lib.Where("params"), err)}
-		}
-		return p, nil
-	}
-	return resolveParams("")
-}
-
-// screenCalibration returns the calibration to use: --calibration, else the file's
-// calibration: key (a calibration file path is taken relative to the substrate file), else
-// the built-in calibration fitted for the parameter set ("default").
-func screenCalibration(s *streams, in *screenInput, o *screenOptions, p *huckel.Params) (huckel.Calibration, error) {
-	if o.calibration != "" {
-		return resolveCalibration(s, o.calibration, p)
-	}
-	spec := in.lib.Calibration
-	if spec != "" && spec != "default" && !filepath.IsAbs(spec) && in.dir != "" {
-		spec = filepath.Join(in.dir, spec)
-	}
-	cal, err := resolveCalibration(s, spec, p)
-	if err != nil && in.lib.Calibration != "" {
-		return cal, &inputError{fmt.Errorf("%s: calibration: %v", in.lib.Where("calibration"), err)}
-	}
-	return cal, err
-}
-
-// runScreen is the whole screen command: load, prepare, screen, render, report failures.
-// data, if not nil, replaces reading o.file (used by the demo).
+// runScreen is the whole screen command: resolve the flags and files into one
+// screen.Config, prepare, screen, render, report failures. data, if not nil, replaces
+// reading o.file (used by the demo).
 func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) error {
 	if ctx == nil {
 		ctx = context.Background()
@@ -346,71 +164,44 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		}
 		format = string(f)
 	}
-	var shard screen.Shard
-	if o.shard != "" {
-		sh, err := screen.ParseShard(o.shard)
-		if err != nil {
-			return &usageError{fmt.Errorf("--shard: %v", err)}
-		}
-		shard = sh
-	}
-	if o.workers < 0 {
-		return &usageError{errors.New("--workers: must be 0 (all cores) or positive")}
-	}
-	in, err := loadScreenInput(s, o, data)
-	if err != nil {
-		return err
-	}
-	lib := in.lib
-	if err := applyFlags(lib, o); err != nil {
-		return err
-	}
-	params, err := screenParams(in, o)
-	if err != nil {
-		return err
-	}
-	cal, err := screenCalibration(s, in, o, params)
-	if err != nil {
-		return err
-	}
-	opts := fmo.NewOptions(params, cal, cal.Name)
-
-	var act *fmo.ActivateOptions
+	cfg, err := screen.Resolve(screenRequest(s, o, data))
+	var ue *screen.UsageError
+	var ae *screen.AmineError
 	switch {
-	case o.amine != "":
-		am, err := smiles.Parse(o.amine)
-		if err != nil {
-			return smilesErr(o.amine, err)
-		}
-		act = &fmo.ActivateOptions{Amine: am}
-	case lib.AmineMol != nil:
-		act = &fmo.ActivateOptions{Amine: lib.AmineMol}
+	case errors.As(err, &ue):
+		return &usageError{ue.Err}
+	case errors.As(err, &ae):
+		return smilesErr(ae.SMILES, ae.Err)
+	case err != nil:
+		return &inputError{err}
 	}
-	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(lib.Activations))))
-	prep, err := screen.Prepare(ctx, lib, opts, screen.PrepareOptions{Workers: o.workers, Activate: act, Progress: prepProg.Add})
+	lib := cfg.Library
+	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
+	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
 		return fmt.Errorf("interrupted while preparing molecules: %w", err)
 	}
-	failures := append([]error(nil), in.bad...)
+	failures := append([]error(nil), cfg.Bad...)
 	for _, f := range prep.Failures {
 		failures = append(failures, f)
 	}
 	if len(prep.Dienes) == 0 || len(prep.Dienophiles) == 0 {
 		printFailures(s, failures)
 		return &inputError{fmt.Errorf("%s: nothing to screen: %d usable dienes, %d usable dienophiles (the failed rows are listed above)",
-			sourceName(o), len(prep.Dienes), len(prep.Dienophiles))}
+			cfg.Source, len(prep.Dienes), len(prep.Dienophiles))}
 	}
 
+	cal := cfg.Calibration
 	rep := render.Report{
 		Title:             lib.Title,
-		Source:            sourceName(o),
-		Params:            params.Name,
+		Source:            cfg.Source,
+		Params:            cfg.Params.Name,
 		Calibration:       cal.Name,
 		CalibrationDetail: cal.Detail(),
-		RankBy:            string(lib.RankBy),
-		Filters:           lib.Filter.Describe(),
-		Shard:             shard.String(),
+		RankBy:            string(cfg.RankBy),
+		Filters:           cfg.Filter.Describe(),
+		Shard:             cfg.Shard.String(),
 	}
 	lay := render.Layout{}
 	for _, r := range prep.DieneRows {
@@ -424,7 +215,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	var w render.Writer
 	if format == "html" {
-		w = htmlreport.New(s.out, rep, htmlreport.Config{Options: opts, Calibration: &cal, Kind: "screen",
+		w = htmlreport.New(s.out, rep, htmlreport.Config{Options: cfg.Options, Calibration: &cal, Kind: "screen",
 			Diagram: func(rows []render.Row) ([]byte, error) { return screenDiagram(prep, rows, cal) }})
 	} else {
 		w, err = render.New(render.Format(format), s.out, rep, lay)
@@ -434,22 +225,21 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 
 	space := prep.Space()
-	lo, hi := shard.Range(space.Len())
-	if lib.Top == 0 && hi-lo > 100_000 {
+	lo, hi := cfg.Shard.Range(space.Len())
+	if cfg.Top == 0 && hi-lo > 100_000 {
 		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
 	}
 	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
-	st, runErr := prep.Screen(ctx, screen.ScreenOptions{
-		Workers: o.workers, RankBy: screen.RankKey(lib.RankBy), Top: lib.Top, Filter: lib.Filter, Shard: shard,
-		Progress: prog.Add,
-		Selected: func(n int64) {
-			prog.Stop()
-			prog = nil
-			rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
-		},
-	}, func(r screen.ScreenRow) error {
+	so := cfg.ScreenOptions()
+	so.Progress = prog.Add
+	so.Selected = func(n int64) {
+		prog.Stop()
+		prog = nil
+		rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
+	}
+	st, runErr := prep.Screen(ctx, so, func(r screen.ScreenRow) error {
 		rowProg.Add(1)
 		return w.WriteRow(render.Row{Rank: int(r.Rank), Number: r.Index + 1, Pair: r.Pair})
 	}, func(f screen.ScreenFailure) {
@@ -475,28 +265,27 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		fmt.Fprintf(s.err, "cyclopair: note: %d dienophile × activation combinations skipped: the mode has nothing to act on\n", prep.NotApplicable)
 	}
 	if len(failures) > 0 {
-		total := len(lib.Dienes) + len(lib.Dienophiles) + len(in.bad) + int(st.Scored)
+		total := len(lib.Dienes) + len(lib.Dienophiles) + len(cfg.Bad) + int(st.Scored)
 		return &partialError{failed: len(failures), total: total}
 	}
 	return nil
 }
 
-func sourceName(o *screenOptions) string {
-	var parts []string
-	if o.file != "" {
-		if o.file == "-" {
-			parts = append(parts, "stdin")
-		} else {
-			parts = append(parts, o.file)
+func unwrapPathError(err error) error {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
 		}
 	}
-	if o.dienes != "" {
-		parts = append(parts, "dienes from "+o.dienes)
-	}
-	if o.dienophiles != "" {
-		parts = append(parts, "dienophiles from "+o.dienophiles)
-	}
-	return strings.Join(parts, ", ")
+	return false
 }
 
 // printFailures lists failed inputs on stderr, one line each, in input order.
