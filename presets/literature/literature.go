@@ -1,9 +1,9 @@
 // Package literature embeds cyclopair's literature check set, cases.yaml: experimental
 // regiochemistry, reacting-site, endo/exo and electron-demand outcomes of thermal
 // cycloadditions and one measured reactivity series, each with its source and confidence.
-// check.LoadCheckSet reads it; `cyclopair validate` and the tests of package fmo run it. This
-// file is the single copy of the check set (Go cannot embed files outside the package
-// directory, so it lives here rather than under testdata/).
+// check.LoadCheckSet (package fmo/check) reads it; `cyclopair validate` and the tests of
+// package fmo/check run it. This file is the single copy of the check set (Go cannot embed
+// files outside the package directory, so it lives here rather than under testdata/).
 package literature
 
 import _ "embed"
