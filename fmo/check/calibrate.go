@@ -80,16 +80,18 @@ type CalibrationRow struct {
 var calibrationRowKeys = []string{"id", "kind", "molecule", "name", "value_eV", "uncertainty_eV",
 	"quantity", "source", "confidence", "note", "use", "why_not"}
 
-// maxCalibrationFile caps a calibration data or calibration file.
-const maxCalibrationFile = 4 << 20
+// maxFileSize caps a check-set, calibration data or calibration file.
+const maxFileSize = 4 << 20
 
-func readCalibrationCapped(r io.Reader, filename string) ([]byte, error) {
-	data, tooLarge, err := yamlfile.ReadLimited(r, maxCalibrationFile)
+// readCapped reads a file of this package, at most maxFileSize bytes; errors wrap sentinel,
+// and readHint is the hint of a read error.
+func readCapped(r io.Reader, filename string, sentinel error, readHint string) ([]byte, error) {
+	data, tooLarge, err := yamlfile.ReadLimited(r, maxFileSize)
 	if err != nil {
-		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Hint: "check the file", Err: ErrCalibrationData}
+		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Hint: readHint, Err: sentinel}
 	}
 	if tooLarge {
-		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCalibrationFile), Err: ErrCalibrationData}
+		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxFileSize), Err: sentinel}
 	}
 	return data, nil
 }
@@ -126,7 +128,7 @@ func rejectAliasRows(n *yaml.Node, file string) error {
 // non-numeric value_eV, an unknown kind, a missing molecule — are returned as bad (in file
 // order) and those entries are left out of rows; SMILES are checked by FitCalibrationData.
 func LoadCalibrationData(r io.Reader, filename string) (rows []CalibrationRow, bad yamlfile.ErrorList, err error) {
-	data, err := readCalibrationCapped(r, filename)
+	data, err := readCapped(r, filename, ErrCalibrationData, "check the file")
 	if err != nil {
 		return nil, nil, err
 	}
@@ -400,7 +402,7 @@ type LoadedCalibration struct {
 // non-finite intercepts and slopes and non-negative slopes (x > 0 is bonding, so orbital
 // energies must fall as x grows) are *yamlfile.Error values (wrapping ErrCalibrationData) with file:line:column.
 func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, error) {
-	data, err := readCalibrationCapped(r, filename)
+	data, err := readCapped(r, filename, ErrCalibrationData, "check the file")
 	if err != nil {
 		return nil, err
 	}

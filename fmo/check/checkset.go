@@ -115,9 +115,6 @@ type CheckSet struct {
 	Series []Series `yaml:"series"`
 }
 
-// maxCheckSetSize caps a check-set file.
-const maxCheckSetSize = 4 << 20
-
 // BundledCheckSet loads the check set shipped with cyclopair (presets/literature/cases.yaml).
 func BundledCheckSet() (*CheckSet, error) {
 	return LoadCheckSet(bytes.NewReader(literature.CasesYAML), literature.CasesName)
@@ -128,12 +125,9 @@ func BundledCheckSet() (*CheckSet, error) {
 // outcome words, unparsable SMILES and atom maps that do not occur exactly once in their
 // SMILES are errors of type *yamlfile.Error (wrapping ErrCheckSet) with file:line:column.
 func LoadCheckSet(r io.Reader, filename string) (*CheckSet, error) {
-	data, err := io.ReadAll(io.LimitReader(r, maxCheckSetSize+1))
+	data, err := readCapped(r, filename, ErrCheckSet, "")
 	if err != nil {
-		return nil, &yamlfile.Error{File: filename, Msg: err.Error(), Err: ErrCheckSet}
-	}
-	if len(data) > maxCheckSetSize {
-		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file larger than %d bytes", maxCheckSetSize), Err: ErrCheckSet}
+		return nil, err
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(data, &root); err != nil {

@@ -18,15 +18,11 @@ import (
 // screenOpts builds analysis options with the default parameter set and calibration.
 func screenOpts(t testing.TB) *fmo.Options {
 	t.Helper()
-	p, err := presets.Params(presets.DefaultParams)
+	o, err := fmo.DefaultOptions()
 	if err != nil {
 		t.Fatal(err)
 	}
-	cal, err := presets.Calibration(p)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return fmo.NewOptions(p, cal, cal.Name)
+	return o
 }
 
 func demoPrepared(t testing.TB) *Prepared {
