@@ -4,6 +4,9 @@
 // preferred and by what margin, the secondary-orbital (endo) term, whether the supra–supra
 // thermal pairing is symmetry-allowed, how activation of the dienophile changes the picture, and
 // whether side channels compete. It knows nothing of terminals or output formats.
+// Around it: fmo/substrates reads substrate files and lists, fmo/screen screens whole
+// libraries with QuickScore and Analyze, fmo/check runs the literature check set and fits
+// calibrations; none of them is imported here.
 //
 // # Pair analysis
 //
