@@ -603,3 +603,30 @@ func TestDipoleHOMO(t *testing.T) {
 		}
 	}
 }
+
+// TestSolveAtAllocs: once warm, a solve at given coordinates (Hückel start, SCF loop,
+// final diagonalisation) allocates nothing when the Solver and Orbitals are reused.
+func TestSolveAtAllocs(t *testing.T) {
+	hp, pp := params(t)
+	m, _ := smiles.Parse("C=CC(=O)c1ccccc1")
+	ps, err := huckel.Perceive(m, hp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	xy, err := ppp.Geometry(ps, pp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := ppp.NewSolver(pp)
+	var o huckel.Orbitals
+	if err := s.SolveAt(ps, xy, &o); err != nil {
+		t.Fatal(err)
+	}
+	if a := testing.AllocsPerRun(20, func() {
+		if err := s.SolveAt(ps, xy, &o); err != nil {
+			t.Fatal(err)
+		}
+	}); a != 0 {
+		t.Errorf("%.0f allocations per warm solve", a)
+	}
+}
