@@ -367,6 +367,7 @@ func (s *Solver) checkElectrons(ps *PiSystem) error {
 func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 	n := len(ps.Centres)
 	into.Pi = ps
+	into.Method, into.EVDirect, into.AlphaEV, into.BetaEV = MethodHuckel, false, 0, 0
 	into.coef = growF(into.coef, n*n)
 	clear(into.coef)
 	if cap(into.Levels) < n {

@@ -152,6 +152,10 @@ type Level struct {
 	Coeffs     []float64 // one coefficient per π centre (zero outside the level's fragment)
 	Fragment   int       // the separate π system this level belongs to
 	Degenerate int       // number of levels in its degenerate set (1 when not degenerate)
+	// EV is the orbital energy in eV when the method gives it directly (Orbitals.EVDirect,
+	// e.g. PPP-SCF: Koopmans' theorem, E_HOMO ≈ −IE); 0 for Hückel levels, whose eV come
+	// from a Calibration (use Orbitals.LevelEV to get either).
+	EV float64
 }
 
 // Orbitals is the solved π system.
@@ -172,8 +176,19 @@ type Orbitals struct {
 	// H holds the Coulomb parameters actually used, one per centre: the perceived h, or
 	// the self-consistent values when the ω-technique is on.
 	H []float64
-	// Iterations is the number of ω-technique cycles (0 when ω is off).
+	// Iterations is the number of ω-technique cycles (0 when ω is off), or of SCF cycles
+	// for a self-consistent method.
 	Iterations int
+
+	// Method names the π method that produced these orbitals: MethodHuckel or MethodPPP.
+	Method string
+	// EVDirect is true when Levels[*].EV hold orbital energies in eV computed by the method
+	// itself (PPP-SCF), false when eV must come from a Calibration of X (Hückel).
+	EVDirect bool
+	// AlphaEV and BetaEV (eV) define the x scale of a method that works in eV: its levels
+	// carry X = (EV − AlphaEV)/BetaEV, so gaps in |β| and the sorting by X mean the same as
+	// for Hückel levels. Both are 0 for Hückel orbitals (x is the native unit there).
+	AlphaEV, BetaEV float64
 
 	coef []float64 // backing store of Levels[*].Coeffs, reused by Solver
 }
