@@ -64,7 +64,7 @@
 // A centre type without PPP parameters (wrapping huckel.ErrNoParameter), too many
 // electrons (huckel.ErrElectrons), a failed layout (ErrGeometry), no convergence within
 // MaxIter cycles (ErrNoConvergence) — each error names the molecule (its SMILES or name).
-// A parameter file with bad content gives a *huckel.ParamsError with file:line:column.
+// A parameter file with bad content gives a *yamlfile.Error (wrapping huckel.ErrParams) with file:line:column.
 // Programmer misuse (coordinates that do not match the centres) panics.
 //
 // Results are estimates for planning, not safety assessments.

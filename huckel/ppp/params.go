@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/yamlfile"
 
 	"go.yaml.in/yaml/v3"
 )
@@ -194,18 +195,18 @@ const maxParamsSize = 1 << 20
 // A complete set needs gamma, beta and geometry; a user file with base: NAME (or none,
 // meaning the default set) may give only the entries it overrides (see Merge). Decoding
 // is strict: unknown keys and centre types, duplicates, missing values and sources, and
-// values outside physical ranges are *huckel.ParamsError values (wrapping
+// values outside physical ranges are *yamlfile.Error values (wrapping
 // huckel.ErrParams) with file:line:column. filename is used only in messages.
 func Parse(data []byte, filename string) (*Params, error) {
 	if len(data) > maxParamsSize {
-		return nil, &huckel.ParamsError{File: filename, Msg: fmt.Sprintf("file is larger than %d bytes", maxParamsSize)}
+		return nil, &yamlfile.Error{Err: huckel.ErrParams, File: filename, Msg: fmt.Sprintf("file is larger than %d bytes", maxParamsSize)}
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(data, &root); err != nil {
-		return nil, &huckel.ParamsError{File: filename, Msg: "not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}
+		return nil, &yamlfile.Error{Err: huckel.ErrParams, File: filename, Msg: "not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}
 	}
 	if len(root.Content) == 0 {
-		return nil, &huckel.ParamsError{File: filename, Msg: "empty file (expected a mapping with keys name, gamma, beta, geometry, centres)"}
+		return nil, &yamlfile.Error{Err: huckel.ErrParams, File: filename, Msg: "empty file (expected a mapping with keys name, gamma, beta, geometry, centres)"}
 	}
 	if err := noAliases(&root, filename); err != nil {
 		return nil, err
@@ -231,7 +232,7 @@ func Parse(data []byte, filename string) (*Params, error) {
 				"ppp.fileGeometry", "geometry (keys: bond_length, source)",
 				"*float64", "a number", "float64", "a number").Replace(msg)
 		}
-		return nil, &huckel.ParamsError{File: filename, Line: line, Col: 1, Msg: msg}
+		return nil, &yamlfile.Error{Err: huckel.ErrParams, File: filename, Line: line, Col: 1, Msg: msg}
 	}
 	top := root.Content[0]
 	p := &Params{Name: fp.Name, Title: fp.Title, Source: fp.Source, Notes: fp.Notes,
@@ -292,7 +293,7 @@ func Parse(data []byte, filename string) (*Params, error) {
 		p.Centres = append(p.Centres, Centre{Type: t, IP: *e.IP, Gamma: *e.Gamma, Z: *e.Z, Source: e.Source, Line: n.Line})
 	}
 	if p.Name == "" && len(p.Centres) == 0 && fp.Beta == nil && fp.Geometry == nil && p.Gamma == "" {
-		return nil, &huckel.ParamsError{File: filename, Msg: "no parameters found (expected keys gamma, beta, geometry, centres)"}
+		return nil, &yamlfile.Error{Err: huckel.ErrParams, File: filename, Msg: "no parameters found (expected keys gamma, beta, geometry, centres)"}
 	}
 	if p.Replace || (p.Base == "" && p.Name != "" && fp.Beta != nil) {
 		if err := p.complete(filename); err != nil {
@@ -319,7 +320,7 @@ func (p *Params) complete(filename string) error {
 		miss = append(miss, "a centres entry for type C")
 	}
 	if len(miss) > 0 {
-		return &huckel.ParamsError{File: filename, Msg: "incomplete parameter set: missing " + strings.Join(miss, ", ") + " (or write base: NAME to override a built-in set)"}
+		return &yamlfile.Error{Err: huckel.ErrParams, File: filename, Msg: "incomplete parameter set: missing " + strings.Join(miss, ", ") + " (or write base: NAME to override a built-in set)"}
 	}
 	return nil
 }
@@ -380,22 +381,13 @@ func (p *Params) WithCentre(e Centre) *Params {
 	return p.Merge(&Params{Centres: []Centre{e}})
 }
 
-func at(file string, n *yaml.Node, format string, args ...any) *huckel.ParamsError {
-	e := &huckel.ParamsError{File: file, Msg: fmt.Sprintf(format, args...)}
-	if n != nil {
-		e.Line, e.Col = n.Line, n.Column
-	}
-	return e
+func at(file string, n *yaml.Node, format string, args ...any) *yamlfile.Error {
+	return yamlfile.At(file, n, fmt.Sprintf(format, args...), huckel.ErrParams)
 }
 
 func noAliases(n *yaml.Node, file string) error {
-	if n.Kind == yaml.AliasNode {
-		return at(file, n, "YAML aliases are not allowed in parameter files (write the value out)")
-	}
-	for _, c := range n.Content {
-		if err := noAliases(c, file); err != nil {
-			return err
-		}
+	if a := yamlfile.FirstAlias(n); a != nil {
+		return at(file, a, "YAML aliases are not allowed in parameter files (write the value out)")
 	}
 	return nil
 }
