@@ -49,9 +49,10 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    string // canonical SMILES, to tell identical adducts apart from different ones
+		product    int // index into keys, to tell identical adducts apart from different ones
 	}
 	var cands []cand
+	var keys productKeys
 	for di, du := range diene.Units {
 		dd := &diene.data[di]
 		if !dd.ok {
@@ -75,7 +76,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 				if s.firstOrder {
 					method = "first-order"
 				}
-				c := cand{s: s, di: di, ei: ei, or: or, product: productKey(pm)}
+				c := cand{s: s, di: di, ei: ei, or: or, product: len(keys.mols)}
+				keys.add(pm)
 				c.o = Orientation{
 					Site:            siteName(diene, du, dienophile, eAtoms),
 					DieneAtoms:      dAtoms,
@@ -153,14 +155,15 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			break
 		}
 	}
-	var regioPartner string
+	regioPartner := -1
 	for _, c := range cands {
 		if c.di == best.di && c.ei == best.ei && c.or != best.or {
 			regioPartner = c.product
 		}
 	}
 	for _, c := range cands[1:] {
-		if (c.di != best.di || c.ei != best.ei) && c.product != best.product && c.product != regioPartner {
+		if (c.di != best.di || c.ei != best.ei) && !keys.same(c.product, best.product) &&
+			(regioPartner < 0 || !keys.same(c.product, regioPartner)) {
 			pair.SiteMargin = best.s.score - c.s.score
 			break
 		}
@@ -177,7 +180,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	default:
 		pair.RegioConfidence = "no preference"
 	}
-	if best.product == regioPartner {
+	if regioPartner >= 0 && keys.same(best.product, regioPartner) {
 		pair.RegioConfidence = "no preference" // both orientations give the same adduct
 	}
 

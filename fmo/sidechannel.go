@@ -74,9 +74,40 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 // partner alone (its self-dimerisation), so a screen that analyses one diene with many
 // dienophiles solves that side reaction once per diene instead of once per row. It is safe for
 // concurrent use; the zero value is ready. Results are the same with or without it.
+//
+// It also keeps the second-adduct check of recent rows, keyed by the 4π partner and the
+// adduct's SMILES: the activated variants of one dienophile give the same adduct (products
+// are built from the unactivated molecules), so a screen over several activations checks
+// each adduct once. That part holds at most sideAdductCap entries (it is emptied when full),
+// so memory does not grow with the number of rows.
 type SideChannelCache struct {
-	mu sync.Mutex
-	m  map[*Partner]*sideOnce
+	mu      sync.Mutex
+	m       map[*Partner]*sideOnce
+	adducts map[adductKey]*sideOnce
+}
+
+type adductKey struct {
+	diene   *Partner
+	product string
+}
+
+// sideAdductCap bounds the adduct part of SideChannelCache.
+const sideAdductCap = 4096
+
+func (c *SideChannelCache) adduct(diene *Partner, prodSMILES string, f func() sideResult) sideResult {
+	k := adductKey{diene, prodSMILES}
+	c.mu.Lock()
+	if c.adducts == nil || len(c.adducts) >= sideAdductCap {
+		c.adducts = make(map[adductKey]*sideOnce)
+	}
+	e := c.adducts[k]
+	if e == nil {
+		e = &sideOnce{}
+		c.adducts[k] = e
+	}
+	c.mu.Unlock()
+	e.once.Do(func() { e.r = f() })
+	return e.r
 }
 
 type sideOnce struct {
@@ -113,6 +144,7 @@ type sideResult struct {
 	gap        Energy
 	site       string
 	score      float64
+	parseErr   error // the adduct SMILES did not parse back (product_as_dienophile only)
 }
 
 // analyseSide prepares m as a 2π partner and analyses it with diene.
@@ -191,26 +223,73 @@ func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cac
 
 	// The adduct's remaining π bonds with the 4π partner.
 	prodSMILES := pair.Orientations[0].Product
-	if pm, err := smiles.Parse(prodSMILES); err == nil {
+	check := func() sideResult {
+		pm, err := smiles.Parse(prodSMILES)
+		if err != nil {
+			return sideResult{kind: SideProductDienophile, parseErr: err}
+		}
 		pm.Name = "adduct " + prodSMILES
-		add(analyseSide(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, diene, pm, opts))
+		return analyseSide(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, diene, pm, opts)
+	}
+	var r sideResult
+	if cache != nil {
+		r = cache.adduct(diene, prodSMILES, check)
 	} else {
-		out = append(out, SideChannel{Kind: SideProductDienophile, Note: "adduct " + prodSMILES + ": not checked: " + err.Error()})
+		r = check()
+	}
+	if r.parseErr != nil {
+		out = append(out, SideChannel{Kind: SideProductDienophile, Note: "adduct " + prodSMILES + ": not checked: " + r.parseErr.Error()})
+	} else {
+		add(r)
 	}
 	return out
 }
 
 // preferredGap analyses diene (4π) with side (2π) and returns the controlling gap at the
-// preferred orientation, its site description and its ranking score.
+// preferred orientation, its site description and its ranking score: exactly what Analyze
+// would report as controllingGap(p), p.Orientations[0].Site and .Score (same kernel, same
+// enumeration order, the first strictly better orientation wins ties as Analyze's stable sort
+// does), without building the candidate adducts and their canonical SMILES, which only
+// Analyze's margins need and which made up most of a screened row's cost.
 func preferredGap(diene, side *Partner, opts *Options) (Energy, string, float64, error) {
-	p, err := Analyze(diene, side, opts)
-	if err != nil {
-		return Energy{}, "", 0, err
+	opts.check()
+	k := opts.kernel()
+	bd, be, bo := -1, -1, 0
+	var best orientScore
+	for di := range diene.Units {
+		dd := &diene.data[di]
+		if !dd.ok {
+			continue
+		}
+		for ei := range side.Units {
+			ed := &side.data[ei]
+			if !ed.ok {
+				continue
+			}
+			s0, s1 := k.scorePair(&dd.fast, &ed.fast)
+			if bd < 0 || s0.score > best.score {
+				best, bd, be, bo = s0, di, ei, 0
+			}
+			if s1.score > best.score {
+				best, bd, be, bo = s1, di, ei, 1
+			}
+		}
 	}
-	if len(p.Orientations) == 0 {
-		return Energy{}, "", 0, ErrNoUnit
+	if bd < 0 {
+		return Energy{}, "", 0, fmt.Errorf("%s + %s: %w: no pair of reacting units has both frontier levels",
+			diene.Name, side.Name, ErrNoUnit)
 	}
-	return controllingGap(p), p.Orientations[0].Site, p.Orientations[0].Score, nil
+	dd, ed := &diene.data[bd], &side.data[be]
+	g := Energy{Beta: best.gapN, EV: opts.ev(ed.lumo.X, false) - opts.ev(dd.homo.X, true)}
+	if best.gapI < best.gapN {
+		g = Energy{Beta: best.gapI, EV: opts.ev(dd.lumo.X, false) - opts.ev(ed.homo.X, true)}
+	}
+	eu := side.Units[be]
+	x, y := eu.Atoms[0], eu.Atoms[1]
+	if bo == 1 {
+		x, y = y, x
+	}
+	return g, siteName(diene, diene.Units[bd], side, []int{x, y}), best.score, nil
 }
 
 // AttachSideChannels stores channels in the pair and adds a warning for each competing one.

@@ -236,3 +236,33 @@ func TestQuickAgreesWithAnalyzeSynthetic(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkAnalyzeRows measures the full analysis of printed rows (AnalyzeAt: pair analysis,
+// activation effect, side channels) over every pair of a 30 × 30 × 3 synthetic library, one
+// goroutine: the per-row cost of `screen --top 0`.
+func BenchmarkAnalyzeRows(b *testing.B) {
+	lib := testsupport.SyntheticLibrary(30, 30, 5)
+	lib.Activations = []string{fmo.ActivateNone, fmo.ActivateLewis, fmo.ActivateIminium}
+	p, err := Prepare(context.Background(), lib, screenOpts(b), PrepareOptions{Workers: 1})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	rows := 0
+	for b.Loop() {
+		for d := range p.Dienes {
+			for e := range p.Dienophiles {
+				for a := range p.Activations {
+					if p.Variants[e][a] == nil {
+						continue
+					}
+					if _, err := p.AnalyzeAt(d, e, a); err != nil {
+						b.Fatal(err)
+					}
+					rows++
+				}
+			}
+		}
+	}
+	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
+}

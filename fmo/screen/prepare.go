@@ -214,11 +214,7 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
 		return nil, err
 	}
 	if mode := p.Activations[a]; mode != fmo.ActivateNone {
-		free, err := fmo.Analyze(diene, p.Dienophiles[e], p.Opts)
-		if err != nil {
-			free = nil
-		}
-		pair.Activated = fmo.Effect(p.Dienophiles[e], v, mode, free, pair, p.Opts)
+		pair.Activated = fmo.Effect(p.Dienophiles[e], v, mode, p.freePair(diene, p.Dienophiles[e]), pair, p.Opts)
 		for _, w := range fmo.DieneCautions(diene.Mol, mode) {
 			if !slices.Contains(pair.Warnings, w) {
 				pair.Warnings = append(pair.Warnings, w)
@@ -229,4 +225,18 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
 	pair.DieneName = p.DieneRows[d].Name
 	pair.DienophileName = p.DphRows[e].Name
 	return pair, nil
+}
+
+// freePair stands for the analysis of the diene with the free dienophile that Effect compares
+// an activated pair against. Effect reads only the preferred orientation's secondary-orbital
+// term from it, and QuickScore gives that orientation and term exactly as Analyze does (same
+// kernel, enumeration order and tie-breaking), so the row does not pay for a second full
+// analysis with all its adducts (TestAnalyzeAtActivatedMatchesFullFree checks the rows).
+// nil where Analyze would fail (no pair of units with both frontier levels).
+func (p *Prepared) freePair(diene, free *fmo.Partner) *fmo.Pair {
+	q := p.quick.Score(diene, free)
+	if !q.OK {
+		return nil
+	}
+	return &fmo.Pair{Orientations: []fmo.Orientation{{EndoOverlap: q.Endo}}}
 }

@@ -1,0 +1,84 @@
+package fmo
+
+import (
+	"testing"
+
+	"cyclopair/fmo/internal/testsupport"
+)
+
+// The invariant pre-check never changes an answer of the canonical-SMILES comparison: for
+// every candidate adduct pair of a set of real and synthetic partners (symmetric ones such as
+// butadiene, cyclopentadiene, maleic anhydride and p-benzoquinone included, where
+// orientations give the same adduct), same(i, j) equals canonical(i) == canonical(j).
+func TestProductKeysAgreeWithCanonical(t *testing.T) {
+	o := testOptions(t)
+	dienes := []string{"C=CC=C", "C1=CCC=C1", "CC(=C)C=C", "COC=CC=C", "c1ccoc1", "C=CC(=C)C=C"}
+	dphs := []string{"C=CC=O", "O=C1OC(=O)C=C1", "O=C1C=CC(=O)C=C1", "C=C", "N#CC=CC#N", "C=CC(=O)C=C"}
+	lib := testsupport.SyntheticLibrary(3, 3, 21)
+	for _, s := range lib.Dienes {
+		dienes = append(dienes, s.SMILES)
+	}
+	for _, s := range lib.Dienophiles {
+		dphs = append(dphs, s.SMILES)
+	}
+	pairs, equal := 0, 0
+	for _, ds := range dienes {
+		d := mustPartner(t, ds, RoleDiene, o)
+		for _, es := range dphs {
+			e := mustPartner(t, es, RoleDienophile, o)
+			var keys productKeys
+			for di := range d.Units {
+				for ei := range e.Units {
+					for or := range 2 {
+						pm, _ := buildProduct(d, e, di, ei, or)
+						keys.add(pm)
+					}
+				}
+			}
+			canon := make([]string, len(keys.mols))
+			for i, m := range keys.mols {
+				canon[i] = productKey(m)
+			}
+			for i := range keys.mols {
+				for j := range keys.mols {
+					want := canon[i] == canon[j]
+					if got := keys.same(i, j); got != want {
+						t.Errorf("%s + %s: adducts %d, %d: same = %v, canonical SMILES say %v", ds, es, i, j, got, want)
+					}
+					pairs++
+					if want && i != j {
+						equal++
+					}
+				}
+			}
+		}
+	}
+	if equal == 0 || pairs < 500 {
+		t.Errorf("%d comparisons, %d of different candidates equal: the test does not exercise both answers", pairs, equal)
+	}
+}
+
+// preferredGap (the side-channel shortcut) reports what Analyze reports for the preferred
+// orientation: controlling gap in |β| and eV, site and score.
+func TestPreferredGapMatchesAnalyze(t *testing.T) {
+	o := testOptions(t)
+	lib := testsupport.SyntheticLibrary(10, 10, 23)
+	for _, ds := range lib.Dienes {
+		d := mustPartner(t, ds.SMILES, RoleDiene, o)
+		for _, es := range lib.Dienophiles {
+			e := mustPartner(t, es.SMILES, RoleDienophile, o)
+			p, err := Analyze(d, e, o)
+			g, site, score, err2 := preferredGap(d, e, o)
+			if (err == nil) != (err2 == nil) {
+				t.Fatalf("%s + %s: errors %v / %v", ds.SMILES, es.SMILES, err, err2)
+			}
+			if err != nil {
+				continue
+			}
+			if g != controllingGap(p) || site != p.Orientations[0].Site || score != p.Orientations[0].Score {
+				t.Errorf("%s + %s: got %v %q %v, Analyze %v %q %v", ds.SMILES, es.SMILES, g, site, score,
+					controllingGap(p), p.Orientations[0].Site, p.Orientations[0].Score)
+			}
+		}
+	}
+}
