@@ -38,6 +38,7 @@ type screenOptions struct {
 	format         string
 	workers        int
 	shard          string
+	exhaustive     bool
 	// changed records which flags the user set (they override the substrate file).
 	changed func(name string) bool
 }
@@ -108,6 +109,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
+	f.BoolVar(&o.exhaustive, "exhaustive", false, "score every pair even with --top (the plain path, for checking: the rows are the same)")
 }
 
 // screenRequest turns the flags into a screen request: a flag the user set overrides the
@@ -233,6 +235,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
 	so := cfg.ScreenOptions()
+	so.Exhaustive = o.exhaustive
 	so.Progress = prog.Add
 	so.Selected = func(n int64) {
 		prog.Stop()

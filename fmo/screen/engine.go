@@ -125,6 +125,10 @@ type engineConfig struct {
 	// Selected, if not nil, is called (from the calling goroutine) when a ranked run has
 	// scored every pair, with the number of rows that will get the full analysis.
 	Selected func(n int64)
+	// Select, if not nil, replaces phase 1 of a ranked run (scoring every pair): it returns
+	// the records of the selected rows (any order; the engine sorts and cuts them to Top)
+	// and the counts. The bounded top-K search (bounded.go) plugs in here.
+	Select func(ctx context.Context, workers int) ([]scored, engineStats, error)
 }
 
 // engineStats counts what a run did.
@@ -134,6 +138,7 @@ type engineStats struct {
 	Passed   int64 // scored pairs that passed the filters
 	Emitted  int64 // rows handed to emit
 	Failed   int64 // pairs whose full analysis failed
+	Kernel   int64 // pairs that went through the scoring kernel (bounded search: fewer than Scored)
 	Canceled bool
 }
 
@@ -190,6 +195,28 @@ func (cfg *engineConfig) chunks() int64 {
 // selected rows in parallel, emitting in rank order.
 func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 	emit func(rank int64, k int64, p *fmo.Pair) error, fail func(pairFailure)) (engineStats, error) {
+	var st engineStats
+	var sel []scored
+	if cfg.Select != nil {
+		var err error
+		sel, st, err = cfg.Select(ctx, cfg.Workers)
+		if err != nil {
+			st.Canceled = ctx.Err() != nil
+			return st, err
+		}
+	} else {
+		var err error
+		sel, st, err = engineScoreAll(ctx, job, cfg)
+		if err != nil {
+			return st, err
+		}
+	}
+	return emitSelected(ctx, job, cfg, sel, st, emit, fail)
+}
+
+// engineScoreAll is phase 1 of a ranked run: every pair is scored, with per-worker
+// selections (a top-K heap, or all passing records when Top is 0).
+func engineScoreAll(ctx context.Context, job screenJob, cfg engineConfig) ([]scored, engineStats, error) {
 	var st engineStats
 	nChunks := cfg.chunks()
 	var next atomic.Int64
@@ -252,8 +279,15 @@ func engineRanked(ctx context.Context, job screenJob, cfg engineConfig,
 	}
 	if err := ctx.Err(); err != nil {
 		st.Canceled = true
-		return st, err
+		return nil, st, err
 	}
+	return sel, st, nil
+}
+
+// emitSelected is phase 2 of a ranked run: the selected records are sorted, cut to Top, and
+// get the full analysis in parallel; rows are emitted in rank order.
+func emitSelected(ctx context.Context, job screenJob, cfg engineConfig, sel []scored, st engineStats,
+	emit func(rank int64, k int64, p *fmo.Pair) error, fail func(pairFailure)) (engineStats, error) {
 	slices.SortFunc(sel, compareScored)
 	if cfg.Top > 0 && len(sel) > cfg.Top {
 		sel = sel[:cfg.Top]

@@ -10,12 +10,16 @@ import (
 
 // ScreenOptions drive one screen.
 type ScreenOptions struct {
-	Workers  int     // ≤ 0: runtime.GOMAXPROCS(0)
-	RankBy   RankKey // RankNone streams in pair order
-	Top      int     // keep at most Top rows, 0 = all
-	Filter   substrates.Filter
-	Shard    Shard
-	Activate *fmo.ActivateOptions // nil: defaults (pyrrolidine for iminium, the set's O=LA for Lewis)
+	Workers int     // ≤ 0: runtime.GOMAXPROCS(0)
+	RankBy  RankKey // RankNone streams in pair order
+	Top     int     // keep at most Top rows, 0 = all
+	Filter  substrates.Filter
+	Shard   Shard
+	// Exhaustive scores every pair even when Top > 0; otherwise a ranked screen with a Top
+	// skips blocks of pairs that provably cannot reach the top K (bounded.go). Both give the
+	// same rows.
+	Exhaustive bool
+	Activate   *fmo.ActivateOptions // nil: defaults (pyrrolidine for iminium, the set's O=LA for Lewis)
 	// Progress, if not nil, is called concurrently from workers with the number of pairs
 	// just scored.
 	Progress func(n int64)
@@ -110,6 +114,9 @@ func (p *Prepared) Screen(ctx context.Context, so ScreenOptions, emit func(Scree
 	job := &preparedJob{p: p, space: space, rank: so.RankBy, flt: so.Filter}
 	cfg := engineConfig{Workers: so.Workers, Ranked: so.RankBy != RankNone && so.RankBy != "", Top: so.Top,
 		Lo: lo, Hi: hi, Progress: so.Progress, Selected: so.Selected}
+	if cfg.Ranked && !so.Exhaustive {
+		cfg.Select = job.boundedSelect(so.Top, lo, hi, so.Progress)
+	}
 	var st ScreenStats
 	st.Pairs = hi - lo
 	rank := int64(0)
