@@ -75,6 +75,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newPairCmd(s),
 		newCalibrateCmd(s),
 		newValidateCmd(s),
+		newMergeCmd(s),
 	)
 	return root
 }
