@@ -4,7 +4,10 @@ import (
 	"bufio"
 	"errors"
 	"fmt"
+	"runtime"
 	"strings"
+	"sync"
+	"sync/atomic"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
@@ -81,13 +84,21 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	out := newOrbitalsWriter(s.out, opts.format, p, cal)
+	var emit func(in orbitalsInput, res *orbitalsResult, err error) error
+	// Output is buffered (the table format is many small writes per molecule) and flushed
+	// before returning, also on error.
+	bw := bufio.NewWriterSize(s.out, 1<<16)
+	defer bw.Flush()
+	out := newOrbitalsWriter(bw, opts.format, p, cal)
 	var solver huckel.Solver
 	failed, total := 0, 0
 	var single error
 	handle := func(in orbitalsInput) error {
-		total++
 		res, err := computeOrbitals(in, p, opts, &solver)
+		return emit(in, res, err)
+	}
+	emit = func(in orbitalsInput, res *orbitalsResult, err error) error {
+		total++
 		if err != nil {
 			failed++
 			if in.line == 0 && len(args) == 1 {
@@ -106,6 +117,7 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		sc := bufio.NewScanner(s.in)
 		sc.Buffer(make([]byte, 64*1024), 1<<20)
 		line := 0
+		batch := newOrbitalsBatch(p, opts)
 		for sc.Scan() {
 			line++
 			text := strings.TrimSpace(sc.Text())
@@ -118,9 +130,14 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 			} else {
 				smi, name = text, ""
 			}
-			if err := handle(orbitalsInput{smiles: smi, name: name, line: line}); err != nil {
-				return err
+			if batch.add(orbitalsInput{smiles: smi, name: name, line: line}) {
+				if err := batch.run(emit); err != nil {
+					return err
+				}
 			}
+		}
+		if err := batch.run(emit); err != nil {
+			return err
 		}
 		if err := sc.Err(); err != nil {
 			return &inputError{fmt.Errorf("stdin: line %d: %v (lines are limited to 1 MiB)", line+1, err)}
@@ -136,6 +153,9 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		}
 	}
 	if err := out.flush(); err != nil {
+		return err
+	}
+	if err := bw.Flush(); err != nil {
 		return err
 	}
 	if single != nil {
@@ -196,4 +216,63 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 // indent prefixes every line of s with two spaces (the SMILES excerpt under an error).
 func indent(s string) string {
 	return "  " + strings.ReplaceAll(s, "\n", "\n  ")
+}
+
+// orbitalsBatch computes the molecules of a stdin batch on all cores (one solver workspace
+// per worker) and hands the results on in input order, so output and messages are the same
+// as one at a time. A batch holds at most orbitalsBatchSize molecules: memory stays bounded
+// however long the input.
+type orbitalsBatch struct {
+	p       *huckel.Params
+	opts    *orbitalsOptions
+	ins     []orbitalsInput
+	res     []*orbitalsResult
+	errs    []error
+	solvers []huckel.Solver
+}
+
+const orbitalsBatchSize = 512
+
+func newOrbitalsBatch(p *huckel.Params, opts *orbitalsOptions) *orbitalsBatch {
+	return &orbitalsBatch{p: p, opts: opts, solvers: make([]huckel.Solver, runtime.GOMAXPROCS(0))}
+}
+
+// add queues one input and reports whether the batch is full.
+func (b *orbitalsBatch) add(in orbitalsInput) bool {
+	b.ins = append(b.ins, in)
+	return len(b.ins) >= orbitalsBatchSize
+}
+
+// run computes the queued inputs and calls emit for each, in order.
+func (b *orbitalsBatch) run(emit func(orbitalsInput, *orbitalsResult, error) error) error {
+	n := len(b.ins)
+	if n == 0 {
+		return nil
+	}
+	b.res = append(b.res[:0], make([]*orbitalsResult, n)...)
+	b.errs = append(b.errs[:0], make([]error, n)...)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := range min(len(b.solvers), n) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= n {
+					return
+				}
+				b.res[i], b.errs[i] = computeOrbitals(b.ins[i], b.p, b.opts, &b.solvers[w])
+			}
+		}()
+	}
+	wg.Wait()
+	for i := range n {
+		if err := emit(b.ins[i], b.res[i], b.errs[i]); err != nil {
+			return err
+		}
+		b.res[i] = nil
+	}
+	b.ins = b.ins[:0]
+	return nil
 }

@@ -2,7 +2,6 @@ package main
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -158,6 +157,7 @@ type orbitalsWriter struct {
 	cal    huckel.Calibration
 	csv    *csv.Writer
 	n      int
+	buf    []byte // the JSON line being written
 }
 
 func newOrbitalsWriter(w io.Writer, format string, p *huckel.Params, cal huckel.Calibration) *orbitalsWriter {
@@ -172,11 +172,9 @@ func (ow *orbitalsWriter) write(r *orbitalsResult) error {
 	ow.n++
 	switch ow.format {
 	case "json":
-		b, err := json.Marshal(toJSON(r, ow.p, ow.cal))
-		if err != nil {
-			return err
-		}
-		_, err = fmt.Fprintf(ow.w, "%s\n", b)
+		j := toJSON(r, ow.p, ow.cal)
+		ow.buf = append(appendOrbitalsJSON(ow.buf[:0], &j), '\n')
+		_, err := ow.w.Write(ow.buf)
 		return err
 	case "csv":
 		if ow.csv == nil {
