@@ -176,11 +176,17 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		return &inputError{err}
 	}
 	lib := cfg.Library
+	// From here on a signal stops the work and the rows already complete are flushed.
+	s.cancellable.Store(true)
+	defer s.cancellable.Store(false)
 	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
-		return fmt.Errorf("interrupted while preparing molecules: %w", err)
+		if ctx.Err() != nil {
+			return interrupted(ctx, "stopped while preparing molecules, no rows written")
+		}
+		return fmt.Errorf("preparing molecules: %w", err)
 	}
 	failures := append([]error(nil), cfg.Bad...)
 	for _, f := range prep.Failures {
@@ -257,7 +263,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	printFailures(s, failures)
 	if runErr != nil {
 		if errors.Is(runErr, context.Canceled) {
-			return fmt.Errorf("interrupted: %d rows written before the stop", st.Shown)
+			return interrupted(ctx, fmt.Sprintf("%d complete rows written before the stop", st.Shown))
 		}
 		return runErr
 	}
