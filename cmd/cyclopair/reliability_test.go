@@ -174,3 +174,102 @@ func cliProcess(t *testing.T, stdout *os.File, args ...string) (string, int) {
 	}
 	return "", -1
 }
+
+// failWriter fails every write after the first limit bytes, like a full disk.
+type failWriter struct{ limit int }
+
+func (f *failWriter) Write(p []byte) (int, error) {
+	if len(p) <= f.limit {
+		f.limit -= len(p)
+		return len(p), nil
+	}
+	n := f.limit
+	f.limit = 0
+	return n, syscall.ENOSPC
+}
+
+// TestFailedOutputIsAnError: every command whose standard output fails (at once, or after
+// some bytes) says so in one line and exits 2. Reproducer of issue 14: validate > /dev/full
+// exited 0.
+func TestFailedOutputIsAnError(t *testing.T) {
+	dir := t.TempDir()
+	lib := filepath.Join(dir, "lib.yaml")
+	if err := os.WriteFile(lib, []byte("dienes:\n  - {name: isoprene, smiles: C=CC(C)=C}\ndienophiles:\n  - {name: acrolein, smiles: C=CC=O}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, args := range [][]string{
+		{"orbitals", "C=CC=C"},
+		{"orbitals", "--format", "json", "C=CC=O"},
+		{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O"},
+		{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--format", "json"},
+		{"params"},
+		{"params", "show", "streitwieser1961"},
+		{"draw", "C=CC=C"},
+		{"screen", lib},
+		{"screen", lib, "--format", "csv"},
+		{"screen", lib, "--format", "json"},
+		{"screen", lib, "--format", "markdown"},
+		{"screen", lib, "--format", "html"},
+		{"demo"},
+		{"validate"},
+		{"diagram", "--diene", "C=CC=C", "--dienophile", "C=CC=O"},
+		{"calibrate", "testdata/calibrate/data.yaml"},
+	} {
+		for _, limit := range []int{0, 100} {
+			var stderr bytes.Buffer
+			code := run(args, strings.NewReader(""), &failWriter{limit: limit}, &stderr)
+			// the one line about the output comes last (a batch lists its bad rows before it)
+			lines := strings.Split(strings.TrimSuffix(stderr.String(), "\n"), "\n")
+			last := lines[len(lines)-1]
+			if code != exitUsage || strings.Count(stderr.String(), "standard output") != 1 || !strings.HasPrefix(last, "cyclopair: standard output: write failed: no space left on device") {
+				t.Errorf("%q after %d bytes: exit %d, stderr %q; want exit 2 and one last line about standard output", args, limit, code, stderr.String())
+			}
+		}
+	}
+}
+
+// TestClosedOrFullStdoutProcess runs the real binary with standard output closed (>&-) and
+// on /dev/full: one stderr line, exit 2. A write-only /dev/null stays a success.
+func TestClosedOrFullStdoutProcess(t *testing.T) {
+	bin := cliBinary(t)
+	dienes, dienophiles := bigLists(t, 3)
+	for _, tc := range []struct {
+		name, redirect string
+		args           []string
+		code           int
+		want           string
+	}{
+		{"validate closed", ">&-", []string{"validate"}, 2, "cyclopair: standard output: closed when the program started"},
+		{"screen closed", ">&-", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 2, "cyclopair: standard output: closed when the program started"},
+		{"validate full", ">/dev/full", []string{"validate"}, 2, "cyclopair: standard output: write failed: no space left on device"},
+		{"screen full", ">/dev/full", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles, "--format", "csv"}, 2, "cyclopair: standard output: write failed: no space left on device"},
+		{"screen null", ">/dev/null", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 0, ""},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			if _, err := os.Stat("/dev/full"); err != nil && strings.Contains(tc.redirect, "full") {
+				t.Skip("no /dev/full")
+			}
+			cmd := exec.Command("/bin/sh", append([]string{"-c", `exec "$0" "$@" ` + tc.redirect, bin}, tc.args...)...)
+			var stderr bytes.Buffer
+			cmd.Stderr = &stderr
+			err := cmd.Run()
+			code := 0
+			var ee *exec.ExitError
+			if errors.As(err, &ee) {
+				code = ee.ExitCode()
+			} else if err != nil {
+				t.Fatal(err)
+			}
+			lines := strings.Split(strings.TrimSuffix(stderr.String(), "\n"), "\n")
+			if tc.want == "" {
+				if code != 0 || stderr.Len() != 0 {
+					t.Errorf("exit %d, stderr %q; want 0 and nothing", code, stderr.String())
+				}
+				return
+			}
+			if code != tc.code || len(lines) != 1 || !strings.HasPrefix(lines[0], tc.want) {
+				t.Errorf("exit %d, stderr %q; want %d and one line %q…", code, stderr.String(), tc.code, tc.want)
+			}
+		})
+	}
+}

@@ -158,15 +158,22 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 // run is the whole program: it builds a fresh command tree, executes it and maps errors to
 // exit codes. Every error is printed once, to stderr, as "cyclopair: ...".
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	s := &streams{in: stdin, out: stdout, err: stderr, errIsTerminal: isTerminal(stderr)}
+	out := &checkedWriter{w: stdout}
+	s := &streams{in: stdin, out: out, err: stderr, errIsTerminal: isTerminal(stderr)}
 	root := newRootCmd(s)
 	root.SetArgs(args)
 	root.SetIn(stdin)
-	root.SetOut(stdout)
+	root.SetOut(out)
 	root.SetErr(stderr)
 	ctx, stop := watchSignals(s)
 	defer stop()
 	err := root.ExecuteContext(ctx)
+	if out.err != nil {
+		// One line whatever the command made of the failed write (the write error itself, a
+		// partial batch): what was written is incomplete, so the run did not succeed.
+		fmt.Fprintf(stderr, "cyclopair: standard output: %s (the output is incomplete)\n", writeErrText(out.err))
+		return exitUsage
+	}
 	if err == nil {
 		return exitOK
 	}
@@ -203,4 +210,46 @@ func commandPath(root *cobra.Command, args []string) string {
 		return ""
 	}
 	return strings.TrimPrefix(c.CommandPath(), "cyclopair ")
+}
+
+// checkedWriter keeps the first write error on standard output; later writes fail at once
+// with it, so a command stops producing rows nobody receives, and run reports it once.
+type checkedWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (c *checkedWriter) Write(p []byte) (int, error) {
+	if c.err != nil {
+		return 0, c.err
+	}
+	n, err := c.w.Write(p)
+	if err == nil && n < len(p) {
+		err = io.ErrShortWrite
+	}
+	if err != nil {
+		c.err = err
+	}
+	return n, err
+}
+
+// errStdoutClosed is the write error when the process was started with standard output
+// closed (see stdoutClosed).
+var errStdoutClosed = errors.New("standard output is closed")
+
+// closedWriter stands for a closed standard output: every write fails.
+type closedWriter struct{}
+
+func (closedWriter) Write([]byte) (int, error) { return 0, errStdoutClosed }
+
+// writeErrText is a write error without the file name Go adds ("write /dev/stdout: ...").
+func writeErrText(err error) string {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return "write failed: " + pe.Err.Error()
+	}
+	if errors.Is(err, errStdoutClosed) {
+		return "closed when the program started, nothing could be written"
+	}
+	return "write failed: " + err.Error()
 }
