@@ -12,6 +12,8 @@ import (
 	"syscall"
 
 	"github.com/spf13/cobra"
+
+	"cyclopair/cmd/cyclopair/internal/render"
 )
 
 // Exit codes (../shared/DESIGN.md, README "Limits and exit codes"): 0 success, 1 the analysis
@@ -29,7 +31,9 @@ const (
 type streams struct {
 	in  io.Reader
 	out io.Writer // data only: tables, JSON, CSV, SVG, HTML
-	err io.Writer // people: warnings, progress, errors
+	err io.Writer // people: warnings, errors (control characters escaped, render.TerminalSafe)
+	// rawErr is stderr unescaped, for the progress bar's carriage returns.
+	rawErr io.Writer
 	// errIsTerminal reports whether err is an interactive terminal (progress bars draw only then).
 	errIsTerminal bool
 	// cancellable, when set by a command (screen, demo) once it watches its context, makes
@@ -159,7 +163,8 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 // exit codes. Every error is printed once, to stderr, as "cyclopair: ...".
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	out := &checkedWriter{w: stdout}
-	s := &streams{in: stdin, out: out, err: stderr, errIsTerminal: isTerminal(stderr)}
+	s := &streams{in: stdin, out: out, err: render.TerminalSafe(stderr), rawErr: stderr, errIsTerminal: isTerminal(stderr)}
+	stderr = s.err // every message below is escaped too
 	root := newRootCmd(s)
 	root.SetArgs(args)
 	root.SetIn(stdin)
@@ -188,11 +193,12 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return exitSignal + int(ie.sig)
 	}
 	msg := strings.TrimPrefix(err.Error(), "cyclopair: ")
-	fmt.Fprintf(stderr, "cyclopair: %s\n", msg)
 	var ue *usageError
 	if errors.As(err, &ue) || isCobraUsage(err) {
-		fmt.Fprintf(stderr, "run 'cyclopair %s --help' for usage\n", commandPath(root, args))
+		// one line, the hint in the rule's "(<hint>)" place
+		msg += fmt.Sprintf(" (run '%s --help' for usage)", strings.TrimSpace("cyclopair "+commandPath(root, args)))
 	}
+	fmt.Fprintf(stderr, "cyclopair: %s\n", msg)
 	return exitUsage
 }
 

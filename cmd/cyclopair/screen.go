@@ -179,7 +179,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	// From here on a signal stops the work and the rows already complete are flushed.
 	s.cancellable.Store(true)
 	defer s.cancellable.Store(false)
-	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
+	prepProg := newProgress(s.rawErr, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
@@ -235,7 +235,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	if cfg.Top == 0 && hi-lo > 100_000 {
 		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
 	}
-	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
+	prog := newProgress(s.rawErr, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
 	so := cfg.ScreenOptions()
@@ -243,7 +243,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	so.Selected = func(n int64) {
 		prog.Stop()
 		prog = nil
-		rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
+		rowProg = newProgress(s.rawErr, s.errIsTerminal && n >= 200, "analyse", n)
 	}
 	st, runErr := prep.Screen(ctx, so, func(r screen.ScreenRow) error {
 		rowProg.Add(1)
