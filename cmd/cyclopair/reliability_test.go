@@ -273,3 +273,160 @@ func TestClosedOrFullStdoutProcess(t *testing.T) {
 		})
 	}
 }
+
+// TestReliabilityReproducers holds the in-process reproducers of issue 14: each gives the
+// documented exit code and a one-line error (checked: the first stderr line starts with
+// "cyclopair: " and contains want; no "goroutine" trace), or completes with the checks in
+// check.
+func TestReliabilityReproducers(t *testing.T) {
+	dir := t.TempDir()
+	write := func(name, body string) string {
+		p := filepath.Join(dir, name)
+		if err := os.WriteFile(p, []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return p
+	}
+	fifo := filepath.Join(dir, "fifo.yaml")
+	if err := syscall.Mkfifo(fifo, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	dienophiles := write("e.csv", "acrolein,C=CC=O\n")
+	// Calibration files: one fitted file (from the committed fixture) and broken copies.
+	calOut, calErr, code := runCLI(t, "", "calibrate", "testdata/calibrate/data.yaml", "--out", filepath.Join(dir, "cal.yaml"))
+	if code != exitPartial && code != exitOK {
+		t.Fatalf("calibrate: exit %d: %s%s", code, calOut, calErr)
+	}
+	calText, err := os.ReadFile(filepath.Join(dir, "cal.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal := string(calText)
+	calWith := func(name, old, new string) string {
+		re := regexp.MustCompile(old)
+		if !re.MatchString(cal) {
+			t.Fatalf("calibration fixture has no %q", old)
+		}
+		return write(name, re.ReplaceAllString(cal, new))
+	}
+	tooBigSlope := calWith("slope.yaml", `slope: -[0-9.]+`, "slope: -1e308")
+	hugeIntercept := calWith("intercept.yaml", `intercept: -[0-9.]+`, "intercept: 1e308")
+	r2 := calWith("r2.yaml", `(?m)^r2: .*$`, "r2: 5")
+	negN := calWith("n.yaml", `(?m)^n: .*$`, "n: -3")
+	paramsOut, _, _ := runCLI(t, "", "params", "show", "vancatledge1980", "--format", "yaml")
+	bomParams := write("bom-params.yaml", "\uFEFF"+paramsOut)
+	bomCal := write("bom-cal.yaml", "\uFEFF"+cal)
+
+	cases := []struct {
+		name  string
+		stdin string
+		args  []string
+		code  int
+		want  string               // in the first stderr line ("" = nothing on stderr)
+		check func(out, errOut string) // optional further checks
+	}{
+		{name: "CSV unterminated quote resynchronises",
+			args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles, "--dienes",
+				write("quote.csv", "name,smiles\nbutadiene,C=CC=C\n\"broken,C=CC(C)=C\nisoprene,C=CC(C)=C\n\"bad\"x,C=C\npiperylene,C=CC=CC\n")},
+			code: exitPartial, want: "quote.csv: 3:",
+			check: func(out, errOut string) {
+				for _, n := range []string{"butadiene", "isoprene", "piperylene"} {
+					if !strings.Contains(out, n) {
+						t.Errorf("row %s lost after the bad quote", n)
+					}
+				}
+				if !strings.Contains(errOut, "quote.csv: 5:") {
+					t.Errorf("second bad row (line 5) not listed: %q", errOut)
+				}
+			}},
+		{name: "BOM in a CSV list", args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles,
+			"--dienes", write("bom.csv", "\uFEFFname,smiles\nbutadiene,C=CC=C\n")}, code: exitOK},
+		{name: "BOM in a substrate file", args: []string{"screen", write("bom.yaml",
+			"\uFEFFdienes:\n  - {name: b, smiles: C=CC=C}\ndienophiles:\n  - {name: e, smiles: C=C}\n")}, code: exitOK},
+		{name: "BOM in a parameter file", args: []string{"orbitals", "C=C", "--params", bomParams}, code: exitOK},
+		{name: "BOM in a calibration file", args: []string{"orbitals", "C=C", "--calibration", bomCal}, code: exitOK},
+		{name: "FIFO as --params", args: []string{"orbitals", "C=C", "--params", fifo}, code: exitUsage, want: "named pipe (FIFO)"},
+		{name: "FIFO as params_file", args: []string{"screen", write("pf.yaml", "params_file: fifo.yaml\ndienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n")},
+			code: exitUsage, want: "params_file: " + fifo + ": cannot use as parameter file: not a regular file, it is a named pipe (FIFO)"},
+		{name: "directory as --calibration", args: []string{"orbitals", "C=C", "--calibration", dir}, code: exitUsage, want: "it is a directory"},
+		{name: "device as --params", args: []string{"orbitals", "C=C", "--params", os.DevNull}, code: exitUsage, want: "character device"},
+		{name: "another file as params: is not quoted", args: []string{"screen", write("p2.yaml", "params: "+write("secret.txt", "s3cr3t-token-line\nmore\n")+"\ndienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n")},
+			code: exitUsage, want: "not a parameter file: the top level is not a YAML mapping",
+			check: func(_, errOut string) {
+				if strings.Contains(errOut, "s3cr3t") {
+					t.Errorf("error quotes the other file: %q", errOut)
+				}
+			}},
+		{name: "calibration slope 1e308", args: []string{"orbitals", "C=C", "--calibration", tooBigSlope}, code: exitUsage, want: "outside the physical range −10 … −0.5"},
+		{name: "calibration intercept 1e308", args: []string{"orbitals", "C=C", "--calibration", hugeIntercept}, code: exitUsage, want: "outside the physical range -20 … +10 eV"},
+		{name: "calibration r2 5", args: []string{"orbitals", "C=C", "--calibration", r2}, code: exitUsage, want: "r2: 5 is outside [0, 1]"},
+		{name: "calibration n -3", args: []string{"orbitals", "C=C", "--calibration", negN}, code: exitUsage, want: "n: -3 points; a fit needs at least 2"},
+		{name: "usage error is one line", args: []string{"pair", "--bogus"}, code: exitUsage, want: "unknown flag: --bogus (run 'cyclopair pair --help' for usage)",
+			check: func(_, errOut string) {
+				if strings.Count(errOut, "\n") != 1 {
+					t.Errorf("usage error takes %d lines: %q", strings.Count(errOut, "\n"), errOut)
+				}
+			}},
+		{name: "CSV formula cells neutralised, numbers kept", args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles,
+			"--dienes", write("formula.csv", "=HYPERLINK(1),C=CC=C\n+1,C=CC(C)=C\n-x,C=CC=CC\n@SUM(A1),C=C(C)C(C)=C\nplain,C1=CCC=C1\n")},
+			code: exitOK,
+			check: func(out, _ string) {
+				recs, err := csvRecords([]byte(out))
+				if err != nil {
+					t.Fatal(err)
+				}
+				for _, r := range recs[1:] {
+					if name := r[2]; strings.ContainsRune("=+-@", rune(name[0])) {
+						t.Errorf("name cell %q starts a formula", name)
+					}
+					if r[2] != "plain" && r[2][0] != '\'' {
+						t.Errorf("name cell %q lost its apostrophe", r[2])
+					}
+				}
+				// numeric cells keep a leading minus (gap_normal of no row is negative, so
+				// check the regio margin field format only: a number, never quoted)
+				for _, r := range recs[1:] {
+					if _, err := strconv.ParseFloat(r[9], 64); err != nil {
+						t.Errorf("gap_beta %q is not a number", r[9])
+					}
+				}
+			}},
+		{name: "control characters escaped in the table and on stderr", args: []string{"screen", "--dienophiles", dienophiles,
+			"--dienes", write("ctl.csv", "bad\x1b[31mname\x07,C=CC=C\nx,C=C\x1bC\n")}, code: exitUsage, want: "ctl.csv: 1:",
+			check: func(out, errOut string) {
+				if strings.ContainsAny(out+errOut, "\x1b\x07") {
+					t.Errorf("raw ESC/BEL reached the terminal: %q / %q", out, errOut)
+				}
+				if !strings.Contains(errOut, `\x1b`) {
+					t.Errorf("escaped ESC missing from stderr: %q", errOut)
+				}
+			}},
+		{name: "control characters in a name escaped in the table", args: []string{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O",
+			"--params", write("ctl-params.yaml", "name: \"set\\e[31m\\a\"\nbase: vancatledge1980\n")}, code: exitOK,
+			check: func(out, errOut string) {
+				if strings.ContainsAny(out+errOut, "\x1b\x07") {
+					t.Errorf("raw ESC/BEL reached the terminal: %q / %q", out, errOut)
+				}
+			}},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			out, errOut, code := runCLI(t, tc.stdin, tc.args...)
+			if code != tc.code {
+				t.Errorf("exit %d, want %d (stderr %q)", code, tc.code, errOut)
+			}
+			if strings.Contains(errOut, "goroutine ") || strings.Contains(errOut, "panic") {
+				t.Fatalf("trace on stderr: %q", errOut)
+			}
+			if tc.want != "" {
+				first, _, _ := strings.Cut(errOut, "\n")
+				if !strings.HasPrefix(first, "cyclopair: ") || !strings.Contains(first, tc.want) {
+					t.Errorf("first stderr line %q, want cyclopair: …%s…", first, tc.want)
+				}
+			}
+			if tc.check != nil {
+				tc.check(out, errOut)
+			}
+		})
+	}
+}
