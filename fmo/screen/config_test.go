@@ -147,7 +147,7 @@ func TestResolveFiles(t *testing.T) {
 	if len(c.Library.Dienes) != 2 || len(c.Library.Dienophiles) != 1 || len(c.Bad) != 1 {
 		t.Errorf("lists: %d dienes, %d dienophiles, bad %v", len(c.Library.Dienes), len(c.Library.Dienophiles), c.Bad)
 	}
-	if !slices.Equal(c.Activations, []string{fmo.ActivateNone}) || c.RankBy != RankNormalGap || c.Source != "dienes from -, dienophiles from "+list {
+	if !slices.Equal(c.Activations, []string{fmo.ActivateNone}) || c.RankBy != RankRate || c.Source != "dienes from -, dienophiles from "+list {
 		t.Errorf("lists only: activations %v, rank %s, source %q", c.Activations, c.RankBy, c.Source)
 	}
 }
