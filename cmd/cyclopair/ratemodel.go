@@ -10,6 +10,7 @@ import (
 
 	"cyclopair/fmo"
 	"cyclopair/fmo/rate"
+	"cyclopair/presets"
 
 	"github.com/spf13/pflag"
 )
@@ -128,5 +129,45 @@ func writeRateValidation(w io.Writer) error {
 		r.RegioMAE, r.RegioNumeric, r.RegioBaseMAE, r.RegioCensorMet, r.RegioCensored, r.CensorKcal)
 	fmt.Fprintf(w, "endo:exo ratios: MAE %.2f kcal/mol over %d measured ratios, leave-one-out (baseline 1:1: %.2f); %d of %d endo-only entries beyond the bound\n",
 		r.EndoMAE, r.EndoNumeric, r.EndoBaseMAE, r.EndoCensorMet, r.EndoCensored)
+	return nil
+}
+
+// runCalibrateRates fits the rate and ratio model to a user's rate file (and selectivity
+// file) and writes the model (stdout, or --out).
+func runCalibrateRates(s *streams, opts *calibrateOptions, path string) error {
+	rates, err := os.ReadFile(path)
+	if err != nil {
+		return &inputError{fmt.Errorf("%s: cannot read (%v)", path, err)}
+	}
+	_, sel := presets.KineticsYAML()
+	if opts.sel != "" {
+		if sel, err = os.ReadFile(opts.sel); err != nil {
+			return &inputError{fmt.Errorf("%s: cannot read (%v)", opts.sel, err)}
+		}
+	}
+	k, err := presets.ParseKinetics(rates, sel)
+	if err != nil {
+		return &inputError{fmt.Errorf("%s: %v", path, err)}
+	}
+	p, cal, err := resolveModel(s, opts.params, "default")
+	if err != nil {
+		return err
+	}
+	m, err := rate.FitKinetics(k, fmo.NewOptions(p, cal, cal.Name), "")
+	if err != nil {
+		return &inputError{fmt.Errorf("%s: %v", path, err)}
+	}
+	b, err := m.Marshal(rate.ModelHeader)
+	if err != nil {
+		return err
+	}
+	if opts.out == "" {
+		_, err = s.out.Write(b)
+		return err
+	}
+	if err := os.WriteFile(opts.out, b, 0o644); err != nil {
+		return &inputError{fmt.Errorf("%s: cannot write (%v)", opts.out, err)}
+	}
+	fmt.Fprintf(s.err, "cyclopair: rate model written to %s (cross-validated RMSE %.2f log10; use it with --rate-model %s)\n", opts.out, m.CVRMSE, opts.out)
 	return nil
 }

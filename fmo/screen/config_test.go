@@ -41,7 +41,7 @@ func TestResolvePrecedence(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !slices.Equal(c.Activations, []string{"none", "lewis", "iminium"}) || c.RankBy != RankNormalGap || c.Top != 20 || c.Source != name {
+	if !slices.Equal(c.Activations, []string{"none", "lewis", "iminium"}) || c.RankBy != RankRate || c.Top != 20 || c.Source != name {
 		t.Errorf("file settings: activations %v, rank %s, top %d, source %q", c.Activations, c.RankBy, c.Top, c.Source)
 	}
 	if !slices.Equal(asked, []string{"params ", "calibration "}) || c.Options == nil || c.Activate != nil {
