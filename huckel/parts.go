@@ -18,6 +18,16 @@ var nonMetals = map[string]bool{
 	"Br": true, "Kr": true, "Sb": true, "Te": true, "I": true, "Xe": true, "At": true, "Rn": true,
 }
 
+// isMetal reports whether el is outside nonMetals (the organic elements answer without
+// a map lookup: this runs for every atom of every molecule).
+func isMetal(el string) bool {
+	switch el {
+	case "C", "H", "N", "O", "S", "F", "Cl", "Br", "I", "B", "P", "Si":
+		return false
+	}
+	return !nonMetals[el]
+}
+
 // warnParts adds the warnings about what the π system leaves out of the input. They are
 // warnings, not errors, because the input is chemically sensible and the π result of the
 // rest is still what the user asked for; they say what was left out so nothing is silent.
@@ -40,37 +50,37 @@ func (ps *PiSystem) warnParts(st []atomState) {
 	if n == 0 {
 		return
 	}
-	// Connected parts of the molecular graph, in order of their first atom.
-	buf := make([]int, 2*n)
-	part, queue := buf[:n], buf[n:n]
-	for i := range part {
-		part[i] = -1
+	// Connected parts of the molecular graph, numbered in order of their first atom; the
+	// work space lives in st, so a connected molecule costs no allocation.
+	for i := range st {
+		st[i].part = -1
 	}
-	var first []int // first (lowest) atom of each part
+	nparts := int32(0)
 	for s := 0; s < n; s++ {
-		if part[s] >= 0 {
+		if st[s].part >= 0 {
 			continue
 		}
-		p := len(first)
-		first = append(first, s)
-		part[s] = p
-		queue = append(queue[:0], s)
-		for q := 0; q < len(queue); q++ {
-			for _, e := range m.Neighbors(queue[q]) {
-				if part[e.To] < 0 {
-					part[e.To] = p
-					queue = append(queue, e.To)
+		st[s].part = nparts
+		st[0].queue = int32(s)
+		tail := 1
+		for q := 0; q < tail; q++ {
+			for _, e := range m.Neighbors(int(st[q].queue)) {
+				if st[e.To].part < 0 {
+					st[e.To].part = nparts
+					st[tail].queue = int32(e.To)
+					tail++
 				}
 			}
 		}
+		nparts++
 	}
 
 	// Metals outside the π system. A lone metal ion beside other parts is a counter-ion:
 	// the parts warning below names it.
 	for i := range m.Atoms {
 		a := &m.Atoms[i]
-		if nonMetals[a.Element] || st[i].centre || st[i].warned || ps.isLewisAcidOfCentre(i) ||
-			(m.Degree(i) == 0 && len(first) > 1) {
+		if st[i].centre || st[i].warned || !isMetal(a.Element) || ps.isLewisAcidOfCentre(i) ||
+			(m.Degree(i) == 0 && nparts > 1) {
 			continue
 		}
 		st[i].warned = true
@@ -81,19 +91,23 @@ func (ps *PiSystem) warnParts(st []atomState) {
 		}
 		ps.Warnings = append(ps.Warnings, w)
 	}
-	if len(first) < 2 {
+	if nparts < 2 {
 		return
 	}
 
-	hasPi := make([]bool, len(first))
-	named := make([]bool, len(first)) // a metal warning already names an atom of the part
-	acid := make([]bool, len(first))  // the part holds a Lewis-acid element
+	first := make([]int, 0, nparts) // first (lowest) atom of each part
+	hasPi := make([]bool, nparts)
+	named := make([]bool, nparts) // a metal warning already names an atom of the part
+	acid := make([]bool, nparts)  // the part holds a Lewis-acid element
 	for i := range m.Atoms {
-		p := part[i]
+		p := st[i].part
+		if int(p) == len(first) {
+			first = append(first, i)
+		}
 		if st[i].centre {
 			hasPi[p] = true
 		}
-		if st[i].warned && !nonMetals[m.Atoms[i].Element] {
+		if st[i].warned && isMetal(m.Atoms[i].Element) {
 			named[p] = true
 		}
 		if lewisAcidElements[m.Atoms[i].Element] && m.Atoms[i].Element != "B" {

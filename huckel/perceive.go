@@ -56,7 +56,9 @@ type atomState struct {
 	excluded bool // element or valence without π parameters
 	far      bool // terminal lone-pair atom across a dropped cumulated double bond
 	centre   bool
-	warned   bool // a warning already names this atom
+	warned   bool  // a warning already names this atom
+	part     int32 // connected part of the molecule (warnParts), -1 before it is found
+	queue    int32 // warnParts' breadth-first queue: the atom in queue position i is st[i].queue
 }
 
 // Perceive finds the π system of the Kekulé graph m and types its centres with p.

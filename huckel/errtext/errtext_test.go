@@ -128,3 +128,34 @@ func TestExcerptEscapes(t *testing.T) {
 		t.Errorf("Excerpt = %q, want %q", ex, want)
 	}
 }
+
+// FuzzExcerpt: for any input and position, Excerpt gives two lines, valid UTF-8 without
+// raw control characters, at most Width characters of input (plus the marks and the
+// length note), and a caret line of spaces ending in '^'.
+func FuzzExcerpt(f *testing.F) {
+	for _, s := range []string{"", "C1CC", "C\x1b[2JC", "CCé", "\xff\xfe", strings.Repeat("C=C", 100)} {
+		f.Add(s, 3)
+	}
+	f.Fuzz(func(t *testing.T, s string, pos int) {
+		ex := Excerpt(s, pos)
+		lines := strings.Split(ex, "\n")
+		if len(lines) != 2 || strings.TrimLeft(lines[1], " ") != "^" {
+			t.Fatalf("Excerpt(%q, %d) = %q", s, pos, ex)
+		}
+		if !utf8.ValidString(ex) {
+			t.Fatalf("Excerpt(%q, %d) is not UTF-8: %q", s, pos, ex)
+		}
+		for _, r := range lines[0] {
+			if r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0 {
+				t.Fatalf("Excerpt(%q, %d): raw %U", s, pos, r)
+			}
+		}
+		body, _, _ := strings.Cut(lines[0], " (input of ")
+		if n := utf8.RuneCountInString(strings.TrimSuffix(strings.TrimPrefix(body, ellipsis), ellipsis)); n > Width*10 {
+			t.Fatalf("Excerpt(%q, %d): %d characters shown", s, pos, n)
+		}
+		if c := Clip(s); strings.ContainsAny(c, "\x00\x07\x1b") {
+			t.Fatalf("Clip(%q) = %q", s, c)
+		}
+	})
+}
