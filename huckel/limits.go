@@ -53,8 +53,11 @@ func tooManyCentres(m *molecule.Molecule, atom, n, limit int) error {
 	return &PerceiveError{Atom: atom, Label: atomLabel(&m.Atoms[atom]), Err: ErrTooManyCentres, Msg: msg}
 }
 
-// checkSize is Solve's guard, run before any allocation that grows with the system.
-func (ps *PiSystem) checkSize() error {
+// CheckSize returns an error wrapping ErrTooManyCentres when ps has more centres than
+// ps.MaxCentres (DefaultMaxCentres when 0), naming the atom of the first centre beyond
+// the limit. Solve calls it before allocating anything that grows with the system; any
+// other solver of a PiSystem (an SCF method, say) should do the same.
+func (ps *PiSystem) CheckSize() error {
 	limit := ps.MaxCentres
 	if limit <= 0 {
 		limit = DefaultMaxCentres

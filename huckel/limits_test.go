@@ -107,6 +107,10 @@ func TestCentreLimit(t *testing.T) {
 	if err := s.Solve(ps, &o); !errors.Is(err, huckel.ErrTooManyCentres) {
 		t.Errorf("Solver.Solve over the limit: %v", err)
 	}
+	var pe *huckel.PerceiveError
+	if err := ps.CheckSize(); !errors.As(err, &pe) || pe.Atom != 5 {
+		t.Errorf("CheckSize over the limit: %v, want the error to name atom 5", err)
+	}
 }
 
 // chain returns a hand-built linear chain of n carbon centres (k = 1).

@@ -160,7 +160,7 @@ type Solver struct {
 //
 // The ω path allocates only while its workspace grows; with ω = 0 nothing of it runs.
 func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
-	if err := ps.checkSize(); err != nil {
+	if err := ps.CheckSize(); err != nil {
 		return err
 	}
 	n := len(ps.Centres)
