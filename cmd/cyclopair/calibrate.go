@@ -13,8 +13,8 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo/check"
 	"cyclopair/huckel"
-	"cyclopair/huckel/yamlfile"
 	"cyclopair/huckel/errtext"
+	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
