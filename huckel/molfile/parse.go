@@ -228,8 +228,11 @@ func (p *recParser) countsAndTable(ct *ctab) (int, bool) {
 		}
 		i++
 	}
-	// the obsolete atom-list and stext blocks, when a writer still fills them
-	i += nlists + 2*nstext
+	// the obsolete atom-list and stext blocks, when a writer still fills them; a property
+	// line ends them early, in case the counts were set without the blocks
+	for skip := nlists + 2*nstext; skip > 0 && i < p.nlines() && !strings.HasPrefix(p.lineAt(i), "M  "); skip-- {
+		i++
+	}
 	if len(p.errs) > 0 {
 		return 0, false
 	}
