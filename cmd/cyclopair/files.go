@@ -8,6 +8,8 @@ import (
 	"os"
 
 	"go.yaml.in/yaml/v3"
+
+	"cyclopair/huckel/errtext"
 )
 
 // errNotRegular marks a parameter or calibration path that is not a regular file.
@@ -23,7 +25,7 @@ func openRegular(path, what string) (*os.File, error) {
 		return nil, err
 	}
 	if !st.Mode().IsRegular() {
-		return nil, &inputError{fmt.Errorf("%s: cannot use as %s: %w, it is %s (give the path of a YAML file)", path, what, errNotRegular, fileKind(st.Mode()))}
+		return nil, &inputError{fmt.Errorf("%s: cannot use as %s: %w, it is %s (give the path of a YAML file)", errtext.Clip(path), what, errNotRegular, fileKind(st.Mode()))}
 	}
 	f, err := os.Open(path)
 	if err != nil {
@@ -31,7 +33,7 @@ func openRegular(path, what string) (*os.File, error) {
 	}
 	if st, err = f.Stat(); err != nil || !st.Mode().IsRegular() {
 		f.Close()
-		return nil, &inputError{fmt.Errorf("%s: cannot use as %s: %w (give the path of a YAML file)", path, what, errNotRegular)}
+		return nil, &inputError{fmt.Errorf("%s: cannot use as %s: %w (give the path of a YAML file)", errtext.Clip(path), what, errNotRegular)}
 	}
 	return f, nil
 }

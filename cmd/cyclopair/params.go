@@ -11,6 +11,7 @@ import (
 	"text/tabwriter"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -39,19 +40,19 @@ func resolveParams(spec string) (*huckel.Params, error) {
 			return nil, err
 		case errors.Is(err, os.ErrNotExist):
 			return nil, &inputError{fmt.Errorf("%s: no such parameter set or file (built-in sets: %s)",
-				spec, strings.Join(presets.ParamNames(), ", "))}
+				errtext.Clip(spec), strings.Join(presets.ParamNames(), ", "))}
 		}
-		return nil, &inputError{fmt.Errorf("%s: %v (check the path and permissions)", spec, unwrapPathError(err))}
+		return nil, &inputError{fmt.Errorf("%s: %v (check the path and permissions)", errtext.Clip(spec), unwrapPathError(err))}
 	}
 	defer f.Close()
 	data, err := io.ReadAll(io.LimitReader(f, maxParamsFile+1))
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v (check the file)", spec, unwrapPathError(err))}
+		return nil, &inputError{fmt.Errorf("%s: %v (check the file)", errtext.Clip(spec), unwrapPathError(err))}
 	}
 	if len(data) > maxParamsFile {
-		return nil, &inputError{fmt.Errorf("%s: larger than %d bytes (a parameter file is a few kilobytes)", spec, maxParamsFile)}
+		return nil, &inputError{fmt.Errorf("%s: larger than %d bytes (a parameter file is a few kilobytes)", errtext.Clip(spec), maxParamsFile)}
 	}
-	if err := yamlMappingCheck(data, spec, "parameter file"); err != nil {
+	if err := yamlMappingCheck(data, errtext.Clip(spec), "parameter file"); err != nil {
 		return nil, err
 	}
 	user, err := huckel.ParseParams(data, spec)
@@ -60,7 +61,7 @@ func resolveParams(spec string) (*huckel.Params, error) {
 	}
 	p, err := presets.ResolveParams(user)
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v", spec, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v", errtext.Clip(spec), err)}
 	}
 	if user.Name == "" {
 		p.Name = spec

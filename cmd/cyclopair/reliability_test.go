@@ -1,432 +1,207 @@
 package main
 
-// Reliability suite (issue 14): each reproducer of the issue as a test. The cases that need
-// a real process (signals, closed or full stdout) build the binary once into a temporary
-// directory; they are skipped with -short.
-
 import (
-	"bufio"
-	"bytes"
-	"encoding/csv"
-	"errors"
-	"fmt"
-	"io"
 	"os"
-	"os/exec"
 	"path/filepath"
-	"regexp"
-	"strconv"
 	"strings"
-	"sync"
-	"syscall"
 	"testing"
-	"time"
 )
 
-var (
-	binOnce sync.Once
-	binPath string
-	binErr  error
-)
+// The CLI half of the reliability suite of issue 14 (bad input, big input): every case
+// runs the whole program in-process through run(args, stdin, stdout, stderr). The library
+// half is huckel/limits_test.go and huckel/smiles/limits_test.go.
 
-// cliBinary builds cmd/cyclopair once per test run into a temporary directory.
-func cliBinary(t *testing.T) string {
+// checkOneLineError asserts the shape of a refused input: exit 2, nothing on stdout, one
+// line on stderr starting "cyclopair: ", bounded in size, no stack trace, and the given
+// fragments.
+func checkOneLineError(t *testing.T, name, out, errOut string, code int, want ...string) {
 	t.Helper()
-	if testing.Short() {
-		t.Skip("builds and runs the binary; skipped with -short")
+	if code != exitUsage {
+		t.Errorf("%s: exit %d, want %d (stderr %.300q)", name, code, exitUsage, errOut)
 	}
-	binOnce.Do(func() {
-		dir, err := os.MkdirTemp("", "cyclopair-bin-")
-		if err != nil {
-			binErr = err
-			return
+	if out != "" {
+		t.Errorf("%s: %d bytes on stdout, want none", name, len(out))
+	}
+	lines := strings.Split(strings.TrimSuffix(errOut, "\n"), "\n")
+	if len(lines) != 1 || !strings.HasPrefix(lines[0], "cyclopair: ") || !strings.HasSuffix(errOut, "\n") {
+		t.Errorf("%s: stderr is not one error line: %.500q", name, errOut)
+	}
+	if len(errOut) > 600 {
+		t.Errorf("%s: %d bytes on stderr, want at most 600", name, len(errOut))
+	}
+	if strings.Contains(errOut, "goroutine ") || strings.Contains(errOut, "panic") {
+		t.Errorf("%s: stack trace on stderr: %.500s", name, errOut)
+	}
+	for _, w := range want {
+		if !strings.Contains(errOut, w) {
+			t.Errorf("%s: stderr %q lacks %q", name, errOut, w)
 		}
-		binPath = filepath.Join(dir, "cyclopair")
-		out, err := exec.Command("go", "build", "-o", binPath, ".").CombinedOutput()
-		if err != nil {
-			binErr = fmt.Errorf("go build: %v\n%s", err, out)
-		}
-	})
-	if binErr != nil {
-		t.Fatal(binErr)
-	}
-	return binPath
-}
-
-func TestMain(m *testing.M) {
-	code := m.Run()
-	if binPath != "" {
-		os.RemoveAll(filepath.Dir(binPath))
-	}
-	os.Exit(code)
-}
-
-// bigLists writes a diene and a dienophile list (CSV name,smiles) of n entries each: n²
-// pairs, far more than the test lets run (homologous alkyl chains; invented data).
-func bigLists(t *testing.T, n int) (dienes, dienophiles string) {
-	dir := t.TempDir()
-	var d, e strings.Builder
-	for i := range n {
-		fmt.Fprintf(&d, "diene%d,C=CC=C%s\n", i, strings.Repeat("C", i%40+1))
-		fmt.Fprintf(&e, "dienophile%d,C=CC(=O)O%s\n", i, strings.Repeat("C", i%40+1))
-	}
-	dienes, dienophiles = filepath.Join(dir, "dienes.csv"), filepath.Join(dir, "dienophiles.csv")
-	if err := os.WriteFile(dienes, []byte(d.String()), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(dienophiles, []byte(e.String()), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	return dienes, dienophiles
-}
-
-// TestSignalFlushesCompleteRows: a streamed screen stopped by SIGTERM (what batch schedulers
-// and timeout(1) send) or SIGINT writes every complete row, says how many on stderr and exits
-// with 128 + the signal number. Reproducer of issue 14: SIGTERM left an empty file.
-func TestSignalFlushesCompleteRows(t *testing.T) {
-	bin := cliBinary(t)
-	dienes, dienophiles := bigLists(t, 150) // 22,500 pairs: minutes if left to run
-	for _, sig := range []syscall.Signal{syscall.SIGTERM, syscall.SIGINT} {
-		t.Run(signalName(sig), func(t *testing.T) {
-			cmd := exec.Command(bin, "screen", "--dienes", dienes, "--dienophiles", dienophiles,
-				"--rank-by", "none", "--top", "0", "--format", "csv", "--workers", "2")
-			var stderr bytes.Buffer
-			cmd.Stderr = &stderr
-			pipe, err := cmd.StdoutPipe()
-			if err != nil {
-				t.Fatal(err)
-			}
-			if err := cmd.Start(); err != nil {
-				t.Fatal(err)
-			}
-			// Wait for the first rows (the CSV writer flushes every 4 KiB), then signal.
-			var out bytes.Buffer
-			br := bufio.NewReader(pipe)
-			for lines := 0; lines < 20; lines++ {
-				line, err := br.ReadBytes('\n')
-				out.Write(line)
-				if err != nil {
-					t.Fatalf("stdout ended after %d lines: %v (stderr %q)", lines, err, stderr.String())
-				}
-			}
-			if err := cmd.Process.Signal(sig); err != nil {
-				t.Fatal(err)
-			}
-			rest, _ := io.ReadAll(br)
-			out.Write(rest)
-			err = cmd.Wait()
-			var ee *exec.ExitError
-			if !errors.As(err, &ee) || ee.ExitCode() != 128+int(sig) {
-				t.Fatalf("exit %v, want code %d (stderr %q)", err, 128+int(sig), stderr.String())
-			}
-			recs, err := csvRecords(out.Bytes())
-			if err != nil {
-				t.Fatalf("output is not complete CSV rows: %v", err)
-			}
-			rows := len(recs) - 1
-			m := regexp.MustCompile(`cyclopair: interrupted by ` + signalName(sig) + `: (\d+) complete rows written before the stop\n`).FindStringSubmatch(stderr.String())
-			if m == nil {
-				t.Fatalf("stderr %q lacks the interruption line", stderr.String())
-			}
-			if n, _ := strconv.Atoi(m[1]); n != rows || rows < 19 || rows >= 150*150 {
-				t.Errorf("stderr says %s rows, stdout has %d (want ≥ 19 and fewer than all)", m[1], rows)
-			}
-			for i, r := range recs[1:] {
-				if r[0] != strconv.Itoa(i+1) {
-					t.Fatalf("row %d has rank %q: rows lost or out of order", i+1, r[0])
-				}
-			}
-		})
 	}
 }
 
-// csvRecords parses a whole screen CSV output, every record with the header's field count.
-func csvRecords(b []byte) ([][]string, error) {
-	r := csv.NewReader(bytes.NewReader(b))
-	return r.ReadAll()
-}
-
-// cliProcess runs the binary with stdin from in and the given stdout, returning stderr and
-// the exit code.
-func cliProcess(t *testing.T, stdout *os.File, args ...string) (string, int) {
-	t.Helper()
-	cmd := exec.Command(cliBinary(t), args...)
-	var stderr bytes.Buffer
-	cmd.Stdout, cmd.Stderr = stdout, &stderr
-	done := make(chan error, 1)
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
-	go func() { done <- cmd.Wait() }()
-	select {
-	case err := <-done:
-		var ee *exec.ExitError
-		if errors.As(err, &ee) {
-			return stderr.String(), ee.ExitCode()
-		}
-		if err != nil {
-			t.Fatal(err)
-		}
-		return stderr.String(), 0
-	case <-time.After(2 * time.Minute):
-		cmd.Process.Kill()
-		t.Fatalf("%q did not finish", args)
-	}
-	return "", -1
-}
-
-// failWriter fails every write after the first limit bytes, like a full disk.
-type failWriter struct{ limit int }
-
-func (f *failWriter) Write(p []byte) (int, error) {
-	if len(p) <= f.limit {
-		f.limit -= len(p)
-		return len(p), nil
-	}
-	n := f.limit
-	f.limit = 0
-	return n, syscall.ENOSPC
-}
-
-// TestFailedOutputIsAnError: every command whose standard output fails (at once, or after
-// some bytes) says so in one line and exits 2. Reproducer of issue 14: validate > /dev/full
-// exited 0.
-func TestFailedOutputIsAnError(t *testing.T) {
-	dir := t.TempDir()
-	lib := filepath.Join(dir, "lib.yaml")
-	if err := os.WriteFile(lib, []byte("dienes:\n  - {name: isoprene, smiles: C=CC(C)=C}\ndienophiles:\n  - {name: acrolein, smiles: C=CC=O}\n"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+// TestCrashOnSize: the reproducer of issue 14, a 100,002-byte polyene SMILES, used to die
+// in a runtime out-of-memory crash with a stack trace in orbitals, pair and draw. Now each
+// command refuses it with one line naming the limit and the flag; with the length limit
+// raised, the centre limit refuses it (in linear time) instead.
+func TestCrashOnSize(t *testing.T) {
+	huge := strings.Repeat("C=C", 33334)
 	for _, args := range [][]string{
-		{"orbitals", "C=CC=C"},
-		{"orbitals", "--format", "json", "C=CC=O"},
-		{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O"},
-		{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O", "--format", "json"},
-		{"params"},
-		{"params", "show", "streitwieser1961"},
-		{"draw", "C=CC=C"},
-		{"screen", lib},
-		{"screen", lib, "--format", "csv"},
-		{"screen", lib, "--format", "json"},
-		{"screen", lib, "--format", "markdown"},
-		{"screen", lib, "--format", "html"},
-		{"demo"},
-		{"validate"},
-		{"diagram", "--diene", "C=CC=C", "--dienophile", "C=CC=O"},
-		{"calibrate", "testdata/calibrate/data.yaml"},
+		{"orbitals", huge},
+		{"orbitals", "--format", "json", huge},
+		{"pair", "--diene", huge, "--dienophile", "C=CC=O"},
+		{"pair", "--diene", "C=CC=C", "--dienophile", huge},
+		{"draw", huge},
+		{"draw", "--diene", huge, "--dienophile", "C=C"},
+		{"diagram", "--diene", huge, "--dienophile", "C=C"},
 	} {
-		for _, limit := range []int{0, 100} {
-			var stderr bytes.Buffer
-			code := run(args, strings.NewReader(""), &failWriter{limit: limit}, &stderr)
-			// the one line about the output comes last (a batch lists its bad rows before it)
-			lines := strings.Split(strings.TrimSuffix(stderr.String(), "\n"), "\n")
-			last := lines[len(lines)-1]
-			if code != exitUsage || strings.Count(stderr.String(), "standard output") != 1 || !strings.HasPrefix(last, "cyclopair: standard output: write failed: no space left on device") {
-				t.Errorf("%q after %d bytes: exit %d, stderr %q; want exit 2 and one last line about standard output", args, limit, code, stderr.String())
-			}
+		out, errOut, code := runCLI(t, "", args...)
+		checkOneLineError(t, args[0]+" "+args[1], out, errOut, code,
+			"(input of 100002 characters)", "column 4097", "SMILES of 100002 bytes is longer than the limit of 4096 bytes", "--max-smiles-length")
+	}
+	// The same on stdin.
+	out, errOut, code := runCLI(t, huge+"\n", "orbitals", "-")
+	if code != exitPartial || out != "" || len(errOut) > 600 || !strings.Contains(errOut, "line 1, column 4097") {
+		t.Errorf("orbitals - : exit %d, stdout %d bytes, stderr %.600q", code, len(out), errOut)
+	}
+	// With the length limit raised, the π system is too large.
+	for _, args := range [][]string{
+		{"orbitals", "--max-smiles-length", "200000", huge},
+		{"draw", "--max-smiles-length", "200000", huge},
+	} {
+		out, errOut, code := runCLI(t, "", args...)
+		checkOneLineError(t, args[0]+" raised", out, errOut, code,
+			"the π system has 66668 centres, more than the limit of 500", "--max-centres")
+	}
+	out, errOut, code = runCLI(t, "", "pair", "--max-smiles-length", "200000", "--diene", huge, "--dienophile", "C=C")
+	checkOneLineError(t, "pair raised", out, errOut, code, "the π system has 66668 centres, more than the limit of 500")
+	if strings.Contains(errOut, "--max-centres") {
+		t.Errorf("pair offers no --max-centres, but the message points at it: %s", errOut)
+	}
+	// A raised centre limit is honoured.
+	out, errOut, code = runCLI(t, "", "orbitals", "--max-centres", "502", "--format", "csv", strings.Repeat("C=C", 251))
+	if code != exitOK || !strings.Contains(out, ",502,1,") {
+		t.Errorf("--max-centres 502: exit %d, stderr %q", code, errOut)
+	}
+}
+
+// TestLimitFlags: the limit flags reject values outside their ranges as usage errors.
+func TestLimitFlags(t *testing.T) {
+	for _, args := range [][]string{
+		{"orbitals", "--max-centres", "0", "C=C"},
+		{"orbitals", "--max-centres", "20000", "C=C"},
+		{"orbitals", "--max-smiles-length", "0", "C=C"},
+		{"draw", "--max-smiles-length", "2000000", "C=C"},
+		{"pair", "--max-smiles-length", "-1", "--diene", "C=CC=C", "--dienophile", "C=C"},
+	} {
+		_, errOut, code := runCLI(t, "", args...)
+		if code != exitUsage || !strings.Contains(errOut, "--max-") || !strings.Contains(errOut, "for usage") {
+			t.Errorf("%q: exit %d, stderr %q", args, code, errOut)
 		}
 	}
 }
 
-// TestClosedOrFullStdoutProcess runs the real binary with standard output closed (>&-) and
-// on /dev/full: one stderr line, exit 2. A write-only /dev/null stays a success.
-func TestClosedOrFullStdoutProcess(t *testing.T) {
-	bin := cliBinary(t)
-	dienes, dienophiles := bigLists(t, 3)
+// TestErrorTextIsSafe: control bytes in a SMILES, a parameter-set name or a file name are
+// shown escaped, never raw (issue 14), and an error in a 200,000-character input quotes at
+// most about 100 characters of it with the total length.
+func TestErrorTextIsSafe(t *testing.T) {
+	long := strings.Repeat("C", 100000) + "!" + strings.Repeat("C", 99999)
 	for _, tc := range []struct {
-		name, redirect string
-		args           []string
-		code           int
-		want           string
+		stdin string
+		args  []string
+		want  string
 	}{
-		{"validate closed", ">&-", []string{"validate"}, 2, "cyclopair: standard output: closed when the program started"},
-		{"screen closed", ">&-", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 2, "cyclopair: standard output: closed when the program started"},
-		{"validate full", ">/dev/full", []string{"validate"}, 2, "cyclopair: standard output: write failed: no space left on device"},
-		{"screen full", ">/dev/full", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles, "--format", "csv"}, 2, "cyclopair: standard output: write failed: no space left on device"},
-		{"screen null", ">/dev/null", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 0, ""},
+		{"", []string{"orbitals", "C\x1b[2JC\x07"}, `C\x1b[2JC\x07: column 2: unexpected byte 0x1b`},
+		{"", []string{"orbitals", "CC\x00"}, `CC\x00: column 3`},
+		{"", []string{"draw", "C\x1b]0;pwned\x07C"}, `C\x1b]0;pwned\x07C: column 2`},
+		{"", []string{"pair", "--diene", "C=CC=C\x07", "--dienophile", "C=C"}, `C=CC=C\x07: column 7`},
+		{"", []string{"orbitals", "--params", "set\x1b[31m\x07", "C=C"}, `set\x1b[31m\x07: no such parameter set`},
+		{"", []string{"orbitals", "--params", "set\x00", "C=C"}, `set\x00: invalid argument`},
+		{"", []string{"orbitals", "--calibration", "cal\x1b[2J.yaml", "C=C"}, `cal\x1b[2J.yaml`},
+		{"C\x1b[2JC name\x07\n", []string{"orbitals", "-"}, `line 1, column 2`},
+		{"", []string{"orbitals", "--max-smiles-length", "300000", long}, "(input of 200000 characters)"},
 	} {
-		t.Run(tc.name, func(t *testing.T) {
-			if _, err := os.Stat("/dev/full"); err != nil && strings.Contains(tc.redirect, "full") {
-				t.Skip("no /dev/full")
+		_, errOut, _ := runCLI(t, tc.stdin, tc.args...)
+		for _, r := range errOut {
+			if r < 0x20 && r != '\n' || r == 0x7f || r >= 0x80 && r < 0xa0 {
+				t.Errorf("%q: raw control character %U on stderr: %q", tc.args, r, errOut)
+				break
 			}
-			cmd := exec.Command("/bin/sh", append([]string{"-c", `exec "$0" "$@" ` + tc.redirect, bin}, tc.args...)...)
-			var stderr bytes.Buffer
-			cmd.Stderr = &stderr
-			err := cmd.Run()
-			code := 0
-			var ee *exec.ExitError
-			if errors.As(err, &ee) {
-				code = ee.ExitCode()
-			} else if err != nil {
-				t.Fatal(err)
+		}
+		if !strings.Contains(errOut, tc.want) {
+			t.Errorf("%q: stderr %q lacks %q", tc.args, errOut, tc.want)
+		}
+		for _, l := range strings.Split(errOut, "\n") {
+			if len(l) > 400 {
+				t.Errorf("%q: stderr line of %d bytes: %.200q…", tc.args, len(l), l)
 			}
-			lines := strings.Split(strings.TrimSuffix(stderr.String(), "\n"), "\n")
-			if tc.want == "" {
-				if code != 0 || stderr.Len() != 0 {
-					t.Errorf("exit %d, stderr %q; want 0 and nothing", code, stderr.String())
-				}
-				return
-			}
-			if code != tc.code || len(lines) != 1 || !strings.HasPrefix(lines[0], tc.want) {
-				t.Errorf("exit %d, stderr %q; want %d and one line %q…", code, stderr.String(), tc.code, tc.want)
-			}
-		})
+		}
 	}
 }
 
-// TestReliabilityReproducers holds the in-process reproducers of issue 14: each gives the
-// documented exit code and a one-line error (checked: the first stderr line starts with
-// "cyclopair: " and contains want; no "goroutine" trace), or completes with the checks in
-// check.
-func TestReliabilityReproducers(t *testing.T) {
-	dir := t.TempDir()
-	write := func(name, body string) string {
-		p := filepath.Join(dir, name)
-		if err := os.WriteFile(p, []byte(body), 0o644); err != nil {
-			t.Fatal(err)
+// TestStdinByteOrderMark: a UTF-8 byte-order mark at the start of 'orbitals -' input (as
+// some editors write) is skipped instead of being reported as a bad SMILES.
+func TestStdinByteOrderMark(t *testing.T) {
+	out, errOut, code := runCLI(t, "\ufeffC=CC=C butadiene\nC=CC=O acrolein\n", "orbitals", "-", "--format", "csv")
+	if code != exitOK || !strings.Contains(out, "\nC=CC=C,butadiene,") || !strings.Contains(out, "\nC=CC=O,acrolein,") {
+		t.Errorf("exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	// Only the first line may carry one: a BOM later is a bad character, reported.
+	_, errOut, code = runCLI(t, "C=CC=C\n\ufeffC=CC=O\n", "orbitals", "-")
+	if code != exitPartial || !strings.Contains(errOut, `line 2, column 1: unexpected byte 0xef`) || !strings.Contains(errOut, `\ufeffC=CC=O`) {
+		t.Errorf("BOM on line 2: exit %d, stderr %q", code, errOut)
+	}
+}
+
+// TestLeftOutAtomsAreReported: unsupported metal atoms and extra fragments used to pass
+// silently (issue 14); they now give warnings on stderr, and a metal alone is refused with
+// the reason.
+func TestLeftOutAtomsAreReported(t *testing.T) {
+	for _, tc := range []struct {
+		args []string
+		code int
+		want string
+	}{
+		{[]string{"orbitals", "[Fe]"}, exitUsage, "cyclopair: [Fe]: no π system, nothing to compute: atom 0 (Fe, column 1): no π parameters for Fe"},
+		{[]string{"draw", "[Fe]"}, exitUsage, "no π system, nothing to draw: atom 0 (Fe, column 1)"},
+		{[]string{"orbitals", "C=C[Fe]"}, exitOK, "cyclopair: C=C[Fe]: warning: atom 2 (Fe, column 4): no π parameters for Fe"},
+		{[]string{"orbitals", "C=CC=O.[Al](Cl)(Cl)Cl"}, exitOK, "--activate lewis"},
+		{[]string{"orbitals", "C=C.C=CC=C"}, exitOK, "warning: the input has 2 separate molecules with π systems"},
+		{[]string{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=[N+]1CCCC1.[Cl-]", "--format", "json"}, exitOK, ""},
+	} {
+		out, errOut, code := runCLI(t, "", tc.args...)
+		if code != tc.code || !strings.Contains(errOut, tc.want) {
+			t.Errorf("%q: exit %d (want %d), stderr %q lacks %q", tc.args, code, tc.code, errOut, tc.want)
 		}
-		return p
+		if tc.args[0] == "pair" && !strings.Contains(out, "the part at column 17 ([Cl-]) has no π centres and is left out") {
+			t.Errorf("%q: the counter-ion warning is not among the pair's warnings: %.400s", tc.args, out)
+		}
 	}
-	fifo := filepath.Join(dir, "fifo.yaml")
-	if err := syscall.Mkfifo(fifo, 0o600); err != nil {
-		t.Fatal(err)
-	}
-	dienophiles := write("e.csv", "acrolein,C=CC=O\n")
-	// Calibration files: one fitted file (from the committed fixture) and broken copies.
-	calOut, calErr, code := runCLI(t, "", "calibrate", "testdata/calibrate/data.yaml", "--out", filepath.Join(dir, "cal.yaml"))
-	if code != exitPartial && code != exitOK {
-		t.Fatalf("calibrate: exit %d: %s%s", code, calOut, calErr)
-	}
-	calText, err := os.ReadFile(filepath.Join(dir, "cal.yaml"))
+}
+
+// TestAbsurdCalibration: a calibration file with numbers outside their physical ranges
+// (issue 14: ±1e308 coefficients, r² = 5, n = −3) is refused instead of printing
+// 310-digit figures.
+func TestAbsurdCalibration(t *testing.T) {
+	good, err := os.ReadFile("testdata/calibrate/out.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	cal := string(calText)
-	calWith := func(name, old, new string) string {
-		re := regexp.MustCompile(old)
-		if !re.MatchString(cal) {
-			t.Fatalf("calibration fixture has no %q", old)
+	dir := t.TempDir()
+	for _, tc := range []struct{ name, old, new, want string }{
+		{"huge slope", "slope: -4.231225", "slope: -1e308", "occupied-level slope -1e+308 is outside -10…-0.1"},
+		{"huge intercept", "intercept: -2.212106", "intercept: 1e308", "empty-level intercept 1e+308"},
+		{"r2 = 5", "\nr2: 0.865599", "\nr2: 5", "r² 5 is outside 0…1"},
+		{"n = -3", "\nn: 8", "\nn: -3", "N = -3 is negative"},
+	} {
+		src := strings.Replace(string(good), tc.old, tc.new, 1)
+		if src == string(good) {
+			t.Fatalf("%s: %q not in the calibration file", tc.name, tc.old)
 		}
-		return write(name, re.ReplaceAllString(cal, new))
-	}
-	tooBigSlope := calWith("slope.yaml", `slope: -[0-9.]+`, "slope: -1e308")
-	hugeIntercept := calWith("intercept.yaml", `intercept: -[0-9.]+`, "intercept: 1e308")
-	r2 := calWith("r2.yaml", `(?m)^r2: .*$`, "r2: 5")
-	negN := calWith("n.yaml", `(?m)^n: .*$`, "n: -3")
-	paramsOut, _, _ := runCLI(t, "", "params", "show", "vancatledge1980", "--format", "yaml")
-	bomParams := write("bom-params.yaml", "\uFEFF"+paramsOut)
-	bomCal := write("bom-cal.yaml", "\uFEFF"+cal)
-
-	cases := []struct {
-		name  string
-		stdin string
-		args  []string
-		code  int
-		want  string               // in the first stderr line ("" = nothing on stderr)
-		check func(out, errOut string) // optional further checks
-	}{
-		{name: "CSV unterminated quote resynchronises",
-			args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles, "--dienes",
-				write("quote.csv", "name,smiles\nbutadiene,C=CC=C\n\"broken,C=CC(C)=C\nisoprene,C=CC(C)=C\n\"bad\"x,C=C\npiperylene,C=CC=CC\n")},
-			code: exitPartial, want: "quote.csv: 3:",
-			check: func(out, errOut string) {
-				for _, n := range []string{"butadiene", "isoprene", "piperylene"} {
-					if !strings.Contains(out, n) {
-						t.Errorf("row %s lost after the bad quote", n)
-					}
-				}
-				if !strings.Contains(errOut, "quote.csv: 5:") {
-					t.Errorf("second bad row (line 5) not listed: %q", errOut)
-				}
-			}},
-		{name: "BOM in a CSV list", args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles,
-			"--dienes", write("bom.csv", "\uFEFFname,smiles\nbutadiene,C=CC=C\n")}, code: exitOK},
-		{name: "BOM in a substrate file", args: []string{"screen", write("bom.yaml",
-			"\uFEFFdienes:\n  - {name: b, smiles: C=CC=C}\ndienophiles:\n  - {name: e, smiles: C=C}\n")}, code: exitOK},
-		{name: "BOM in a parameter file", args: []string{"orbitals", "C=C", "--params", bomParams}, code: exitOK},
-		{name: "BOM in a calibration file", args: []string{"orbitals", "C=C", "--calibration", bomCal}, code: exitOK},
-		{name: "FIFO as --params", args: []string{"orbitals", "C=C", "--params", fifo}, code: exitUsage, want: "named pipe (FIFO)"},
-		{name: "FIFO as params_file", args: []string{"screen", write("pf.yaml", "params_file: fifo.yaml\ndienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n")},
-			code: exitUsage, want: "params_file: " + fifo + ": cannot use as parameter file: not a regular file, it is a named pipe (FIFO)"},
-		{name: "directory as --calibration", args: []string{"orbitals", "C=C", "--calibration", dir}, code: exitUsage, want: "it is a directory"},
-		{name: "device as --params", args: []string{"orbitals", "C=C", "--params", os.DevNull}, code: exitUsage, want: "character device"},
-		{name: "another file as params: is not quoted", args: []string{"screen", write("p2.yaml", "params: "+write("secret.txt", "s3cr3t-token-line\nmore\n")+"\ndienes: [{smiles: C=CC=C}]\ndienophiles: [{smiles: C=C}]\n")},
-			code: exitUsage, want: "not a parameter file: the top level is not a YAML mapping",
-			check: func(_, errOut string) {
-				if strings.Contains(errOut, "s3cr3t") {
-					t.Errorf("error quotes the other file: %q", errOut)
-				}
-			}},
-		{name: "calibration slope 1e308", args: []string{"orbitals", "C=C", "--calibration", tooBigSlope}, code: exitUsage, want: "outside the physical range −10 … −0.5"},
-		{name: "calibration intercept 1e308", args: []string{"orbitals", "C=C", "--calibration", hugeIntercept}, code: exitUsage, want: "outside the physical range -20 … +10 eV"},
-		{name: "calibration r2 5", args: []string{"orbitals", "C=C", "--calibration", r2}, code: exitUsage, want: "r2: 5 is outside [0, 1]"},
-		{name: "calibration n -3", args: []string{"orbitals", "C=C", "--calibration", negN}, code: exitUsage, want: "n: -3 points; a fit needs at least 2"},
-		{name: "usage error is one line", args: []string{"pair", "--bogus"}, code: exitUsage, want: "unknown flag: --bogus (run 'cyclopair pair --help' for usage)",
-			check: func(_, errOut string) {
-				if strings.Count(errOut, "\n") != 1 {
-					t.Errorf("usage error takes %d lines: %q", strings.Count(errOut, "\n"), errOut)
-				}
-			}},
-		{name: "CSV formula cells neutralised, numbers kept", args: []string{"screen", "--format", "csv", "--dienophiles", dienophiles,
-			"--dienes", write("formula.csv", "=HYPERLINK(1),C=CC=C\n+1,C=CC(C)=C\n-x,C=CC=CC\n@SUM(A1),C=C(C)C(C)=C\nplain,C1=CCC=C1\n")},
-			code: exitOK,
-			check: func(out, _ string) {
-				recs, err := csvRecords([]byte(out))
-				if err != nil {
-					t.Fatal(err)
-				}
-				for _, r := range recs[1:] {
-					if name := r[2]; strings.ContainsRune("=+-@", rune(name[0])) {
-						t.Errorf("name cell %q starts a formula", name)
-					}
-					if r[2] != "plain" && r[2][0] != '\'' {
-						t.Errorf("name cell %q lost its apostrophe", r[2])
-					}
-				}
-				// numeric cells keep a leading minus (gap_normal of no row is negative, so
-				// check the regio margin field format only: a number, never quoted)
-				for _, r := range recs[1:] {
-					if _, err := strconv.ParseFloat(r[9], 64); err != nil {
-						t.Errorf("gap_beta %q is not a number", r[9])
-					}
-				}
-			}},
-		{name: "control characters escaped in the table and on stderr", args: []string{"screen", "--dienophiles", dienophiles,
-			"--dienes", write("ctl.csv", "bad\x1b[31mname\x07,C=CC=C\nx,C=C\x1bC\n")}, code: exitUsage, want: "ctl.csv: 1:",
-			check: func(out, errOut string) {
-				if strings.ContainsAny(out+errOut, "\x1b\x07") {
-					t.Errorf("raw ESC/BEL reached the terminal: %q / %q", out, errOut)
-				}
-				if !strings.Contains(errOut, `\x1b`) {
-					t.Errorf("escaped ESC missing from stderr: %q", errOut)
-				}
-			}},
-		{name: "control characters in a name escaped in the table", args: []string{"pair", "--diene", "C=CC=C", "--dienophile", "C=CC=O",
-			"--params", write("ctl-params.yaml", "name: \"set\\e[31m\\a\"\nbase: vancatledge1980\n")}, code: exitOK,
-			check: func(out, errOut string) {
-				if strings.ContainsAny(out+errOut, "\x1b\x07") {
-					t.Errorf("raw ESC/BEL reached the terminal: %q / %q", out, errOut)
-				}
-			}},
-	}
-	for _, tc := range cases {
-		t.Run(tc.name, func(t *testing.T) {
-			out, errOut, code := runCLI(t, tc.stdin, tc.args...)
-			if code != tc.code {
-				t.Errorf("exit %d, want %d (stderr %q)", code, tc.code, errOut)
-			}
-			if strings.Contains(errOut, "goroutine ") || strings.Contains(errOut, "panic") {
-				t.Fatalf("trace on stderr: %q", errOut)
-			}
-			if tc.want != "" {
-				first, _, _ := strings.Cut(errOut, "\n")
-				if !strings.HasPrefix(first, "cyclopair: ") || !strings.Contains(first, tc.want) {
-					t.Errorf("first stderr line %q, want cyclopair: …%s…", first, tc.want)
-				}
-			}
-			if tc.check != nil {
-				tc.check(out, errOut)
-			}
-		})
+		file := filepath.Join(dir, strings.ReplaceAll(tc.name, " ", "_")+".yaml")
+		if err := os.WriteFile(file, []byte(src), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		out, errOut, code := runCLI(t, "", "orbitals", "--calibration", file, "C=C")
+		checkOneLineError(t, tc.name, out, errOut, code, tc.want)
 	}
 }

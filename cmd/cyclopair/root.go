@@ -11,6 +11,8 @@ import (
 	"sync/atomic"
 	"syscall"
 
+	"cyclopair/huckel/errtext"
+
 	"github.com/spf13/cobra"
 
 	"cyclopair/cmd/cyclopair/internal/render"
@@ -198,8 +200,19 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		// one line, the hint in the rule's "(<hint>)" place
 		msg += fmt.Sprintf(" (run '%s --help' for usage)", strings.TrimSpace("cyclopair "+commandPath(root, args)))
 	}
-	fmt.Fprintf(stderr, "cyclopair: %s\n", msg)
+	fmt.Fprintf(stderr, "cyclopair: %s\n", escapeLines(msg))
 	return exitUsage
+}
+
+// escapeLines makes control characters in an error message visible (errtext.Escape), line
+// by line, so that no input echoed in a message — a flag value, a file name, a name read
+// from a file — can drive the terminal; the line breaks of a SMILES excerpt are kept.
+func escapeLines(msg string) string {
+	lines := strings.Split(msg, "\n")
+	for i, l := range lines {
+		lines[i] = errtext.Escape(l)
+	}
+	return strings.Join(lines, "\n")
 }
 
 // isCobraUsage recognises cobra's own argument errors (unknown command, wrong arg count).

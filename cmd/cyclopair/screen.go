@@ -39,7 +39,9 @@ type screenOptions struct {
 	workers        int
 	shard          string
 	// changed records which flags the user set (they override the substrate file).
-	changed func(name string) bool
+	changed     func(name string) bool
+	rateModel   string  // --rate-model FILE
+	temperature float64 // --temperature °C for the isomer shares
 }
 
 func newScreenCmd(s *streams) *cobra.Command {
@@ -54,9 +56,10 @@ screening kernel, ranked, and only the rows printed get the full analysis (produ
 warnings).
 
 Gaps and margins are in units of |β| (E = α + xβ, β < 0) and gaps also in eV through the
-calibration named in the header. Ranking keys: normal_gap (LUMO(dienophile) − HOMO(diene),
-smallest first; the default), gap (controlling gap), stabilization, regio_margin, score
-(larger first), none (pair order of the input, streamed).
+calibration named in the header. Ranking keys: rate (the default: predicted log10 k relative
+to cyclopentadiene + acrylonitrile from the fitted model of 'cyclopair validate', fastest
+first), normal_gap (LUMO(dienophile) − HOMO(diene), smallest first), gap (controlling gap),
+stabilization, regio_margin, score (larger first), none (pair order of the input, streamed).
 
 Instead of (or on top of) a YAML file, --dienes and --dienophiles read CSV (name,smiles) or
 plain files (one SMILES per line, optionally followed by a name). Command-line flags override
@@ -99,7 +102,8 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.amine, "amine", "", "`SMILES` of the secondary amine for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
-	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
+	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: rate (predicted rate, fastest first), normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else rate)")
+	addRateFlags(f, &o.rateModel, &o.temperature)
 	f.IntVar(&o.top, "top", 0, "print only the best `K` rows (0: all; default: the file's)")
 	f.StringVar(&o.demand, "demand", "", "keep only pairs of this `demand`: normal, inverse, neutral, any")
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
@@ -176,6 +180,10 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		return &inputError{err}
 	}
 	lib := cfg.Library
+	if cfg.RateModel, err = loadRateModel(o.rateModel); err != nil {
+		return err
+	}
+	cfg.TemperatureC = o.temperature
 	// From here on a signal stops the work and the rows already complete are flushed.
 	s.cancellable.Store(true)
 	defer s.cancellable.Store(false)

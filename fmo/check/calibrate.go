@@ -451,18 +451,6 @@ func LoadCalibrationFile(r io.Reader, filename string) (*LoadedCalibration, erro
 		if *m.v.Slope >= 0 {
 			return nil, fail(fmt.Sprintf("%s: slope %g must be negative (x > 0 is bonding: orbital energies fall as x grows)", m.key, *m.v.Slope), m.key, "slope")
 		}
-		if s := -*m.v.Slope; s < CalSlopeMin || s > CalSlopeMax {
-			return nil, fail(fmt.Sprintf("%s: slope %g eV/|β| is outside the physical range −%g … −%g (|β| of π systems is about 2–3 eV)", m.key, *m.v.Slope, CalSlopeMax, CalSlopeMin), m.key, "slope")
-		}
-		if b := *m.v.Intercept; b < CalInterceptMin || b > CalInterceptMax {
-			return nil, fail(fmt.Sprintf("%s: intercept %g eV is outside the physical range %g … %+g eV (orbital energy at x = 0, near −IE or −EA of a carbon 2p orbital)", m.key, b, CalInterceptMin, CalInterceptMax), m.key, "intercept")
-		}
-		if err := calStats(fail, m.v.N, m.v.R2, m.v.RMSE, m.key); err != nil {
-			return nil, err
-		}
-	}
-	if err := calStats(fail, f.N, f.R2, f.RMSE); err != nil {
-		return nil, err
 	}
 	c := huckel.Calibration{
 		Name: f.Name, Source: f.Source,
@@ -480,38 +468,6 @@ var calibrationFileKeys = map[string][]string{
 	"homo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
 	"lumo":     {"intercept", "slope", "n", "r2", "rmse_eV"},
 	"points[]": {"id", "name", "smiles", "level", "x", "energy_eV", "fit_eV", "residual_eV"},
-}
-
-// Physical ranges of a loaded calibration E(eV) = intercept + slope·x (issue 14). The slope
-// is β in eV: published Hückel fits of ionisation energies give |β| of about 2–3 eV
-// (Streitwieser, Molecular Orbital Theory for Organic Chemists, 1961, ch. 7; from memory), so
-// 0.5–10 eV/|β| only rules out nonsense. The intercept is α-like: −IE or −EA of a carbon 2p
-// orbital, about −11 … 0 eV; −20 … +10 eV leaves room for heteroatom-rich fits. r² is a
-// fraction; a fit needs at least two points; an RMSE is a non-negative spread of at most
-// maxCalRMSE eV (a wider one is no calibration). Common practice, no source, for the bounds.
-const (
-	CalSlopeMin     = 0.5
-	CalSlopeMax     = 10.0
-	CalInterceptMin = -20.0
-	CalInterceptMax = 10.0
-	maxCalRMSE      = 10.0
-)
-
-// calStats checks the fit statistics of a calibration file (top level or one map): n ≥ 2
-// when given, r² in [0, 1], rmse_eV in [0, maxCalRMSE]; zero values mean "not given".
-func calStats(fail func(string, ...string) error, n int, r2, rmse float64, at ...string) error {
-	key := func(k string) []string { return append(append([]string(nil), at...), k) }
-	name := func(k string) string { return strings.Join(key(k), ".") }
-	if n != 0 && n < 2 {
-		return fail(fmt.Sprintf("%s: %d points; a fit needs at least 2", name("n"), n), key("n")...)
-	}
-	if !calFinite(r2) || r2 < 0 || r2 > 1 {
-		return fail(fmt.Sprintf("%s: %g is outside [0, 1] (r² is a fraction of variance)", name("r2"), r2), key("r2")...)
-	}
-	if !calFinite(rmse) || rmse < 0 || rmse > maxCalRMSE {
-		return fail(fmt.Sprintf("%s: %g eV is outside [0, %g] eV", name("rmse_eV"), rmse, maxCalRMSE), key("rmse_eV")...)
-	}
-	return nil
 }
 
 func calFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
