@@ -13,6 +13,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo/check"
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
 
@@ -277,6 +278,9 @@ func resolveCalibration(s *streams, spec string, p *huckel.Params) (huckel.Calib
 	lc, err := check.LoadCalibrationFile(f, spec)
 	if err != nil {
 		return huckel.Calibration{}, &inputError{err}
+	}
+	if err := lc.Calibration.Check(); err != nil { // physical ranges (the loader checks syntax and signs)
+		return huckel.Calibration{}, &inputError{fmt.Errorf("%s: %v (refit with 'cyclopair calibrate DATA.yaml --out %s')", errtext.Clip(spec), err, errtext.Clip(spec))}
 	}
 	if lc.Params != "" && lc.Params != p.Name {
 		fmt.Fprintf(s.err, "cyclopair: warning: calibration %s was fitted with parameter set %s and is used with %s: its eV figures may be off (refit with 'cyclopair calibrate --params %s')\n",

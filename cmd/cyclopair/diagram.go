@@ -20,6 +20,7 @@ type diagramOptions struct {
 	params            string
 	calibration       string
 	out               string
+	limits            inputLimits
 }
 
 func newDiagramCmd(s *streams) *cobra.Command {
@@ -42,6 +43,9 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 			if o.diene == "" || o.dienophile == "" {
 				return &usageError{errors.New("give both --diene and --dienophile")}
 			}
+			if err := o.limits.check(); err != nil {
+				return err
+			}
 			return runDiagram(s, o)
 		},
 	}
@@ -53,6 +57,7 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out'")
 	f.StringVarP(&o.out, "output", "o", "", "write the SVG to `FILE` instead of stdout")
 	_ = cmd.MarkFlagFilename("output", "svg")
+	o.limits.flags(cmd, false)
 	return cmd
 }
 
@@ -78,11 +83,11 @@ func runDiagram(s *streams, o *diagramOptions) error {
 	if len(modes) == 0 {
 		modes = []string{fmo.ActivateNone}
 	}
-	d, err := pairPartner(o.diene, fmo.RoleDiene, opts)
+	d, err := pairPartner(o.diene, fmo.RoleDiene, opts, &o.limits)
 	if err != nil {
 		return err
 	}
-	e, err := pairPartner(o.dienophile, fmo.RoleDienophile, opts)
+	e, err := pairPartner(o.dienophile, fmo.RoleDienophile, opts, &o.limits)
 	if err != nil {
 		return err
 	}

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 
@@ -19,6 +20,7 @@ type orbitalsOptions struct {
 	omega       float64 // ω-technique constant; used when omegaSet
 	omegaSet    bool
 	calibration string // default, or a file from 'cyclopair calibrate --out'
+	limits      inputLimits
 }
 
 func newOrbitalsCmd(s *streams) *cobra.Command {
@@ -52,6 +54,9 @@ Results are estimates for planning, not safety assessments.`,
 			if opts.omegaSet && (opts.omega < 0 || opts.omega > 5) {
 				return &usageError{fmt.Errorf("--omega %g: want a value between 0 and 5 (typical 1.4)", opts.omega)}
 			}
+			if err := opts.limits.check(); err != nil {
+				return err
+			}
 			for _, a := range args {
 				if a == "-" && len(args) > 1 {
 					return &usageError{errors.New("'-' (read stdin) cannot be combined with SMILES arguments")}
@@ -65,6 +70,7 @@ Results are estimates for planning, not safety assessments.`,
 	_ = cmd.RegisterFlagCompletionFunc("params", completeParams)
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
 	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
+	opts.limits.flags(cmd, true)
 	return cmd
 }
 
@@ -98,7 +104,7 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 			return nil
 		}
 		for _, w := range res.orb.Warnings {
-			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", in.smiles, w)
+			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", errtext.Clip(in.smiles), w)
 		}
 		return out.write(res)
 	}
@@ -108,7 +114,11 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		line := 0
 		for sc.Scan() {
 			line++
-			text := strings.TrimSpace(sc.Text())
+			text := sc.Text()
+			if line == 1 {
+				text = strings.TrimPrefix(text, "\ufeff") // a byte-order mark from an editor
+			}
+			text = strings.TrimSpace(text)
 			if text == "" || strings.HasPrefix(text, "#") {
 				continue
 			}
@@ -158,11 +168,11 @@ type orbitalsResult struct {
 // "<SMILES>: [line N, ]<position>: <what> (<hint>)", with the SMILES excerpt and caret on
 // the following lines for syntax errors.
 func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver *huckel.Solver) (*orbitalsResult, error) {
-	where := in.smiles
+	where := errtext.Clip(in.smiles)
 	if in.line > 0 {
-		where = fmt.Sprintf("%s: line %d", in.smiles, in.line)
+		where = fmt.Sprintf("%s: line %d", where, in.line)
 	}
-	m, err := smiles.Parse(in.smiles)
+	m, err := opts.limits.parse(in.smiles)
 	if err != nil {
 		var se *smiles.Error
 		if errors.As(err, &se) {
@@ -170,20 +180,20 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 			if in.line > 0 {
 				sep = ", "
 			}
-			return nil, fmt.Errorf("%s%s%s\n%s", where, sep, se.Error(), indent(se.Excerpt()))
+			return nil, fmt.Errorf("%s%s%s%s", where, sep, se.Error(), excerptLines(se))
 		}
 		return nil, fmt.Errorf("%s: %v", where, err)
 	}
 	m.Name = in.name
-	ps, err := huckel.Perceive(m, p)
+	ps, err := opts.limits.perceive(m, p)
 	if err != nil {
-		return nil, fmt.Errorf("%s: %v", where, err)
+		return nil, fmt.Errorf("%s: %w", where, err)
 	}
 	if opts.omegaSet {
 		ps.Omega = opts.omega
 	}
 	if len(ps.Centres) == 0 {
-		return nil, fmt.Errorf("%s: no π system (no conjugated atoms found; nothing to compute)", where)
+		return nil, fmt.Errorf("%s: %s", where, noPiSystem(ps, "compute"))
 	}
 	o := new(huckel.Orbitals)
 	if err := solver.Solve(ps, o); err != nil {
@@ -196,4 +206,23 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 // indent prefixes every line of s with two spaces (the SMILES excerpt under an error).
 func indent(s string) string {
 	return "  " + strings.ReplaceAll(s, "\n", "\n  ")
+}
+
+// excerptLines is the indented excerpt with caret that follows a SMILES error line, or
+// nothing for an over-long input (its error line says everything; an excerpt would only
+// show 100 characters of the middle of it).
+func excerptLines(se *smiles.Error) string {
+	if errors.Is(se, smiles.ErrTooLong) {
+		return ""
+	}
+	return "\n" + indent(se.Excerpt())
+}
+
+// noPiSystem is the message for a molecule without π centres, naming what perception
+// left out (a metal atom, say) when it warned about it.
+func noPiSystem(ps *huckel.PiSystem, verb string) string {
+	if len(ps.Warnings) > 0 {
+		return fmt.Sprintf("no π system, nothing to %s: %s", verb, ps.Warnings[0])
+	}
+	return fmt.Sprintf("no π system (no conjugated atoms found; nothing to %s)", verb)
 }

@@ -8,7 +8,7 @@ import (
 	"strings"
 
 	"cyclopair/fmo"
-	"cyclopair/huckel/smiles"
+	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -26,6 +26,7 @@ type pairOptions struct {
 	svg               string  // --svg FILE: also write the energy-level diagram (diagram.go)
 	lewisH            float64 // --lewis-h: h(O=LA) for --activate lewis (0 = the parameter set's)
 	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
+	limits            inputLimits
 }
 
 func newPairCmd(s *streams) *cobra.Command {
@@ -85,6 +86,9 @@ and local rules before any lab work.`,
 			if c.Flags().Changed("lewis-h") && (!slices.Contains(opts.activate, fmo.ActivateLewis) || !(opts.lewisH > 0 && opts.lewisH <= 5)) {
 				return &usageError{fmt.Errorf("--lewis-h %g: needs --activate lewis and a value in (0, 5] (h of the Lewis-acid-bound carbonyl O; free C=O 1.0, protonated 2.5)", opts.lewisH)}
 			}
+			if err := opts.limits.check(); err != nil {
+				return err
+			}
 			return runPair(s, opts)
 		},
 	}
@@ -100,6 +104,7 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
+	opts.limits.flags(cmd, false)
 	return cmd
 }
 
@@ -112,17 +117,17 @@ func runPair(s *streams, opts *pairOptions) error {
 	fo := fmo.NewOptions(p, cal, cal.Name)
 	fo.ChargeTerm = opts.chargeTerm
 	fo.AllOrbitals = opts.allOrbitals
-	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo)
+	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo, &opts.limits)
 	if err != nil {
 		return err
 	}
-	dienophile, err := pairPartner(opts.dienophile, fmo.RoleDienophile, fo)
+	dienophile, err := pairPartner(opts.dienophile, fmo.RoleDienophile, fo, &opts.limits)
 	if err != nil {
 		return err
 	}
 	var act *fmo.ActivateOptions
 	if opts.amine != "" {
-		am, err := smiles.Parse(opts.amine)
+		am, err := opts.limits.parse(opts.amine)
 		if err != nil {
 			return smilesErr(opts.amine, err)
 		}
@@ -161,7 +166,7 @@ func runPair(s *streams, opts *pairOptions) error {
 	for _, v := range variants {
 		if v.Err != nil {
 			failed++
-			err := fmt.Errorf("%s: --activate %s: %v", opts.dienophile, v.Mode, v.Err)
+			err := fmt.Errorf("%s: --activate %s: %v", errtext.Clip(opts.dienophile), v.Mode, v.Err)
 			if firstErr == nil {
 				firstErr = err
 			}
@@ -206,9 +211,9 @@ func runPair(s *streams, opts *pairOptions) error {
 
 // pairPartner reads one partner; errors come back in the CLI's one-line form naming the SMILES.
 // The value may be a built-in substrate name (presets.Substrates, as for 'cyclopair draw') instead of a SMILES.
-func pairPartner(v string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) {
+func pairPartner(v string, role fmo.Role, o *fmo.Options, lim *inputLimits) (*fmo.Partner, error) {
 	name, smi := partnerInput(v)
-	m, err := smiles.Parse(smi)
+	m, err := lim.parse(smi)
 	if err != nil {
 		return nil, smilesErr(smi, err)
 	}
@@ -220,9 +225,9 @@ func pairPartner(v string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) 
 	if err != nil {
 		var se *fmo.SiteError
 		if errors.As(err, &se) {
-			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, role, pairSiteMessage(se))}
+			return nil, &inputError{fmt.Errorf("%s: %s: %v", errtext.Clip(smi), role, pairSiteMessage(se))}
 		}
-		return nil, &inputError{fmt.Errorf("%s: %v", smi, strings.TrimPrefix(err.Error(), smi+": "))}
+		return nil, &inputError{fmt.Errorf("%s: %v", errtext.Clip(smi), strings.TrimPrefix(err.Error(), smi+": "))}
 	}
 	pt.SMILES = smi
 	return pt, nil
