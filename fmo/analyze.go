@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"slices"
 	"strings"
+
+	"cyclopair/huckel/molecule"
 )
 
 // Analyze analyses one 4π partner against one 2π partner over every pair of candidate
@@ -49,10 +51,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    int // index into keys, to tell identical adducts apart from different ones
 	}
 	var cands []cand
-	var keys productKeys
 	for di, du := range diene.Units {
 		dd := &diene.data[di]
 		if !dd.ok {
@@ -76,8 +76,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 				if s.firstOrder {
 					method = "first-order"
 				}
-				c := cand{s: s, di: di, ei: ei, or: or, product: len(keys.mols)}
-				keys.add(pm)
+				c := cand{s: s, di: di, ei: ei, or: or}
 				c.o = Orientation{
 					Site:            siteName(diene, du, dienophile, eAtoms),
 					DieneAtoms:      dAtoms,
@@ -122,6 +121,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		Dienophile:          dienophile.SMILES,
 		Activation:          dienophile.Activation,
 		Params:              opts.Params.Name,
+		Method:              diene.Orb.Method,
 		Calibration:         opts.CalibrationName,
 		CalibrationDetail:   opts.calibrationDetail(),
 		FormingBeta:         opts.FormingBeta,
@@ -148,7 +148,16 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		pair.Orientations = append(pair.Orientations, cands[i].o)
 	}
 
-	// Margins.
+	// Margins. Canonical keys tell identical adducts apart from different ones; they are
+	// computed only for the candidates the margins look at (best, its other orientation, and
+	// those ahead of the first different adduct), and only where a graph invariant cannot
+	// already tell two adducts apart (productkey.go). Canonicalising every candidate cost
+	// O(n² log n) each for n atoms, O(n⁴ log n) per pair on a long polyene (issue 14).
+	keys := newProductKeys(len(cands), func(i int) *molecule.Molecule {
+		c := &cands[i]
+		pm, _ := buildProduct(diene, dienophile, c.di, c.ei, c.or)
+		return pm
+	})
 	for _, c := range cands[1:] {
 		if c.di == best.di && c.ei == best.ei {
 			pair.RegioMargin = best.s.score - c.s.score
@@ -156,14 +165,13 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		}
 	}
 	regioPartner := -1
-	for _, c := range cands {
+	for i, c := range cands {
 		if c.di == best.di && c.ei == best.ei && c.or != best.or {
-			regioPartner = c.product
+			regioPartner = i
 		}
 	}
-	for _, c := range cands[1:] {
-		if (c.di != best.di || c.ei != best.ei) && !keys.same(c.product, best.product) &&
-			(regioPartner < 0 || !keys.same(c.product, regioPartner)) {
+	for i, c := range cands[1:] {
+		if (c.di != best.di || c.ei != best.ei) && !keys.same(i+1, 0) && (regioPartner < 0 || !keys.same(i+1, regioPartner)) {
 			pair.SiteMargin = best.s.score - c.s.score
 			break
 		}
@@ -180,7 +188,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	default:
 		pair.RegioConfidence = "no preference"
 	}
-	if regioPartner >= 0 && keys.same(best.product, regioPartner) {
+	if regioPartner >= 0 && keys.same(0, regioPartner) {
 		pair.RegioConfidence = "no preference" // both orientations give the same adduct
 	}
 
@@ -241,7 +249,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 
 // ScoreFormula is the ranking formula, reported in every Pair.
 const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
-	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+	"frontier_term = Σ_pairings w_p·2(γΣ_bonds c_r c_s)²/gap over the reacting unit's frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|); " +
+	"w_p = 1 for the smaller gap, max(0, 1 − |gap_normal − gap_inverse|/demand_threshold) for the other"
 
 // endoDistinct reports whether endo and exo approaches of the 2π unit differ at all: some
 // terminus must carry exactly one conjugated substituent (a one-electron π centre outside

@@ -17,6 +17,8 @@ import "math"
 //     then Cauchy–Schwarz), in either orientation;
 //   - term(s, g) grows with s and falls with g (2s/g above g = √s, 2√s at and below it), so
 //     term(γ²·Hmax·Lmax, g_min) bounds each pairing;
+//   - the pairing weights are at most 1, and at most their value at the smallest gap
+//     difference where the boxes are clearly of one demand type;
 //   - the penalties and the charge term take their box extremes.
 // The score bounds carry a relative safety margin of 1e-9 against rounding.
 
@@ -109,6 +111,29 @@ func (q *QuickKernel) Bound(d, e *FrontierBox) QuickBound {
 	if k.chargeCoef != 0 {
 		ch = math.Abs(k.chargeCoef) * 2 * d.QAbs * e.QAbs
 	}
+	// The pairing weights (pairingWeights) are at most 1, and smaller where every pair of
+	// the boxes is clearly of one demand type: the minor pairing's weight falls with the
+	// gap difference, which the DemandDiff range bounds from below.
+	wN, wI := 1.0, 1.0
+	if !k.bothPairings {
+		lo, hi := r.DemandDiff[0], r.DemandDiff[1]
+		if k.demand <= 0 {
+			if lo > 0 {
+				wI = 0
+			}
+			if hi < 0 {
+				wN = 0
+			}
+		} else {
+			if lo >= 0 {
+				wI = max(0, 1-lo/k.demand)
+			}
+			if hi < 0 {
+				wN = max(0, 1-(-hi)/k.demand)
+			}
+		}
+	}
+	tN, tI = wN*tN, wI*tI
 	stab := tN + tI + ch
 	// penalty = locWeight·(loc_d + loc_e) + gapWeight·min(gN, gI), smallest possible value
 	locLo := d.Loc[0] + e.Loc[0]

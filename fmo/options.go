@@ -22,6 +22,14 @@ type Options struct {
 	// Calibration converts x to eV; CalibrationName names it in every Pair.
 	Calibration     EVScale
 	CalibrationName string
+	// NewMethod builds the π method that solves each partner (a new value per call: a
+	// huckel.Method keeps workspaces and serves one goroutine). nil means simple Hückel
+	// (huckel.Solver). Everything downstream reads the resulting huckel.Orbitals (levels
+	// on the x scale, coefficients, charges) and does not depend on the method; pair it
+	// with the method's eV map in Calibration (ppp.Params.Scale for PPP-SCF).
+	// The localisation energy stays a Hückel quantity under every method (see
+	// Partner.localization).
+	NewMethod func() huckel.Method
 
 	// FormingBeta γ is the resonance integral of each forming σ bond, in units of β.
 	// Default 0.3: the forming bonds of a cycloaddition transition state are long (about
@@ -85,7 +93,13 @@ type Options struct {
 
 	// DemandThreshold (|β|): |gap_normal − gap_inverse| below it is "neutral" (Sustmann
 	// type II). Default 0.15 |β| (about 0.4 eV with a 2.5–3 eV β; judgement, no source).
+	// It also weighs the two frontier pairings in the orbital term (see pairingWeights): the
+	// minor pairing (larger gap) counts with weight 1 − Δ/DemandThreshold, Δ = |gap_normal −
+	// gap_inverse|, and not at all once the demand is clear (type I or III).
 	DemandThreshold float64
+	// BothPairings counts both frontier pairings with full weight whatever the demand (the
+	// plain second-order sum). Off by default: see pairingWeights.
+	BothPairings bool
 
 	// Regio confidence from the relative margin between the two orientations at the
 	// preferred site, margin / frontier term of the best: at least RegioClear is "clear",
@@ -138,6 +152,18 @@ func NewOptions(p *huckel.Params, cal EVScale, calName string) *Options {
 	}
 }
 
+// method returns a new solver of the configured π method.
+func (o *Options) method() huckel.Method {
+	if o.NewMethod == nil {
+		return new(huckel.Solver)
+	}
+	return o.NewMethod()
+}
+
+// MethodName is the name of the configured π method (huckel.MethodHuckel or
+// huckel.MethodPPP).
+func (o *Options) MethodName() string { return o.method().Name() }
+
 // check panics on options that are programmer errors.
 func (o *Options) check() {
 	if o == nil || o.Params == nil {
@@ -150,7 +176,8 @@ func (o *Options) check() {
 
 func (o *Options) kernel() kernel {
 	k := kernel{gamma: o.FormingBeta, gammaS: o.SecondaryBeta, locWeight: o.LocalizationWeight,
-		g2: o.FormingBeta * o.FormingBeta, gapWeight: o.GapWeight, allOrbitals: o.AllOrbitals}
+		g2: o.FormingBeta * o.FormingBeta, gapWeight: o.GapWeight, allOrbitals: o.AllOrbitals,
+		demand: o.DemandThreshold, bothPairings: o.BothPairings}
 	if o.ChargeTerm && o.Dielectric > 0 && o.FormingDistance > 0 && o.BetaEV > 0 {
 		const coulombEVAngstrom = 14.3996 // e²/(4πε₀) in eV·Å (CODATA)
 		k.chargeCoef = coulombEVAngstrom / (o.Dielectric * o.FormingDistance) / o.BetaEV

@@ -18,24 +18,39 @@ import (
 // are those of comparing canonical SMILES throughout. The invariant ignores bond orders,
 // charges, hydrogens and aromaticity, so it is coarser than the canonical SMILES, never finer.
 
-// productKeys holds the adducts of one analysis and their keys, computed on demand.
+// productKeys holds the candidate adducts of one analysis, built, hashed and canonicalised
+// on demand.
 type productKeys struct {
-	mols []*molecule.Molecule
-	inv  []uint64
-	key  []string
-	done []bool
+	build   func(i int) *molecule.Molecule
+	mols    []*molecule.Molecule
+	inv     []uint64
+	invDone []bool
+	key     []string
+	keyDone []bool
 }
 
-func (p *productKeys) add(m *molecule.Molecule) {
-	p.mols = append(p.mols, m)
-	p.inv = append(p.inv, graphInvariant(m))
-	p.key = append(p.key, "")
-	p.done = append(p.done, false)
+func newProductKeys(n int, build func(i int) *molecule.Molecule) *productKeys {
+	return &productKeys{build: build, mols: make([]*molecule.Molecule, n), inv: make([]uint64, n),
+		invDone: make([]bool, n), key: make([]string, n), keyDone: make([]bool, n)}
+}
+
+func (p *productKeys) mol(i int) *molecule.Molecule {
+	if p.mols[i] == nil {
+		p.mols[i] = p.build(i)
+	}
+	return p.mols[i]
+}
+
+func (p *productKeys) invariant(i int) uint64 {
+	if !p.invDone[i] {
+		p.inv[i], p.invDone[i] = graphInvariant(p.mol(i)), true
+	}
+	return p.inv[i]
 }
 
 func (p *productKeys) canonical(i int) string {
-	if !p.done[i] {
-		p.key[i], p.done[i] = productKey(p.mols[i]), true
+	if !p.keyDone[i] {
+		p.key[i], p.keyDone[i] = productKey(p.mol(i)), true
 	}
 	return p.key[i]
 }
@@ -45,7 +60,7 @@ func (p *productKeys) same(i, j int) bool {
 	if i == j {
 		return true
 	}
-	if p.inv[i] != p.inv[j] {
+	if p.invariant(i) != p.invariant(j) {
 		return false
 	}
 	return p.canonical(i) == p.canonical(j)

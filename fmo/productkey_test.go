@@ -4,6 +4,7 @@ import (
 	"testing"
 
 	"cyclopair/fmo/internal/testsupport"
+	"cyclopair/huckel/molecule"
 )
 
 // The invariant pre-check never changes an answer of the canonical-SMILES comparison: for
@@ -26,21 +27,22 @@ func TestProductKeysAgreeWithCanonical(t *testing.T) {
 		d := mustPartner(t, ds, RoleDiene, o)
 		for _, es := range dphs {
 			e := mustPartner(t, es, RoleDienophile, o)
-			var keys productKeys
+			var built []*molecule.Molecule
 			for di := range d.Units {
 				for ei := range e.Units {
 					for or := range 2 {
 						pm, _ := buildProduct(d, e, di, ei, or)
-						keys.add(pm)
+						built = append(built, pm)
 					}
 				}
 			}
-			canon := make([]string, len(keys.mols))
-			for i, m := range keys.mols {
+			keys := newProductKeys(len(built), func(i int) *molecule.Molecule { return built[i] })
+			canon := make([]string, len(built))
+			for i, m := range built {
 				canon[i] = productKey(m)
 			}
-			for i := range keys.mols {
-				for j := range keys.mols {
+			for i := range built {
+				for j := range built {
 					want := canon[i] == canon[j]
 					if got := keys.same(i, j); got != want {
 						t.Errorf("%s + %s: adducts %d, %d: same = %v, canonical SMILES say %v", ds, es, i, j, got, want)

@@ -92,7 +92,7 @@ Not exact with --allowed-only, which the screen applies after the cut to K.`,
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&rankBy, "rank-by", "", "ranking `key` the shards used (default normal_gap)")
+	f.StringVar(&rankBy, "rank-by", "", "ranking `key` the shards used (default: the screen's default, rate)")
 	f.IntVar(&top, "top", 0, "keep the best `K` rows (0: all)")
 	f.StringVar(&params, "params", "", "parameter set `name` or YAML file the shards used (default "+presets.DefaultParams+")")
 	f.StringVar(&calibration, "calibration", "", "x → eV calibration the shards used (`file`; ranks do not depend on it)")

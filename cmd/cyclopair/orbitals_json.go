@@ -116,6 +116,8 @@ func appendOrbitalsJSON(b []byte, j *orbitalsJSON) []byte {
 	}
 	b = append(b, `,"params":`...)
 	b = appendString(b, j.Params)
+	b = append(b, `,"method":`...)
+	b = appendString(b, j.Method)
 	b = append(b, `,"electrons":`...)
 	b = strconv.AppendInt(b, int64(j.Electrons), 10)
 	b = append(b, `,"pi_energy":`...)
@@ -145,6 +147,10 @@ func appendOrbitalsJSON(b []byte, j *orbitalsJSON) []byte {
 	if j.Iterations != 0 {
 		b = append(b, `,"omega_iterations":`...)
 		b = strconv.AppendInt(b, int64(j.Iterations), 10)
+	}
+	if j.SCFCycles != 0 {
+		b = append(b, `,"scf_cycles":`...)
+		b = strconv.AppendInt(b, int64(j.SCFCycles), 10)
 	}
 	b = append(b, `,"levels":`...)
 	if j.Levels == nil {

@@ -21,7 +21,7 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var solver huckel.Solver
+	solver := new(huckel.Solver)
 	check := func(j orbitalsJSON) {
 		t.Helper()
 		want, err := json.Marshal(j)
@@ -38,14 +38,14 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 		{smiles: "C1=CC=C1", name: "cyclobutadiene"}, {smiles: "[CH2-]C=C"}, {smiles: "C=CC=C.C=O", name: "two\tparts\n"},
 		{smiles: "O=C1C=CC(=O)C=C1", name: "p-benzoquinone \u2028 \xff"}, {smiles: "c1ccc2ccccc2c1"},
 	} {
-		res, err := computeOrbitals(in, p, opts, &solver)
+		res, err := computeOrbitals(in, p, opts, solver)
 		if err != nil {
 			t.Fatal(err)
 		}
 		check(toJSON(res, p, cal))
 	}
 	omega := &orbitalsOptions{omega: 1.4, omegaSet: true}
-	res, err := computeOrbitals(orbitalsInput{smiles: "C=C[CH2+]"}, p, omega, &solver)
+	res, err := computeOrbitals(orbitalsInput{smiles: "C=C[CH2+]"}, p, omega, solver)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -54,6 +54,7 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 		t.Error("ω run without iterations: the omega_iterations key is not exercised")
 	}
 	check(j)
+	check(orbitalsJSON{SMILES: "C=C", Method: "ppp", SCFCycles: 7, Calibration: calJSON(cal)})
 	check(orbitalsJSON{SMILES: "\x01\x1f", PiEnergy: num(math.NaN()), Omega: num(math.Inf(-1)), Calibration: calJSON(cal)})
 	check(orbitalsJSON{HOMO: &frontierJSON{Index: 2, X: -0.0000001}, SOMO: &frontierJSON{Set: []int{}},
 		Levels: []levelJSON{{X: 1, Coefficients: nil}, {Coefficients: []num{0.5, -0.5}}}, Centres: []centreJSON{{Element: "N", Type: "N2"}}, Warnings: []string{"w<1>"}})

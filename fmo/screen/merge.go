@@ -138,6 +138,11 @@ func MergeShards(w io.Writer, f MergeFormat, header []string, rows []MergeRow, k
 	if key == RankNone || key == "" {
 		return fmt.Errorf("%w: rank key none: unranked shard outputs concatenate (cat part*.csv)", ErrMerge)
 	}
+	if key == RankRate {
+		// The rate key needs the diene's conformation terms and the fitted model; merge does
+		// not rebuild them yet.
+		return fmt.Errorf("%w: rank key rate is not supported by merge yet (rank the shards by normal_gap, gap, stabilization, regio_margin or score)", ErrMerge)
+	}
 	dienes := map[string]*fmo.Partner{}
 	variants := map[[2]string]*fmo.Partner{}
 	quick := fmo.NewQuickKernel(opts)

@@ -3,11 +3,13 @@ package screen
 import (
 	"context"
 	"encoding/json"
+	"math"
 	"slices"
 	"testing"
 
 	"cyclopair/fmo"
 	"cyclopair/fmo/internal/testsupport"
+	"cyclopair/fmo/rate"
 	"cyclopair/fmo/substrates"
 	"cyclopair/presets"
 )
@@ -31,6 +33,18 @@ func analyzeAtPlain(p *Prepared, d, e, a int) (*fmo.Pair, error) {
 		for _, w := range fmo.DieneCautions(diene.Mol, mode) {
 			if !slices.Contains(pair.Warnings, w) {
 				pair.Warnings = append(pair.Warnings, w)
+			}
+		}
+	}
+	if err := p.rate.Annotate(pair, diene, p.temperatureC); err != nil {
+		return nil, err
+	}
+	if mode := p.Activations[a]; mode != fmo.ActivateNone && pair.Rate != nil {
+		if free, err := fmo.Analyze(diene, p.Dienophiles[e], p.Opts); err == nil {
+			if d, err := rate.FromPair(free, diene.Mol); err == nil {
+				v := pair.Rate.Log10KRel - p.rate.Predict(&d).Log10KRel
+				v = math.Round(v*1e6) / 1e6
+				pair.Rate.Log10VsFree = &v
 			}
 		}
 	}

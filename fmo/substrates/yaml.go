@@ -29,8 +29,10 @@ import (
 //	amine: C1CCNC1                  # secondary amine for iminium activation (default pyrrolidine)
 //	params: streitwieser1961        # or params_file: my-params.yaml (relative to this file)
 //	calibration: default            # or a file from cyclopair calibrate --out (relative to this file)
+//	method: huckel                  # π method: huckel or ppp (PPP-SCF, eV by Koopmans' theorem)
+//	ppp_params: ppp-hinze1962       # PPP parameter set name or file (relative to this file), with method: ppp
 //	filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.2, allowed_only: true}
-//	rank_by: normal_gap             # none | gap | normal_gap | stabilization | regio_margin | score
+//	rank_by: rate                   # rate | none | gap | normal_gap | stabilization | regio_margin | score
 //	top: 20
 //
 // Loading is strict: unknown keys, wrong types, aliases and anchors, non-UTF-8 text and files
@@ -64,6 +66,7 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad yamlfile.ErrorL
 	if e := yamlfile.CheckUTF8(data, name, ErrNotUTF8); e != nil {
 		return nil, nil, e
 	}
+	strictErr := strictDecode(data) // see below, before the walker
 	var doc, extra yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	if err := dec.Decode(&doc); err != nil && !errors.Is(err, io.EOF) {
@@ -80,21 +83,23 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad yamlfile.ErrorL
 	if len(o.Modes) == 0 || len(o.RankKeys) == 0 {
 		panic("substrates: LoadOptions without Modes or RankKeys")
 	}
+	// Second, independent check of the structure with the YAML library's strict decoder:
+	// the walker below should already catch every unknown key; this keeps the two in step
+	// (a schema change that forgets the walker fails here, not silently). Rows the walker
+	// rejects would be reported twice, so its verdict counts only on clean files. It runs
+	// first (above) so that its own parse tree is garbage before the file's tree is built: the
+	// peak memory is one node tree plus the rows, not two trees (issue 14).
 	w := &walker{file: name, modes: o.Modes, rankKeys: o.RankKeys}
 	lib = w.document(&doc)
 	if len(w.fatal) > 0 {
 		return nil, nil, w.fatal.Err()
 	}
-	// Second, independent check of the structure with the YAML library's strict decoder:
-	// the walker above should already have caught every unknown key; this keeps the two in
-	// step (a schema change that forgets the walker fails here, not silently). Rows the
-	// walker already rejected would be reported twice, so the check runs on clean files.
 	if len(w.bad) > 0 {
 		lib.Source = name
 		return lib, w.bad, nil
 	}
-	if err := strictDecode(data); err != nil {
-		return nil, nil, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrUnknownKey}
+	if strictErr != nil {
+		return nil, nil, &yamlfile.Error{File: name, Msg: strictErr.Error(), Err: ErrUnknownKey}
 	}
 	lib.Source = name
 	return lib, w.bad, nil
@@ -130,6 +135,8 @@ type fileSchema struct {
 	Params      string        `yaml:"params"`
 	ParamsFile  string        `yaml:"params_file"`
 	Calibration string        `yaml:"calibration"`
+	Method      string        `yaml:"method"`
+	PPPParams   string        `yaml:"ppp_params"`
 	Filter      struct {
 		Demand         string  `yaml:"demand"`
 		MinRegioMargin float64 `yaml:"min_regio_margin"`
@@ -149,7 +156,7 @@ type entrySchema struct {
 }
 
 var (
-	topKeys    = []string{"title", "description", "dienes", "dienophiles", "activations", "amine", "params", "params_file", "calibration", "filter", "rank_by", "top"}
+	topKeys    = []string{"title", "description", "dienes", "dienophiles", "activations", "amine", "params", "params_file", "calibration", "method", "ppp_params", "filter", "rank_by", "top"}
 	entryKeys  = []string{"name", "smiles", "pin", "notes", "preset"}
 	filterKeys = []string{"demand", "min_regio_margin", "max_gap", "allowed_only"}
 )
@@ -250,6 +257,17 @@ func (w *walker) document(doc *yaml.Node) *Library {
 			lib.ParamsFile, _ = w.str(v, k.Value, &w.fatal, 4096)
 		case "calibration":
 			lib.Calibration, _ = w.str(v, k.Value, &w.fatal, 4096)
+		case "method":
+			if m, ok := w.str(v, k.Value, &w.fatal, 100); ok {
+				m = strings.ToLower(strings.TrimSpace(m))
+				if m != "" && !slices.Contains(Methods, m) {
+					w.fail(v, k.Value, ErrBadValue, fmt.Sprintf("unknown π method %q (choose %s)", m, strings.Join(Methods, ", ")), "")
+					m = ""
+				}
+				lib.Method = m
+			}
+		case "ppp_params":
+			lib.PPPParams, _ = w.str(v, k.Value, &w.fatal, 4096)
 		case "amine":
 			if a, ok := w.str(v, k.Value, &w.fatal, maxSMILESBytes); ok {
 				m, err := smiles.Parse(a)

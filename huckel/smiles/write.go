@@ -15,7 +15,9 @@ import (
 // one). Parse(Write(m)) gives back a graph isomorphic to m with the same elements,
 // charges, isotopes, hydrogen counts, bond orders and atom maps; stereo marks on bonds are
 // written as they are stored (flipped when the bond is written from B to A), chirality is
-// not kept by the reader and so never written.
+// not kept by the reader and so never written. The Kekulé form can be longer than the
+// input (and a built product longer than either partner): read it back with
+// ParseOptions.MaxLength raised when it exceeds MaxLength.
 //
 // The output depends only on the graph and the atom order, not on the order of m.Bonds:
 // each fragment starts at its lowest-numbered atom, a depth-first search visits
