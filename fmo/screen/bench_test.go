@@ -266,3 +266,50 @@ func BenchmarkAnalyzeRows(b *testing.B) {
 	}
 	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
 }
+
+// BenchmarkBoundedTopK runs the 2000 × 2000 synthetic screen ranked with top 50 twice per op,
+// by bounds and exhaustively (the same-run baseline), for the default key and the score, and
+// reports the ratio of their times ("x-vs-exhaustive") and the share of pairs the bounded
+// search put through the kernel. The rows are the same (TestBoundedEqualsExhaustive).
+func BenchmarkBoundedTopK(b *testing.B) {
+	p := prepared2000(b)
+	for _, key := range []RankKey{RankNormalGap, RankScore} {
+		b.Run(string(key), func(b *testing.B) {
+			var tb, te float64
+			var kernel, scored int64
+			for b.Loop() {
+				for _, exhaustive := range []bool{false, true} {
+					cpu0 := testsupport.CPUTime()
+					so := ScreenOptions{RankBy: key, Top: 50, Exhaustive: exhaustive}
+					space := p.Space()
+					job := &preparedJob{p: p, space: space, rank: key, flt: so.Filter}
+					cfg := engineConfig{Workers: runtime.GOMAXPROCS(0), Ranked: true, Top: 50, Lo: 0, Hi: space.Len(), Chunk: 1024}
+					var st engineStats
+					var err error
+					if exhaustive {
+						_, st, err = engineScoreAll(context.Background(), job, cfg)
+					} else {
+						_, st, err = job.boundedSelect(50, 0, space.Len(), nil)(context.Background(), cfg.Workers)
+						kernel += st.Kernel
+						scored += st.Scored
+					}
+					if err != nil {
+						b.Fatal(err)
+					}
+					d := (testsupport.CPUTime() - cpu0).Seconds()
+					if exhaustive {
+						te += d
+					} else {
+						tb += d
+					}
+				}
+			}
+			if tb > 0 {
+				b.ReportMetric(te/tb, "x-vs-exhaustive")
+			}
+			if scored > 0 {
+				b.ReportMetric(float64(kernel)/float64(scored), "kernel-share")
+			}
+		})
+	}
+}
