@@ -16,6 +16,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/fmo/screen"
+	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
 	"cyclopair/presets"
 )
@@ -40,6 +41,10 @@ type screenOptions struct {
 	shard          string
 	// changed records which flags the user set (they override the substrate file).
 	changed func(name string) bool
+	// inputFormat and nameField: --input-format and --name-field (list_format.go);
+	// dienesData and dienophilesData are list contents already read (cyclopair serve).
+	inputFormat, nameField      string
+	dienesData, dienophilesData []byte
 }
 
 func newScreenCmd(s *streams) *cobra.Command {
@@ -58,8 +63,11 @@ calibration named in the header. Ranking keys: normal_gap (LUMO(dienophile) − 
 smallest first; the default), gap (controlling gap), stabilization, regio_margin, score
 (larger first), none (pair order of the input, streamed).
 
-Instead of (or on top of) a YAML file, --dienes and --dienophiles read CSV (name,smiles) or
-plain files (one SMILES per line, optionally followed by a name). Command-line flags override
+Instead of (or on top of) a YAML file, --dienes and --dienophiles read list files; the format
+comes from the extension or --input-format: .smi/.smiles/.txt (SMILES, whitespace, then the
+rest of the line as the name), .csv/.tsv (a header row naming the smiles and name columns in
+any order; without one, name,smiles rows), .sdf/.mol (MDL molfiles; the title line or
+--name-field PROP as the name). Command-line flags override
 the file's settings. Rows that fail (bad SMILES, unknown preset, nothing to react) are listed
 on stderr at the end and the exit code is 1; the other rows are screened.
 
@@ -80,6 +88,9 @@ Results are estimates for planning, not safety assessments.`,
 				return &usageError{errors.New("give a substrate file, or both --dienes and --dienophiles")}
 			}
 			o.changed = c.Flags().Changed
+			if err := checkListFormat(o); err != nil {
+				return err
+			}
 			return runScreen(c.Context(), s, o, nil)
 		},
 	}
@@ -87,8 +98,7 @@ Results are estimates for planning, not safety assessments.`,
 	cmd.Flags().StringVar(&o.dienes, "dienes", "", "CSV (name,smiles) or one-SMILES-per-line `file` of 4π partners (replaces the file's dienes)")
 	cmd.Flags().StringVar(&o.dienophiles, "dienophiles", "", "CSV or one-SMILES-per-line `file` of 2π partners (replaces the file's dienophiles)")
 	cmd.Flags().Bool("list-presets", false, "list the named common substrates usable as 'preset: NAME' and exit")
-	_ = cmd.MarkFlagFilename("dienes", "csv", "txt", "smi")
-	_ = cmd.MarkFlagFilename("dienophiles", "csv", "txt", "smi")
+	addListFormatFlags(cmd, o)
 	return cmd
 }
 
@@ -120,6 +130,8 @@ func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 	req := screen.Request{
 		File: o.file, Data: data, Dienes: o.dienes, Dienophiles: o.dienophiles, Stdin: s.in,
 		Params: o.params, Calibration: o.calibration, Amine: o.amine, Workers: o.workers, Shard: o.shard,
+		DienesData: o.dienesData, DienophilesData: o.dienophilesData,
+		InputFormat: substrates.Format(o.inputFormat), NameField: o.nameField,
 		LoadParams: resolveParams,
 		LoadCalibration: func(spec string, p *huckel.Params) (huckel.Calibration, error) {
 			return resolveCalibration(s, spec, p)

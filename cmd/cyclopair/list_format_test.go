@@ -1,0 +1,53 @@
+package main
+
+import (
+	"strings"
+	"testing"
+)
+
+// Issue 12: a .smi file whose names contain commas and spaces screens every row, and CSV
+// files with the columns in either order give the same screen.
+func TestScreenListFormats(t *testing.T) {
+	base := []string{"screen", "--dienes", "../../testdata/lists/dienes.smi", "--format", "csv", "--rank-by", "none"}
+	smi, errOut, code := runCLI(t, "", append(base, "--dienophiles", "../../testdata/lists/dienophiles.smi")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if n := strings.Count(smi, "\n"); n < 1+4*3 {
+		t.Fatalf("%d lines, want a header and 12 pairs:\n%s", n, smi)
+	}
+	for _, name := range []string{"\"1,3-butadiene\"", "\"1-methoxybuta-1,3-diene, trans\"", "maleic anhydride"} {
+		if !strings.Contains(smi, name) {
+			t.Errorf("output lacks %s", name)
+		}
+	}
+	strip := func(s string) string { // the source column names the files
+		var out []string
+		for _, l := range strings.Split(s, "\n") {
+			out = append(out, strings.ReplaceAll(strings.ReplaceAll(l, "dienophiles.smi", "F"), "dienophiles_name_first.csv", "F"))
+		}
+		return strings.ReplaceAll(strings.Join(out, "\n"), "dienophiles.csv", "F")
+	}
+	for _, f := range []string{"dienophiles.csv", "dienophiles_name_first.csv"} {
+		out, errOut, code := runCLI(t, "", append(base, "--dienophiles", "../../testdata/lists/"+f)...)
+		if code != 0 {
+			t.Fatalf("%s: exit %d: %s", f, code, errOut)
+		}
+		if strip(out) != strip(smi) {
+			t.Errorf("%s: screen differs from the SMILES file's:\n%s\nwant\n%s", f, out, smi)
+		}
+	}
+	// --input-format overrides the extension; an unknown extension asks for it.
+	_, errOut, code = runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.smi", "--dienophiles", "../../testdata/lists/dienophiles.csv", "--input-format", "smiles")
+	if code == 0 {
+		t.Errorf("CSV read as SMILES should fail its rows; stderr %s", errOut)
+	}
+	_, errOut, code = runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.smi", "--dienophiles", "../../testdata/lists/README.md")
+	if code != 2 || !strings.Contains(errOut, "--input-format") {
+		t.Errorf("unknown extension: exit %d, %s", code, errOut)
+	}
+	_, errOut, code = runCLI(t, "", append(base, "--dienophiles", "../../testdata/lists/dienophiles.smi", "--input-format", "xml")...)
+	if code != 2 || !strings.Contains(errOut, "--input-format") {
+		t.Errorf("bad --input-format: exit %d, %s", code, errOut)
+	}
+}
