@@ -77,6 +77,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newPairCmd(s),
 		newCalibrateCmd(s),
 		newValidateCmd(s),
+		newServeCmd(s),
 	)
 	return root
 }
