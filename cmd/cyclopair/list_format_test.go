@@ -51,3 +51,27 @@ func TestScreenListFormats(t *testing.T) {
 		t.Errorf("bad --input-format: exit %d, %s", code, errOut)
 	}
 }
+
+// Issue 12: an SD file of the same molecules (written by RDKit, scripts/gen_list_sdf.py;
+// dienes V2000, dienophiles V3000) gives byte-identical screen output to the SMILES files,
+// with the names from the <name> data item. The table's header names the input files, so
+// the comparison is on the row formats (CSV, JSON Lines).
+func TestScreenSDEqualsSMILES(t *testing.T) {
+	for _, format := range []string{"csv", "json"} {
+		smi, errA, codeA := runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.smi", "--dienophiles", "../../testdata/lists/dienophiles.smi",
+			"--activate", "none,lewis", "--format", format)
+		sdf, errB, codeB := runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.sdf", "--dienophiles", "../../testdata/lists/dienophiles.sdf",
+			"--name-field", "name", "--activate", "none,lewis", "--format", format)
+		if codeA != 0 || codeB != 0 {
+			t.Fatalf("%s: exit %d %d: %s %s", format, codeA, codeB, errA, errB)
+		}
+		if smi != sdf || strings.Count(smi, "\n") < 24 {
+			t.Errorf("%s: SD screen differs from the SMILES screen:\n%s\nwant\n%s", format, sdf, smi)
+		}
+	}
+	// Without --name-field the title line names the rows.
+	out, _, code := runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.sdf", "--dienophiles", "../../testdata/lists/dienophiles.sdf", "--format", "csv")
+	if code != 0 || !strings.Contains(out, "CP-0001") || !strings.Contains(out, "CP-0007") {
+		t.Errorf("titles as names: exit %d\n%s", code, out)
+	}
+}

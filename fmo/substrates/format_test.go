@@ -79,3 +79,31 @@ func TestFormatOf(t *testing.T) {
 		t.Errorf("ParseFormat(xml): %v", err)
 	}
 }
+
+// SD lists: names from the title or a data item, other items as notes, a bad record
+// positioned (line, record number, title) while the others load.
+func TestLoadSD(t *testing.T) {
+	rec := func(title, body, props string) string {
+		return title + "\n  test\n\n" + body + "M  END\n" + props + "$$$$\n"
+	}
+	ethene := "  2  1  0  0  0  0  0  0  0  0999 V2000\n" +
+		"    0.0000    0.0000    0.0000 C   0  0  0  0  0  0  0  0  0  0  0  0\n" +
+		"    1.5000    0.0000    0.0000 C   0  0  0  0  0  0  0  0  0  0  0  0\n" +
+		"  1  2  2  0\n"
+	bad := strings.Replace(ethene, " C   0", " Xx  0", 1)
+	src := rec("CP-1", ethene, ">  <name>\nethene, the simplest\n\n>  <lot>\nA7\n\n") + rec("CP-2", bad, "") + rec("CP-3", ethene, "")
+	subs, errs, err := LoadList(strings.NewReader(src), "l.sdf", 2, 0)
+	if err != nil || len(subs) != 2 || len(errs) != 1 {
+		t.Fatalf("rows %d, bad %v, err %v", len(subs), errs, err)
+	}
+	if subs[0].Name != "CP-1" || subs[0].SMILES != "C=C" || subs[0].Notes != "name: ethene, the simplest; lot: A7" || subs[0].Line != 1 || subs[1].Line != 25 {
+		t.Errorf("row 1: %+v", subs[0])
+	}
+	if e := errs[0].Error(); !strings.HasPrefix(e, "l.sdf: 20:32: record 2 (CP-2): atom 1: unknown element") || !strings.Contains(e, "record 2 (CP-2)") || !errors.Is(errs[0], ErrBadStructure) {
+		t.Errorf("bad record: %q", e)
+	}
+	subs, _, _ = LoadListAs(strings.NewReader(src), "l.sdf", ListOptions{NameField: "name"})
+	if subs[0].Name != "ethene, the simplest" || subs[0].Notes != "lot: A7" || subs[1].Name != "CP-3" {
+		t.Errorf("--name-field: %q %q %q", subs[0].Name, subs[0].Notes, subs[1].Name)
+	}
+}

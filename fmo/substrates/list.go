@@ -190,7 +190,11 @@ func (c *csvColumns) notes(rec []string) string {
 		}
 		b.WriteString(c.header[i] + ": " + v)
 	}
-	n := b.String()
+	return clipNotes(b.String())
+}
+
+// clipNotes cuts notes to at most maxNotesBytes (at a character boundary, with "…").
+func clipNotes(n string) string {
 	if len(n) > maxNotesBytes {
 		cut := maxNotesBytes
 		for cut > 0 && !utf8.RuneStart(n[cut]) {
