@@ -115,7 +115,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
 	f.Float64Var(&o.maxGap, "max-gap", 0, "keep only pairs whose controlling gap is at most `X` |β|")
 	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
-	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
+	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html, sdf (each row's product as an SD record)")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 }

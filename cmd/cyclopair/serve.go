@@ -147,10 +147,12 @@ func webBackend() web.Backend {
 		Screen: webScreen,
 		PairFormats: []web.Format{
 			{Name: "json", Ext: ".jsonl", Label: "JSON Lines", Type: "application/jsonl; charset=utf-8"},
+			{Name: "sdf", Ext: ".sdf", Label: "SD file (products)", Type: "chemical/x-mdl-sdfile"},
 		},
 		ScreenFormats: []web.Format{
 			{Name: "csv", Ext: ".csv", Label: "CSV", Type: "text/csv; charset=utf-8"},
 			{Name: "json", Ext: ".jsonl", Label: "JSON Lines", Type: "application/jsonl; charset=utf-8"},
+			{Name: "sdf", Ext: ".sdf", Label: "SD file (products)", Type: "chemical/x-mdl-sdfile"},
 		},
 		Modes:       fmo.Modes(),
 		Presets:     names,

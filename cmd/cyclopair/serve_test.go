@@ -52,6 +52,11 @@ func TestServePairEqualsCLI(t *testing.T) {
 	if rec.Code != 200 || rec.Body.String() != cli || cli == "" {
 		t.Errorf("JSON download (%d) differs from the CLI's", rec.Code)
 	}
+	rec = serveGet(t, h, "/pair?diene=cyclopentadiene&dienophile=maleic-anhydride&activate=none,lewis&format=sdf")
+	cli, _, _ = runCLI(t, "", "pair", "--diene", "cyclopentadiene", "--dienophile", "maleic-anhydride", "--activate", "none,lewis", "--format", "sdf")
+	if rec.Code != 200 || rec.Body.String() != cli || !strings.Contains(cli, "$$$$") {
+		t.Errorf("SDF download (%d) differs from the CLI's", rec.Code)
+	}
 }
 
 // A bad SMILES gives the CLI's positioned error line with its caret, escaped, status 400.
