@@ -1,6 +1,7 @@
 package main
 
 import (
+	"os"
 	"strings"
 	"testing"
 )
@@ -73,5 +74,30 @@ func TestScreenSDEqualsSMILES(t *testing.T) {
 	out, _, code := runCLI(t, "", "screen", "--dienes", "../../testdata/lists/dienes.sdf", "--dienophiles", "../../testdata/lists/dienophiles.sdf", "--format", "csv")
 	if code != 0 || !strings.Contains(out, "CP-0001") || !strings.Contains(out, "CP-0007") {
 		t.Errorf("titles as names: exit %d\n%s", code, out)
+	}
+}
+
+// 'orbitals -' reads stdin with the same list reader when --input-format names a format:
+// the SD file gives the output of the SMILES file (names from <name>).
+func TestOrbitalsListFormats(t *testing.T) {
+	read := func(p string) string {
+		b, err := os.ReadFile(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return string(b)
+	}
+	smi, _, code := runCLI(t, read("../../testdata/lists/dienophiles.smi"), "orbitals", "-", "--format", "csv")
+	if code != 0 || strings.Count(smi, "\n") != 4 {
+		t.Fatalf("smiles: exit %d\n%s", code, smi)
+	}
+	for _, c := range [][]string{
+		{"dienophiles.sdf", "--input-format", "sdf", "--name-field", "name"},
+		{"dienophiles.csv", "--input-format", "csv"},
+	} {
+		out, errOut, code := runCLI(t, read("../../testdata/lists/"+c[0]), append([]string{"orbitals", "-", "--format", "csv"}, c[1:]...)...)
+		if code != 0 || out != smi {
+			t.Errorf("%s: exit %d %s\n%s\nwant\n%s", c[0], code, errOut, out, smi)
+		}
 	}
 }
