@@ -4,10 +4,12 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
@@ -26,6 +28,8 @@ type pairOptions struct {
 	svg               string  // --svg FILE: also write the energy-level diagram (diagram.go)
 	lewisH            float64 // --lewis-h: h(O=LA) for --activate lewis (0 = the parameter set's)
 	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
+	rateModel         string  // --rate-model FILE: a model from 'cyclopair calibrate --rates' ("" = bundled)
+	temperature       float64 // --temperature: °C for the isomer shares
 	limits            inputLimits
 }
 
@@ -104,6 +108,7 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
+	addRateFlags(f, &opts.rateModel, &opts.temperature)
 	opts.limits.flags(cmd, false)
 	return cmd
 }
@@ -165,6 +170,17 @@ func runPair(s *streams, opts *pairOptions) error {
 		base, _ = fmo.Analyze(diene, dienophile, fo)
 	}
 	roleWarning := fmo.RoleCheck(diene, dienophile, base, fo)
+	rm, err := loadRateModel(opts.rateModel)
+	if err != nil {
+		return err
+	}
+	var freeRate *float64
+	if base != nil {
+		if d, err := rate.FromPair(base, diene.Mol); err == nil {
+			v := rm.Predict(&d).Log10KRel
+			freeRate = &v
+		}
+	}
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
@@ -180,6 +196,13 @@ func runPair(s *streams, opts *pairOptions) error {
 			continue
 		}
 		pair := v.Pair
+		if err := rm.Annotate(pair, diene, opts.temperature); err != nil {
+			return err
+		}
+		if v.Mode != fmo.ActivateNone && freeRate != nil && pair.Rate != nil {
+			d := math.Round((pair.Rate.Log10KRel-*freeRate)*1e6) / 1e6
+			pair.Rate.Log10VsFree = &d
+		}
 		pair.AttachSideChannels(fmo.SideChannels(diene, dienophile, pair, fo))
 		if roleWarning != "" {
 			pair.Warnings = append(pair.Warnings, roleWarning)

@@ -52,6 +52,9 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	fmt.Fprintf(w, "demand: %s (Sustmann type %s; neutral/type II when the gaps differ by less than %.3f |β|)\n",
 		p.Demand, p.SustmannType, p.DemandThreshold)
 	fmt.Fprintf(w, "allowed (supra–supra, thermal): %s: %s\n", yesNo(p.Allowed), p.AllowedReason)
+	for _, l := range rateLines(p) {
+		fmt.Fprintln(w, l)
+	}
 	best := p.Orientations[0]
 	rel := func(x float64) string {
 		if best.FrontierTerm <= 0 {

@@ -40,7 +40,9 @@ type screenOptions struct {
 	workers        int
 	shard          string
 	// changed records which flags the user set (they override the substrate file).
-	changed func(name string) bool
+	changed     func(name string) bool
+	rateModel   string  // --rate-model FILE
+	temperature float64 // --temperature °C for the isomer shares
 	// inputFormat and nameField: --input-format and --name-field (list_format.go);
 	// dienesData and dienophilesData are list contents already read (cyclopair serve).
 	inputFormat, nameField      string
@@ -59,9 +61,10 @@ screening kernel, ranked, and only the rows printed get the full analysis (produ
 warnings).
 
 Gaps and margins are in units of |β| (E = α + xβ, β < 0) and gaps also in eV through the
-calibration named in the header. Ranking keys: normal_gap (LUMO(dienophile) − HOMO(diene),
-smallest first; the default), gap (controlling gap), stabilization, regio_margin, score
-(larger first), none (pair order of the input, streamed).
+calibration named in the header. Ranking keys: rate (the default: predicted log10 k relative
+to cyclopentadiene + acrylonitrile from the fitted model of 'cyclopair validate', fastest
+first), normal_gap (LUMO(dienophile) − HOMO(diene), smallest first), gap (controlling gap),
+stabilization, regio_margin, score (larger first), none (pair order of the input, streamed).
 
 Instead of (or on top of) a YAML file, --dienes and --dienophiles read list files; the format
 comes from the extension or --input-format: .smi/.smiles/.txt (SMILES, whitespace, then the
@@ -109,7 +112,8 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.amine, "amine", "", "`SMILES` of the secondary amine for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
-	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
+	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: rate (predicted rate, fastest first), normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else rate)")
+	addRateFlags(f, &o.rateModel, &o.temperature)
 	f.IntVar(&o.top, "top", 0, "print only the best `K` rows (0: all; default: the file's)")
 	f.StringVar(&o.demand, "demand", "", "keep only pairs of this `demand`: normal, inverse, neutral, any")
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
@@ -189,6 +193,10 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	lib := cfg.Library
 	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
+	if cfg.RateModel, err = loadRateModel(o.rateModel); err != nil {
+		return err
+	}
+	cfg.TemperatureC = o.temperature
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {

@@ -180,7 +180,12 @@ func webPair(ctx context.Context, q web.PairQuery, format string, out, log io.Wr
 
 // webScreen is runScreen with the form's files in memory (screenOptions.*Data).
 func webScreen(ctx context.Context, q web.ScreenQuery, format string, out, log io.Writer) error {
-	o := &screenOptions{format: format, inputFormat: q.InputFormat, nameField: q.NameField}
+	// The flags' defaults, exactly as 'cyclopair screen' binds them, then the form's values.
+	o := &screenOptions{}
+	defaults := &cobra.Command{}
+	addScreenFlags(defaults, o)
+	addListFormatFlags(defaults, o)
+	o.format, o.inputFormat, o.nameField = format, q.InputFormat, q.NameField
 	set := map[string]bool{}
 	if q.YAML != nil {
 		o.file = q.YAMLName

@@ -102,6 +102,11 @@ func runValidate(s *streams, opts *validateOptions) error {
 		writeValidateMarkdown(s.out, rep)
 	default:
 		writeValidateTable(s.out, rep)
+		if opts.cases == "" {
+			if err := writeRateValidation(s.out); err != nil {
+				return err
+			}
+		}
 	}
 	errs, disagree := 0, 0
 	for _, c := range rep.Cases {

@@ -12,6 +12,7 @@ import (
 	"strings"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
@@ -72,6 +73,10 @@ type Config struct {
 	Filter      substrates.Filter
 	Shard       Shard
 	Workers     int // 0: all cores
+	// RateModel and TemperatureC are handed to Prepare (nil, 0: the bundled model, 25 °C);
+	// the caller sets them after Resolve.
+	RateModel    *rate.Model
+	TemperatureC float64
 }
 
 // UsageError marks a bad command-line setting of a Request (the CLI adds its usage hint);
@@ -167,7 +172,7 @@ func (c *Config) load(req Request) (dir string, err error) {
 			c.Bad = append(c.Bad, b)
 		}
 	} else {
-		c.Library = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(RankNormalGap), Set: map[string]bool{}}
+		c.Library = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(RankRate), Set: map[string]bool{}}
 	}
 	for _, side := range []struct {
 		file string
@@ -368,7 +373,8 @@ func source(req Request) string {
 func (c *Config) Prepare(ctx context.Context, progress func(n int64)) (*Prepared, error) {
 	lib := *c.Library
 	lib.Activations = c.Activations
-	return Prepare(ctx, &lib, c.Options, PrepareOptions{Workers: c.Workers, Activate: c.Activate, Progress: progress})
+	return Prepare(ctx, &lib, c.Options, PrepareOptions{Workers: c.Workers, Activate: c.Activate, Progress: progress,
+		RateModel: c.RateModel, TemperatureC: c.TemperatureC})
 }
 
 // ScreenOptions are the configured ranking, filters, shard and workers as options for

@@ -30,7 +30,7 @@ import (
 //	params: streitwieser1961        # or params_file: my-params.yaml (relative to this file)
 //	calibration: default            # or a file from cyclopair calibrate --out (relative to this file)
 //	filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.2, allowed_only: true}
-//	rank_by: normal_gap             # none | gap | normal_gap | stabilization | regio_margin | score
+//	rank_by: rate                   # rate | none | gap | normal_gap | stabilization | regio_margin | score
 //	top: 20
 //
 // Loading is strict: unknown keys, wrong types, aliases and anchors, non-UTF-8 text and files
