@@ -160,6 +160,7 @@ type Pair struct {
 	SideChannels []SideChannel     `json:"side_channels"`
 
 	Params      string   `json:"params"`       // parameter set name
+	Method      string   `json:"method"`       // π method of both partners' orbitals: "huckel" or "ppp"
 	Calibration string   `json:"calibration"`  // calibration name used for every eV figure
 	FormingBeta float64  `json:"forming_beta"` // resonance integral assumed for each forming σ bond, units of β
 	Warnings    []string `json:"warnings"`

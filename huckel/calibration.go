@@ -26,6 +26,22 @@ type Calibration struct {
 	// Per-map statistics.
 	HOMOR2, HOMORMSE, LUMOR2, LUMORMSE float64
 	HOMON, LUMON                       int
+	// Direct marks the exact map of a method that computes eV itself (PPP-SCF, Koopmans'
+	// theorem): both lines are ε = α_C + x·β₀, the inverse of the method's own x scale, so
+	// EV returns the method's orbital energies unchanged. No fit is involved and the fit
+	// statistics are zero; Detail says so instead of printing them.
+	Direct bool
+}
+
+// DirectDetail is the header wording for eV figures of a method that computes eV itself.
+const DirectDetail = "eV from Koopmans' theorem (PPP), no calibration"
+
+// DirectScale returns the Direct map ε = alphaEV + x·betaEV (both branches) named name:
+// the exact inverse of the x scale of Orbitals filled by an eV method (Orbitals.AlphaEV,
+// Orbitals.BetaEV), for code that converts x to eV through a Calibration.
+func DirectScale(name string, alphaEV, betaEV float64, source string) Calibration {
+	return Calibration{Name: name, HOMOIntercept: alphaEV, HOMOSlope: betaEV,
+		LUMOIntercept: alphaEV, LUMOSlope: betaEV, Source: source, Direct: true}
 }
 
 // EV converts x to eV with the occupied-level map (occupied = true) or the empty-level map.
@@ -41,6 +57,9 @@ func (c Calibration) String() string { return c.Name + ": " + c.Detail() }
 
 // Detail is String without the name: the two fitted lines and the fit statistics.
 func (c Calibration) Detail() string {
+	if c.Direct {
+		return fmt.Sprintf("%s (ε = %.3f %+.3f·x eV, the method's own x scale)", DirectDetail, c.HOMOIntercept, c.HOMOSlope)
+	}
 	return fmt.Sprintf("E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV)",
 		c.HOMOIntercept, c.HOMOSlope, c.LUMOIntercept, c.LUMOSlope, c.N, c.R2, c.RMSE)
 }

@@ -20,7 +20,8 @@ type diagramOptions struct {
 	params            string
 	calibration       string
 	out               string
-	limits            inputLimits
+	methodOptions
+	limits inputLimits
 }
 
 func newDiagramCmd(s *streams) *cobra.Command {
@@ -57,20 +58,18 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out'")
 	f.StringVarP(&o.out, "output", "o", "", "write the SVG to `FILE` instead of stdout")
 	_ = cmd.MarkFlagFilename("output", "svg")
+	addMethodFlags(f, &o.methodOptions, defaultMethod)
 	o.limits.flags(cmd, false)
 	return cmd
 }
 
 func runDiagram(s *streams, o *diagramOptions) error {
-	p, err := resolveParams(o.params)
+	mod, err := resolveSolveModel(s, o.params, o.calibration, o.methodOptions)
 	if err != nil {
 		return err
 	}
-	cal, err := resolveCalibration(s, o.calibration, p)
-	if err != nil {
-		return err
-	}
-	opts := fmo.NewOptions(p, cal, cal.Name)
+	p, cal := mod.params, mod.cal
+	opts := mod.options()
 	var modes []string
 	for _, m := range strings.Split(o.activate, ",") {
 		if m = strings.ToLower(strings.TrimSpace(m)); m != "" && !contains(modes, m) {

@@ -27,7 +27,8 @@ type drawOptions struct {
 	rank       int    // orientation to draw in a pair picture, 1 = preferred
 	svg        string // output file; stdout when empty or "-"
 	numbers    bool
-	limits     inputLimits
+	methodOptions
+	limits inputLimits
 }
 
 func newDrawCmd(s *streams) *cobra.Command {
@@ -101,6 +102,7 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.svg, "svg", "", "write the SVG to this file instead of stdout")
 	f.IntVar(&opts.rank, "orientation", 1, "pair picture: which orientation to draw, 1 = preferred, 2 = runner-up, … (as listed by 'cyclopair pair')")
 	f.BoolVar(&opts.numbers, "numbers", false, "print 1-based atom positions next to the atoms (C1, C2 … as in site names)")
+	addMethodFlags(f, &opts.methodOptions, defaultMethod)
 	opts.limits.flags(cmd, true)
 	f.Lookup("max-centres").Usage += "; orbital pictures only (pair pictures keep the default)"
 	return cmd
@@ -108,19 +110,15 @@ and local rules before any lab work.`,
 
 // runDraw builds the picture and writes it. It is the testable body of the command.
 func runDraw(s *streams, opts *drawOptions, args []string) error {
-	p, err := resolveParams(opts.params)
+	mod, err := resolveSolveModel(s, opts.params, "", opts.methodOptions)
 	if err != nil {
 		return err
 	}
-	cal, err := presets.Calibration(p)
-	if err != nil {
-		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
-	}
 	var svg []byte
 	if len(args) == 1 {
-		svg, err = drawOrbital(args[0], opts, p, cal)
+		svg, err = drawOrbital(args[0], opts, mod)
 	} else {
-		svg, err = drawPair(opts, p, cal)
+		svg, err = drawPair(opts, mod)
 	}
 	if err != nil {
 		return err
@@ -146,7 +144,8 @@ func smilesErr(smi string, err error) error {
 	return &inputError{fmt.Errorf("%s: %v", errtext.Clip(smi), err)}
 }
 
-func drawOrbital(arg string, opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+func drawOrbital(arg string, opts *drawOptions, mod *solveModel) ([]byte, error) {
+	p, cal := mod.params, mod.cal
 	name, smi := partnerInput(arg)
 	if opts.name == "" {
 		opts.name = name
@@ -163,8 +162,8 @@ func drawOrbital(arg string, opts *drawOptions, p *huckel.Params, cal huckel.Cal
 	if len(ps.Centres) == 0 {
 		return nil, &inputError{fmt.Errorf("%s: %s", where, noPiSystem(ps, "draw"))}
 	}
-	orb, err := huckel.Solve(ps)
-	if err != nil {
+	orb := new(huckel.Orbitals)
+	if err := mod.solver().Solve(ps, orb); err != nil {
 		return nil, &inputError{fmt.Errorf("%s: %v", where, err)}
 	}
 	level, which, err := pickLevel(orb, opts.orbital)
@@ -251,8 +250,8 @@ func partnerInput(v string) (name, smi string) {
 	return "", v
 }
 
-func drawPair(opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
-	o := fmo.NewOptions(p, cal, cal.Name)
+func drawPair(opts *drawOptions, mod *solveModel) ([]byte, error) {
+	o := mod.options()
 	d, err := pairPartner(opts.diene, fmo.RoleDiene, o, &opts.limits)
 	if err != nil {
 		return nil, err

@@ -20,7 +20,8 @@ type orbitalsOptions struct {
 	omega       float64 // ω-technique constant; used when omegaSet
 	omegaSet    bool
 	calibration string // default, or a file from 'cyclopair calibrate --out'
-	limits      inputLimits
+	methodOptions
+	limits inputLimits
 	// listFormat and nameField: --input-format and --name-field for '-' (orbitals_list.go).
 	listFormat, nameField string
 }
@@ -29,11 +30,14 @@ func newOrbitalsCmd(s *streams) *cobra.Command {
 	opts := &orbitalsOptions{}
 	cmd := &cobra.Command{
 		Use:   "orbitals SMILES... | -",
-		Short: "Hückel π levels, frontier orbitals and π charges of molecules",
+		Short: "Hückel or PPP-SCF π levels, frontier orbitals and π charges of molecules",
 		Long: `Perceive the π system of each molecule, solve the Hückel problem and print the levels
 (x in E = α + xβ, and eV through a stated linear calibration), occupations, degeneracies,
 HOMO/LUMO (SOMO for open shells), the frontier coefficients per atom and the π charges.
 Atom numbers are 0-based positions in the SMILES as written.
+
+With --method ppp the same π system is solved by Pariser–Parr–Pople SCF: levels are in eV
+by Koopmans' theorem (no calibration) and x = (ε − α_C)/β₀ with β₀ = −2.39 eV.
 
 With '-' molecules are read from stdin, one per line as "SMILES [name]"; blank lines and
 lines starting with '#' are skipped. A bad line is reported with its line number and the
@@ -44,7 +48,8 @@ Results are estimates for planning, not safety assessments.`,
   cyclopair orbitals 'C=CC(=O)OC' c1ccncc1 --format json
   printf 'C=CC=C butadiene\nC=CC=O acrolein\n' | cyclopair orbitals - --format csv
   cyclopair orbitals 'C=C[CH2+]' --omega 1.4
-  cyclopair orbitals c1ccncc1 --params vancatledge1980`,
+  cyclopair orbitals c1ccncc1 --params vancatledge1980
+  cyclopair orbitals C=CC=O --method ppp`,
 		Args: cobra.MinimumNArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
@@ -52,7 +57,13 @@ Results are estimates for planning, not safety assessments.`,
 			default:
 				return &usageError{fmt.Errorf("--format %q: want table, json or csv", opts.format)}
 			}
+			if err := opts.methodOptions.check(); err != nil {
+				return err
+			}
 			opts.omegaSet = c.Flags().Changed("omega")
+			if opts.omegaSet && opts.method == huckel.MethodPPP {
+				return &usageError{errors.New("--omega is a Hückel device (the ω-technique); PPP-SCF treats charges self-consistently: drop --omega with --method ppp")}
+			}
 			if opts.omegaSet && (opts.omega < 0 || opts.omega > 5) {
 				return &usageError{fmt.Errorf("--omega %g: want a value between 0 and 5 (typical 1.4)", opts.omega)}
 			}
@@ -72,6 +83,7 @@ Results are estimates for planning, not safety assessments.`,
 	_ = cmd.RegisterFlagCompletionFunc("params", completeParams)
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
 	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
+	addMethodFlags(cmd.Flags(), &opts.methodOptions, defaultMethod)
 	opts.limits.flags(cmd, true)
 	addOrbitalsListFlags(cmd, opts)
 	return cmd
@@ -86,17 +98,18 @@ type orbitalsInput struct {
 
 // runOrbitals computes and prints every input. It is the testable body of the command.
 func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
-	p, cal, err := resolveModel(s, opts.params, opts.calibration)
+	mod, err := resolveSolveModel(s, opts.params, opts.calibration, opts.methodOptions)
 	if err != nil {
 		return err
 	}
+	p, cal := mod.params, mod.cal
 	out := newOrbitalsWriter(s.out, opts.format, p, cal)
-	var solver huckel.Solver
+	solver := mod.solver()
 	failed, total := 0, 0
 	var single error
 	handle := func(in orbitalsInput) error {
 		total++
-		res, err := computeOrbitals(in, p, opts, &solver)
+		res, err := computeOrbitals(in, p, opts, solver)
 		if err != nil {
 			failed++
 			if in.line == 0 && len(args) == 1 {
@@ -179,7 +192,7 @@ type orbitalsResult struct {
 // computeOrbitals parses, perceives and solves one input. Errors are formatted as
 // "<SMILES>: [line N, ]<position>: <what> (<hint>)", with the SMILES excerpt and caret on
 // the following lines for syntax errors.
-func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver *huckel.Solver) (*orbitalsResult, error) {
+func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver huckel.Method) (*orbitalsResult, error) {
 	where := errtext.Clip(in.smiles)
 	if in.line > 0 {
 		where = fmt.Sprintf("%s: line %d", where, in.line)

@@ -10,6 +10,7 @@ import (
 
 	"cyclopair/fmo"
 	"cyclopair/fmo/rate"
+	"cyclopair/huckel"
 	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
@@ -30,7 +31,8 @@ type pairOptions struct {
 	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
 	rateModel         string  // --rate-model FILE: a model from 'cyclopair calibrate --rates' ("" = bundled)
 	temperature       float64 // --temperature: °C for the isomer shares
-	limits            inputLimits
+	methodOptions
+	limits inputLimits
 }
 
 func newPairCmd(s *streams) *cobra.Command {
@@ -40,7 +42,8 @@ func newPairCmd(s *streams) *cobra.Command {
 		Short: "Frontier-orbital analysis of one cycloaddition pair",
 		Long: `Analyse one 4π partner (--diene: a diene, hetero-diene or 1,3-dipole) with one 2π partner
 (--dienophile) by Hückel frontier-orbital perturbation theory: the normal and inverse
-frontier gaps (x in E = α + xβ, reported in |β| and in eV through the named calibration),
+frontier gaps (x in E = α + xβ, reported in |β| and in eV through the named calibration;
+with --method ppp the orbitals come from PPP-SCF and eV from Koopmans' theorem),
 the demand and Sustmann type, every candidate pair of reacting units in both
 regio-orientations ranked best first with the adduct SMILES, the regio margin and
 confidence, the endo (secondary-orbital) verdict, whether the supra–supra thermal pairing is
@@ -90,6 +93,12 @@ and local rules before any lab work.`,
 			if c.Flags().Changed("lewis-h") && (!slices.Contains(opts.activate, fmo.ActivateLewis) || !(opts.lewisH > 0 && opts.lewisH <= 5)) {
 				return &usageError{fmt.Errorf("--lewis-h %g: needs --activate lewis and a value in (0, 5] (h of the Lewis-acid-bound carbonyl O; free C=O 1.0, protonated 2.5)", opts.lewisH)}
 			}
+			if err := opts.methodOptions.check(); err != nil {
+				return err
+			}
+			if opts.method == huckel.MethodPPP && opts.lewisH != 0 {
+				return &usageError{errors.New("--lewis-h sets a Hückel h value; PPP-SCF takes the O=LA centre from --ppp-params: drop --lewis-h with --method ppp")}
+			}
 			if err := opts.limits.check(); err != nil {
 				return err
 			}
@@ -109,17 +118,19 @@ and local rules before any lab work.`,
 	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
 	addRateFlags(f, &opts.rateModel, &opts.temperature)
+	addMethodFlags(f, &opts.methodOptions, defaultMethod)
 	opts.limits.flags(cmd, false)
 	return cmd
 }
 
 // runPair is the testable body of 'cyclopair pair'.
 func runPair(s *streams, opts *pairOptions) error {
-	p, cal, err := resolveModel(s, opts.params, opts.calibration)
+	mod, err := resolveSolveModel(s, opts.params, opts.calibration, opts.methodOptions)
 	if err != nil {
 		return err
 	}
-	fo := fmo.NewOptions(p, cal, cal.Name)
+	cal := mod.cal
+	fo := mod.options()
 	fo.ChargeTerm = opts.chargeTerm
 	fo.AllOrbitals = opts.allOrbitals
 	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo, &opts.limits)

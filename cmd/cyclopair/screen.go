@@ -43,6 +43,7 @@ type screenOptions struct {
 	changed     func(name string) bool
 	rateModel   string  // --rate-model FILE
 	temperature float64 // --temperature °C for the isomer shares
+	methodOptions
 	// inputFormat and nameField: --input-format and --name-field (list_format.go);
 	// dienesData and dienophilesData are list contents already read (cyclopair serve).
 	inputFormat, nameField      string
@@ -122,6 +123,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html, sdf (each row's product as an SD record)")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
+	addMethodFlags(f, &o.methodOptions, "")
 }
 
 // screenRequest turns the flags into a screen request: a flag the user set overrides the
@@ -139,6 +141,26 @@ func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 		LoadParams: resolveParams,
 		LoadCalibration: func(spec string, p *huckel.Params) (huckel.Calibration, error) {
 			return resolveCalibration(s, spec, p)
+		},
+		Method: o.method, PPPParams: o.pppParams,
+		LoadMethod: func(method, spec string) (func() huckel.Method, *huckel.Calibration, error) {
+			if err := (methodOptions{method: method}).check(); err != nil {
+				return nil, nil, err
+			}
+			if method == "" {
+				method = defaultMethod
+			}
+			if method != huckel.MethodPPP {
+				if o.pppParams != "" {
+					return nil, nil, &usageError{fmt.Errorf("--ppp-params %s: only used with --method ppp", o.pppParams)}
+				}
+				return nil, nil, nil // a file's ppp_params: is ignored under Hückel
+			}
+			m, err := methodModel(method, spec, "", nil, huckel.Calibration{})
+			if err != nil {
+				return nil, nil, err
+			}
+			return m.newMethod, &m.cal, nil
 		},
 	}
 	if changed("activate") {
@@ -213,10 +235,14 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 
 	cal := cfg.Calibration
+	paramsText := cfg.Params.Name
+	if cfg.Method != huckel.MethodHuckel {
+		paramsText += " (perception and k), π method " + cfg.Method
+	}
 	rep := render.Report{
 		Title:             lib.Title,
 		Source:            cfg.Source,
-		Params:            cfg.Params.Name,
+		Params:            paramsText,
 		Calibration:       cal.Name,
 		CalibrationDetail: cal.Detail(),
 		RankBy:            string(cfg.RankBy),

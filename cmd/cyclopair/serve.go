@@ -155,19 +155,20 @@ func webBackend() web.Backend {
 			{Name: "sdf", Ext: ".sdf", Label: "SD file (products)", Type: "chemical/x-mdl-sdfile"},
 		},
 		Modes:       fmo.Modes(),
+		Methods:     methods,
 		Presets:     names,
 		ListFormats: listFormats,
 	}
 }
 
-// webPair is 'cyclopair pair --diene D --dienophile E --activate A --format F'.
+// webPair is 'cyclopair pair --diene D --dienophile E --activate A [--method M] --format F'.
 func webPair(ctx context.Context, q web.PairQuery, format string, out, log io.Writer) error {
 	args := []string{"pair", "--diene=" + q.Diene, "--dienophile=" + q.Dienophile, "--format=" + format}
 	if len(q.Activate) > 0 {
 		args = append(args, "--activate="+strings.Join(q.Activate, ","))
 	}
 	if q.Method != "" {
-		return &web.InputError{Msg: "cyclopair: the π method cannot be chosen yet"}
+		args = append(args, "--method="+q.Method)
 	}
 	s := &streams{in: strings.NewReader(""), out: out, err: log}
 	root := newRootCmd(s)
@@ -206,7 +207,10 @@ func webScreen(ctx context.Context, q web.ScreenQuery, format string, out, log i
 		o.top, set["top"] = q.Top, true
 	}
 	if q.Method != "" {
-		return &web.InputError{Msg: "cyclopair: the π method cannot be chosen yet"}
+		o.method = q.Method
+		if err := o.methodOptions.check(); err != nil {
+			return webError(ctx, log, err)
+		}
 	}
 	o.changed = func(name string) bool { return set[name] }
 	s := &streams{in: strings.NewReader(""), out: out, err: log}
@@ -231,6 +235,8 @@ func refuseLocalFiles(data []byte, name string) error {
 		bad = "params"
 	case lib.Calibration != "" && lib.Calibration != "default":
 		bad = "calibration"
+	case lib.PPPParams != "" && !slices.Contains(presets.PPPNames(), lib.PPPParams):
+		bad = "ppp_params"
 	}
 	if bad != "" {
 		return &web.InputError{Msg: fmt.Sprintf("cyclopair: %s: %s names a file: the web page reads no files from the server's disk (use a built-in parameter set and the default calibration, or run 'cyclopair screen' on the command line)", errtext.Clip(lib.Where(bad)), bad)}

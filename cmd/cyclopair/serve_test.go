@@ -52,6 +52,15 @@ func TestServePairEqualsCLI(t *testing.T) {
 	if rec.Code != 200 || rec.Body.String() != cli || cli == "" {
 		t.Errorf("JSON download (%d) differs from the CLI's", rec.Code)
 	}
+	// The π method chosen on the form is the CLI's --method.
+	rec = serveGet(t, h, "/pair?diene=cyclopentadiene&dienophile=maleic-anhydride&method=ppp&format=json")
+	cli, _, _ = runCLI(t, "", "pair", "--diene", "cyclopentadiene", "--dienophile", "maleic-anhydride", "--method", "ppp", "--format", "json")
+	if rec.Code != 200 || rec.Body.String() != cli || !strings.Contains(cli, `"method":"ppp"`) {
+		t.Errorf("method=ppp (%d) differs from the CLI's --method ppp", rec.Code)
+	}
+	if rec := serveGet(t, h, "/pair?diene=C%3DCC%3DC&dienophile=C%3DC&method=magic"); rec.Code != 400 || !strings.Contains(rec.Body.String(), "--method") {
+		t.Errorf("unknown method: %d", rec.Code)
+	}
 	rec = serveGet(t, h, "/pair?diene=cyclopentadiene&dienophile=maleic-anhydride&activate=none,lewis&format=sdf")
 	cli, _, _ = runCLI(t, "", "pair", "--diene", "cyclopentadiene", "--dienophile", "maleic-anhydride", "--activate", "none,lewis", "--format", "sdf")
 	if rec.Code != 200 || rec.Body.String() != cli || !strings.Contains(cli, "$$$$") {
@@ -135,13 +144,34 @@ func TestServeScreenEqualsCLI(t *testing.T) {
 	if rec.Code != 200 || string(web.StripNav(rec.Body.Bytes())) != cli {
 		t.Errorf("list screen (%d) differs from the CLI's", rec.Code)
 	}
+	// The π method of the screen form is the CLI's --method.
+	rec = postScreen(t, h, map[string]string{"method": "ppp", "top": "3", "dienophiles": "C=CC=O acrolein\nC=CC(=O)OC methyl acrylate"},
+		map[string][2]string{"dienes_file": {"dienes.smi", string(dienes)}})
+	dl = serveGet(t, h, downloadLink(t, rec.Body.String(), ".csv"))
+	cli, _, _ = runCLI(t, "C=CC=O acrolein\nC=CC(=O)OC methyl acrylate", "screen", "--dienes", "dienes.smi", "--dienophiles", "-", "--method", "ppp", "--top", "3", "--format", "csv")
+	if dl.Code != 200 || dl.Body.String() != cli || !strings.Contains(cli, "ppp") {
+		t.Errorf("method=ppp screen (%d) differs from the CLI's:\n%s\nwant\n%s", dl.Code, dl.Body, cli)
+	}
+}
+
+func downloadLink(t *testing.T, body, ext string) string {
+	t.Helper()
+	for _, part := range strings.Split(body, `"`) {
+		if strings.HasPrefix(part, "/screen/") && strings.HasSuffix(part, ext) {
+			return part
+		}
+	}
+	t.Fatalf("no %s download link", ext)
+	return ""
 }
 
 func TestServeRefusesServerFiles(t *testing.T) {
-	yaml := "dienes: [{name: b, smiles: C=CC=C}]\ndienophiles: [{name: e, smiles: C=C}]\nparams: /etc/passwd\n"
-	rec := postScreen(t, serveHandler(), map[string]string{"yaml": yaml}, nil)
-	if rec.Code != 400 || !strings.Contains(rec.Body.String(), "reads no files from the server") {
-		t.Errorf("status %d: %s", rec.Code, rec.Body)
+	for _, extra := range []string{"params: /etc/passwd", "params_file: x.yaml", "calibration: my-cal.yaml", "method: ppp\nppp_params: /etc/passwd"} {
+		yaml := "dienes: [{name: b, smiles: C=CC=C}]\ndienophiles: [{name: e, smiles: C=C}]\n" + extra + "\n"
+		rec := postScreen(t, serveHandler(), map[string]string{"yaml": yaml}, nil)
+		if rec.Code != 400 || !strings.Contains(rec.Body.String(), "reads no files from the server") {
+			t.Errorf("%s: status %d: %s", extra, rec.Code, rec.Body)
+		}
 	}
 }
 
