@@ -239,7 +239,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 
 // ScoreFormula is the ranking formula, reported in every Pair.
 const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
-	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+	"frontier_term = Σ_pairings w_p·2(γΣ_bonds c_r c_s)²/gap over the reacting unit's frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|); " +
+	"w_p = 1 for the smaller gap, max(0, 1 − |gap_normal − gap_inverse|/demand_threshold) for the other"
 
 // endoDistinct reports whether endo and exo approaches of the 2π unit differ at all: some
 // terminus must carry exactly one conjugated substituent (a one-electron π centre outside
