@@ -285,7 +285,9 @@ func FuzzLoadLibrary(f *testing.F) {
 		if err != nil && err.Error() == "" {
 			t.Fatal("empty error message")
 		}
-		_, _, _ = LoadList(strings.NewReader(string(data)), "fuzz.txt", 4, 1<<16)
+		for _, name := range []string{"fuzz.txt", "fuzz.csv", "fuzz.tsv", "fuzz.sdf"} { // every list format
+			_, _, _ = LoadList(strings.NewReader(string(data)), name, 4, 1<<16)
+		}
 	})
 }
 

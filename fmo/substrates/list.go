@@ -62,45 +62,52 @@ func loadText(r io.Reader, name string, format Format, pinMax int, maxBytes int6
 		subs = append(subs, s)
 	}
 	if isCSV {
-		cr := csv.NewReader(bytes.NewReader(data))
-		cr.FieldsPerRecord = -1
-		cr.Comment = '#'
-		cr.TrimLeadingSpace = true
-		if format == FormatTSV {
-			cr.Comma = '\t'
-		}
+		// One record per line: a malformed line (an unterminated quote, a stray quote) is
+		// listed with its line and the reader goes on at the next line, so one bad quote
+		// cannot swallow the rows after it. Quoted fields therefore cannot span lines
+		// (a name or a SMILES never holds a line break).
 		first := true
 		var cols *csvColumns // from the header row; nil: name,smiles records
-		for {
-			rec, err := cr.Read()
-			if err == io.EOF {
-				break
+		lineNo := 0
+		sc := bufio.NewScanner(bytes.NewReader(data))
+		sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
+		for sc.Scan() {
+			lineNo++
+			raw := sc.Text()
+			if t := strings.TrimSpace(raw); t == "" || strings.HasPrefix(t, "#") {
+				continue
 			}
+			cr := csv.NewReader(strings.NewReader(raw))
+			cr.FieldsPerRecord = -1
+			cr.TrimLeadingSpace = true
+			if format == FormatTSV {
+				cr.Comma = '\t'
+			}
+			rec, err := cr.Read()
 			if err != nil {
+				col := 1
 				var pe *csv.ParseError
 				if errors.As(err, &pe) {
-					bad = append(bad, &yamlfile.Error{File: name, Line: pe.Line, Col: pe.Column, Msg: "CSV: " + pe.Err.Error(),
-						Hint: "quote fields that contain commas or quotes", Err: ErrFileSyntax, Cause: err})
-					if len(bad) > 1000 {
-						return subs, bad, nil
-					}
-					continue
+					col = pe.Column
+					err = pe.Err
 				}
-				return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: "CSV: " + err.Error() + "; row skipped",
+					Hint: "quote fields that contain commas or quotes; a quoted field ends on its line", Err: ErrFileSyntax})
+				if len(bad) > 1000 {
+					return subs, bad, nil
+				}
+				continue
 			}
-			line, col := cr.FieldPos(0) // valid only for a record read without error
+			_, col := cr.FieldPos(0)
 			if first {
 				first = false
 				if cols = headerColumns(rec); cols != nil {
 					continue
 				}
 			}
-			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
-				continue
-			}
 			if cols != nil {
 				if len(rec) != len(cols.header) {
-					bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want %d (as in the header row)", len(rec), len(cols.header)),
+					bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want %d (as in the header row)", len(rec), len(cols.header)),
 						Err: ErrBadValue})
 					continue
 				}
@@ -109,16 +116,19 @@ func loadText(r io.Reader, name string, format Format, pinMax int, maxBytes int6
 					nm = strings.TrimSpace(rec[cols.name])
 				}
 				_, scol := cr.FieldPos(cols.smiles)
-				add(line, scol, nm, strings.TrimSpace(rec[cols.smiles]), cols.notes(rec))
+				add(lineNo, scol, nm, strings.TrimSpace(rec[cols.smiles]), cols.notes(rec))
 				continue
 			}
 			if len(rec) != 2 {
-				bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
 					Hint: "or start the file with a header row naming the smiles and name columns", Err: ErrBadValue})
 				continue
 			}
 			_, scol := cr.FieldPos(1)
-			add(line, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]), "")
+			add(lineNo, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]), "")
+		}
+		if err := sc.Err(); err != nil {
+			return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 		}
 		return subs, bad, nil
 	}
