@@ -92,7 +92,7 @@ type Solver struct {
 	bdot                                [diisDepth * diisDepth]float64 // ⟨e_i, e_j⟩ by history slot
 	bmat                                [(diisDepth + 1) * (diisDepth + 1)]float64
 	coefs                               [diisDepth + 1]float64
-	a, w, work, tmp                     []float64
+	a, w, work, tmp, ct, ft             []float64
 	q                                   [1]float64
 	lv                                  []int
 }
@@ -723,8 +723,7 @@ func (s *Solver) diagonalise(occVirt bool) error {
 						}
 					}
 				}
-				s.pseudoDiag(tmp, cb, eps, m, nocc)
-				sortColumns(eps, cb, m)
+				s.pseudoDiag(tmp, cb, eps, m, nocc) // sorts the levels too
 				continue
 			}
 		}
@@ -774,18 +773,27 @@ func (s *Solver) closedShell(f int) int {
 // rotations vanish as the SCF converges, and the final diagonalisation is a full one.
 // eps receives the diagonal (the level order for aufbau).
 func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
+	// Work on transposed copies, so that the columns of C and F·C are contiguous rows
+	// (the same arithmetic in the same order as on the columns).
+	s.ct, s.ft = growF(s.ct, m*m), growF(s.ft, m*m)
+	ct, ft := s.ct[:m*m], s.ft[:m*m]
+	transpose(ct, c, m)
+	transpose(ft, fc, m)
 	for k := 0; k < m; k++ {
+		ck, fk := ct[k*m:k*m+m], ft[k*m:k*m+m]
 		v := 0.0
-		for r := 0; r < m; r++ {
-			v += c[r*m+k] * fc[r*m+k]
+		for r, x := range ck {
+			v += x * fk[r]
 		}
 		eps[k] = v
 	}
 	for i := 0; i < nocc; i++ {
+		ci := ct[i*m : i*m+m]
 		for v := nocc; v < m; v++ {
+			fv := ft[v*m : v*m+m]
 			fiv := 0.0
-			for r := 0; r < m; r++ {
-				fiv += c[r*m+i] * fc[r*m+v]
+			for r, x := range ci {
+				fiv += x * fv[r]
 			}
 			if math.Abs(fiv) < jacobiTol {
 				continue
@@ -797,11 +805,33 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			}
 			cs := 1 / math.Sqrt(t*t+1)
 			sn := t * cs
-			for r := 0; r < m; r++ {
-				ci, cv := c[r*m+i], c[r*m+v]
-				c[r*m+i] = cs*ci - sn*cv
-				c[r*m+v] = sn*ci + cs*cv
+			cv := ct[v*m : v*m+m]
+			for r, x := range ci {
+				y := cv[r]
+				ci[r] = cs*x - sn*y
+				cv[r] = sn*x + cs*y
 			}
+		}
+	}
+	// Sort the levels (rows of Cᵀ) ascending, then copy back.
+	for i := 1; i < m; i++ {
+		for j := i; j > 0 && eps[j] < eps[j-1]; j-- {
+			eps[j], eps[j-1] = eps[j-1], eps[j]
+			rj, rk := ct[j*m:j*m+m], ct[(j-1)*m:j*m]
+			for k := range rj {
+				rj[k], rk[k] = rk[k], rj[k]
+			}
+		}
+	}
+	transpose(c, ct, m)
+}
+
+// transpose writes the transpose of the m×m matrix src into dst.
+func transpose(dst, src []float64, m int) {
+	for i := 0; i < m; i++ {
+		row := src[i*m : i*m+m]
+		for j, x := range row {
+			dst[j*m+i] = x
 		}
 	}
 }
@@ -822,7 +852,7 @@ func sortColumns(eps, c []float64, m int) {
 // finish diagonalises the Fock matrix of the converged density and fills into.
 func (s *Solver) finish(ps *huckel.PiSystem, into *huckel.Orbitals) error {
 	n := len(ps.Centres)
-	en := s.fock(s.pd, s.f)
+	en := s.stats.EnergyEV // iterate returned with s.f = F(s.pd) and its energy
 	copy(s.fx, s.f)
 	s.stats.EnergyEV = en
 	s.stats.Brillouin = s.commutator(s.f, s.pd, s.e)
