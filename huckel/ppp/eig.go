@@ -14,7 +14,7 @@ const eigQLMaxIter = 60
 // R. S. Martin, C. Reinsch, J. H. Wilkinson, Numer. Math. 1968, 11, 181) followed by the
 // implicit QL method with shifts (tql2, H. Bowdler, R. S. Martin, C. Reinsch,
 // J. H. Wilkinson, Numer. Math. 1968, 11, 293), as in the EISPACK routines of the same
-// names; for the small blocks of a π system (≤ jacobiMax centres) it needs a fraction of
+// names; for the small blocks of a π system it needs about a third of
 // the work of cyclic Jacobi from the unit matrix.
 func symEig(a []float64, m int, d, e []float64) bool {
 	if m == 1 {

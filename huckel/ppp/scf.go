@@ -34,11 +34,11 @@ const (
 	diisCycles = 60
 	// damping is the weight of the old density in the fallback damped iteration.
 	damping = 0.5
-	// jacobiMax is the largest closed-shell fragment given the pseudo-diagonalisation
+	// pseudoMax is the largest closed-shell fragment given the pseudo-diagonalisation
 	// (2×2 rotations) in the SCF loop; larger fragments are diagonalised in full.
-	jacobiMax = 40
-	// jacobiTol: occupied–virtual elements (eV) below it get no rotation.
-	jacobiTol = 1e-11
+	pseudoMax = 40
+	// rotTol: occupied–virtual elements (eV) below it get no rotation.
+	rotTol = 1e-11
 )
 
 // maxIter is MaxIter, a variable so the failure path can be tested.
@@ -695,7 +695,7 @@ func solveSmall(a, x []float64, n int) bool {
 // diagonalise replaces s.c and s.eps by the eigenvectors and eigenvalues (ascending) of
 // every fragment block of s.f, by Householder reduction and implicit QL (symEig; LAPACK's
 // dsyev through gonum if QL should fail). With occVirt (inside the SCF loop) a
-// closed-shell block of up to jacobiMax centres gets the cheaper pseudo-diagonalisation in
+// closed-shell block of up to pseudoMax centres gets the cheaper pseudo-diagonalisation in
 // the basis of the current s.c instead (see pseudoDiag); the final diagonalisation is full.
 func (s *Solver) diagonalise(occVirt bool) error {
 	for f, m := range s.fragM {
@@ -706,7 +706,7 @@ func (s *Solver) diagonalise(occVirt bool) error {
 			cb[0], eps[0] = 1, fb[0]
 			continue
 		}
-		if occVirt && m <= jacobiMax {
+		if occVirt && m <= pseudoMax {
 			if nocc := s.closedShell(f); nocc > 0 && nocc < m {
 				s.tmp = growF(s.tmp, m*m)
 				tmp := s.tmp[:m*m]
@@ -795,7 +795,7 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			for r, x := range ci {
 				fiv += x * fv[r]
 			}
-			if math.Abs(fiv) < jacobiTol {
+			if math.Abs(fiv) < rotTol {
 				continue
 			}
 			theta := (eps[v] - eps[i]) / (2 * fiv)
