@@ -17,16 +17,27 @@ type graph struct {
 }
 
 func newGraph(m *molecule.Molecule) *graph {
-	g := &graph{n: len(m.Atoms), adj: make([][]int, len(m.Atoms)), bondOf: make([][]int, len(m.Atoms))}
+	n := len(m.Atoms)
+	g := &graph{n: n, adj: make([][]int, n), bondOf: make([][]int, n)}
+	deg := 0
 	for i := range m.Atoms {
+		deg += len(m.Neighbors(i))
+	}
+	// One backing array each for the neighbour and bond lists (capped sub-slices).
+	adj, bondOf := make([]int, 0, deg), make([]int, 0, deg)
+	for i := range m.Atoms {
+		k := len(adj)
 		for _, e := range m.Neighbors(i) {
-			g.adj[i] = append(g.adj[i], e.To)
-			g.bondOf[i] = append(g.bondOf[i], e.Bond)
+			adj = append(adj, e.To)
+			bondOf = append(bondOf, e.Bond)
+		}
+		if len(adj) > k {
+			g.adj[i], g.bondOf[i] = adj[k:len(adj):len(adj)], bondOf[k:len(adj):len(adj)]
 		}
 	}
-	for _, b := range m.Bonds {
-		g.bonds = append(g.bonds, [2]int{b.A, b.B})
-		g.order = append(g.order, b.Order)
+	g.bonds, g.order = make([][2]int, len(m.Bonds)), make([]int, len(m.Bonds))
+	for bi, b := range m.Bonds {
+		g.bonds[bi], g.order[bi] = [2]int{b.A, b.B}, b.Order
 	}
 	g.inRing = g.ringBonds()
 	return g
@@ -147,6 +158,18 @@ func (g *graph) sssr() [][]int {
 	parent := make([]int, g.n)
 	parentBond := make([]int, g.n)
 	depth := make([]int, g.n)
+	onX := make([]int, g.n) // onX[v] == stamp: v is on the current path r … x
+	stamp := 0
+	// Buffers reused across roots and candidate bonds.
+	var q, px, py, cyc, key []int
+	var kb []byte
+	pathTo := func(p []int, x int) []int { // x … r
+		p = p[:0]
+		for v := x; v >= 0; v = parent[v] {
+			p = append(p, v)
+		}
+		return p
+	}
 	for r := 0; r < g.n; r++ {
 		if !ringAtom[r] {
 			continue
@@ -155,12 +178,9 @@ func (g *graph) sssr() [][]int {
 			parent[i], depth[i] = -2, -1
 		}
 		parent[r], depth[r], parentBond[r] = -1, 0, -1
-		q := []int{r}
-		var order []int
-		for len(q) > 0 {
-			v := q[0]
-			q = q[1:]
-			order = append(order, v)
+		q = append(q[:0], r)
+		for h := 0; h < len(q); h++ {
+			v := q[h]
 			for k, w := range g.adj[v] {
 				b := g.bondOf[v][k]
 				if !g.inRing[b] || depth[w] >= 0 {
@@ -170,13 +190,6 @@ func (g *graph) sssr() [][]int {
 				q = append(q, w)
 			}
 		}
-		pathTo := func(x int) []int { // x … r
-			var p []int
-			for v := x; v >= 0; v = parent[v] {
-				p = append(p, v)
-			}
-			return p
-		}
 		for b, isRing := range g.inRing {
 			if !isRing {
 				continue
@@ -185,15 +198,15 @@ func (g *graph) sssr() [][]int {
 			if depth[x] < 0 || depth[y] < 0 || parentBond[x] == b || parentBond[y] == b {
 				continue
 			}
-			px, py := pathTo(x), pathTo(y)
+			px, py = pathTo(px, x), pathTo(py, y)
 			// the paths must meet only at r
-			onX := make(map[int]bool, len(px))
+			stamp++
 			for _, v := range px[:len(px)-1] {
-				onX[v] = true
+				onX[v] = stamp
 			}
 			ok := true
 			for _, v := range py[:len(py)-1] {
-				if onX[v] {
+				if onX[v] == stamp {
 					ok = false
 					break
 				}
@@ -202,27 +215,26 @@ func (g *graph) sssr() [][]int {
 				continue
 			}
 			// cycle: r … x (reverse of px), then y … r without repeating r
-			cyc := make([]int, 0, len(px)+len(py)-1)
+			cyc = cyc[:0]
 			for i := len(px) - 1; i >= 0; i-- {
 				cyc = append(cyc, px[i])
 			}
 			cyc = append(cyc, py[:len(py)-1]...)
-			key := slices.Clone(cyc)
+			key = append(key[:0], cyc...)
 			slices.Sort(key)
-			ks := keyString(key)
-			if seenKey[ks] {
+			kb = appendKey(kb[:0], key)
+			if seenKey[string(kb)] {
 				continue
 			}
-			seenKey[ks] = true
+			seenKey[string(kb)] = true
 			bits := make([]uint64, words)
 			for i, v := range cyc {
 				w := cyc[(i+1)%len(cyc)]
 				bi := g.bondIndex(v, w)
 				bits[bi/64] |= 1 << (bi % 64)
 			}
-			cands = append(cands, cand{atoms: cyc, key: key, bits: bits})
+			cands = append(cands, cand{atoms: slices.Clone(cyc), key: slices.Clone(key), bits: bits})
 		}
-		_ = order
 	}
 	slices.SortStableFunc(cands, func(a, b cand) int {
 		if len(a.key) != len(b.key) {
@@ -308,10 +320,10 @@ func canonicalRing(r []int) []int {
 	return out
 }
 
-func keyString(key []int) string {
-	b := make([]byte, 0, 4*len(key))
+// appendKey appends the bytes of key (4 per atom index) to b: the dedup key of a ring.
+func appendKey(b []byte, key []int) []byte {
 	for _, v := range key {
 		b = append(b, byte(v>>24), byte(v>>16), byte(v>>8), byte(v))
 	}
-	return string(b)
+	return b
 }

@@ -34,11 +34,11 @@ const (
 	diisCycles = 60
 	// damping is the weight of the old density in the fallback damped iteration.
 	damping = 0.5
-	// jacobiMax is the largest fragment diagonalised by warm-started Jacobi rotations in
-	// the SCF loop; larger fragments use lapack64.Syev.
-	jacobiMax = 40
-	// jacobiTol: Jacobi sweeps stop when every off-diagonal element is below it (eV).
-	jacobiTol = 1e-11
+	// pseudoMax is the largest closed-shell fragment given the pseudo-diagonalisation
+	// (2×2 rotations) in the SCF loop; larger fragments are diagonalised in full.
+	pseudoMax = 40
+	// rotTol: occupied–virtual elements (eV) below it get no rotation.
+	rotTol = 1e-11
 )
 
 // maxIter is MaxIter, a variable so the failure path can be tested.
@@ -92,7 +92,7 @@ type Solver struct {
 	bdot                                [diisDepth * diisDepth]float64 // ⟨e_i, e_j⟩ by history slot
 	bmat                                [(diisDepth + 1) * (diisDepth + 1)]float64
 	coefs                               [diisDepth + 1]float64
-	a, w, work, tmp                     []float64
+	a, w, work, tmp, ct, ft             []float64
 	q                                   [1]float64
 	lv                                  []int
 }
@@ -349,7 +349,7 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 // with the Hückel density.
 func (s *Solver) start(ps *huckel.PiSystem) error {
 	clear(s.c)
-	if s.jacobiStart(ps) {
+	if s.denseStart(ps) {
 		s.occupy()
 		s.density(s.pd)
 		return nil
@@ -357,7 +357,7 @@ func (s *Solver) start(ps *huckel.PiSystem) error {
 	if err := s.hs.Solve(ps, &s.ho); err != nil {
 		// The Hückel start failed (e.g. an ω iteration): start from the core Hamiltonian.
 		copy(s.f, s.hc)
-		if err := s.diagonalise(false, false); err != nil {
+		if err := s.diagonalise(false); err != nil {
 			return err
 		}
 	} else {
@@ -383,47 +383,41 @@ func (s *Solver) start(ps *huckel.PiSystem) error {
 	return nil
 }
 
-// jacobiStart is the Hückel start without a huckel.Solver: when every fragment has at most
-// jacobiMax centres and ps asks for no ω iteration, it builds each fragment's Hückel
-// matrix (h_i on the diagonal, k_ij for the π bonds, as huckel.Solve does) and
-// diagonalises it by Jacobi rotations from the unit matrix into s.c and s.eps. The start
-// vectors are then the Hückel eigenvectors up to the basis chosen inside degenerate sets,
-// which the SCF does not depend on (a degenerate set is occupied evenly). It returns false
-// (and leaves the work to the huckel.Solver path) otherwise.
-func (s *Solver) jacobiStart(ps *huckel.PiSystem) bool {
+// denseStart is the Hückel start without a huckel.Solver: when ps asks for no ω
+// iteration, it builds each fragment's Hückel matrix (h_i on the diagonal, k_ij for the π
+// bonds, as huckel.Solve does) in s.c and diagonalises it in place by Householder
+// reduction and implicit QL (symEig) into s.c and s.eps. The start vectors are then the
+// Hückel eigenvectors up to the basis chosen inside degenerate sets, which the SCF does not
+// depend on (a degenerate set is occupied evenly). It returns false (and leaves the work
+// to the huckel.Solver path) for an ω iteration or when QL fails.
+func (s *Solver) denseStart(ps *huckel.PiSystem) bool {
 	if ps.Omega != 0 {
 		return false
 	}
-	for _, m := range s.fragM {
-		if m > jacobiMax {
-			return false
-		}
-	}
-	pk := s.pkO[len(s.fragM)]
-	s.fx = growF(s.fx, pk)
-	hm := s.fx[:pk] // scratch: fx is rewritten by finish
-	clear(hm)
 	for f, m := range s.fragM {
 		o, po := s.fragOff[f], s.pkO[f]
 		for i := 0; i < m; i++ {
-			hm[po+i*m+i] = ps.Centres[s.perm[o+i]].H
-			s.c[po+i*m+i] = 1
+			s.c[po+i*m+i] = ps.Centres[s.perm[o+i]].H
 		}
 	}
 	for _, b := range ps.Bonds {
 		f := ps.Centres[b.I].Fragment
 		m, o, po := s.fragM[f], s.fragOff[f], s.pkO[f]
 		i, j := s.inv[b.I]-o, s.inv[b.J]-o
-		hm[po+i*m+j] += b.K
-		hm[po+j*m+i] += b.K
+		s.c[po+i*m+j] += b.K
+		s.c[po+j*m+i] += b.K
 	}
 	scale := math.Abs(s.p.Beta0)
 	for f, m := range s.fragM {
 		o, po := s.fragOff[f], s.pkO[f]
-		a, cb, eps := hm[po:po+m*m], s.c[po:po+m*m], s.eps[o:o+m]
-		jacobi(a, cb, m)
+		cb, eps := s.c[po:po+m*m], s.eps[o:o+m]
+		s.w = growF(s.w, m)
+		if !symEig(cb, m, eps, s.w[:m]) {
+			clear(s.c)
+			return false
+		}
 		for i := 0; i < m; i++ {
-			eps[i] = -a[i*m+i] * scale // x descending = energy ascending
+			eps[i] = -eps[i] * scale // x descending = energy ascending
 		}
 		sortColumns(eps, cb, m)
 	}
@@ -585,7 +579,7 @@ func (s *Solver) iterate(ps *huckel.PiSystem) error {
 			s.hist++
 			s.extrapolate(pk)
 		}
-		if err := s.diagonalise(true, true); err != nil {
+		if err := s.diagonalise(true); err != nil {
 			return err
 		}
 		s.occupy()
@@ -699,12 +693,11 @@ func solveSmall(a, x []float64, n int) bool {
 }
 
 // diagonalise replaces s.c and s.eps by the eigenvectors and eigenvalues (ascending) of
-// every fragment block of s.f. With warm = true, fragments up to jacobiMax centres are
-// diagonalised by Jacobi rotations in the basis of the current s.c (nearly diagonal once
-// the SCF settles, so one or two sweeps suffice); larger ones, and the cold start, use
-// lapack64.Syev. With occVirt (inside the SCF loop) a closed-shell block gets the cheaper
-// pseudo-diagonalisation instead (see pseudoDiag); the final diagonalisation is full.
-func (s *Solver) diagonalise(warm, occVirt bool) error {
+// every fragment block of s.f, by Householder reduction and implicit QL (symEig; LAPACK's
+// dsyev through gonum if QL should fail). With occVirt (inside the SCF loop) a
+// closed-shell block of up to pseudoMax centres gets the cheaper pseudo-diagonalisation in
+// the basis of the current s.c instead (see pseudoDiag); the final diagonalisation is full.
+func (s *Solver) diagonalise(occVirt bool) error {
 	for f, m := range s.fragM {
 		o, po := s.fragOff[f], s.pkO[f]
 		fb, cb := s.f[po:po+m*m], s.c[po:po+m*m]
@@ -713,58 +706,35 @@ func (s *Solver) diagonalise(warm, occVirt bool) error {
 			cb[0], eps[0] = 1, fb[0]
 			continue
 		}
-		s.a = growF(s.a, m*m)
-		if warm && m <= jacobiMax {
-			s.tmp = growF(s.tmp, m*m)
-			tmp, a := s.tmp[:m*m], s.a[:m*m]
-			// tmp = F C, row-oriented so the inner loops run over contiguous memory.
-			clear(tmp)
-			for i := 0; i < m; i++ {
-				ti := tmp[i*m : i*m+m]
-				for k, fik := range fb[i*m : i*m+m] {
-					if fik == 0 {
-						continue
-					}
-					for j, ckj := range cb[k*m : k*m+m] {
-						ti[j] += fik * ckj
+		if occVirt && m <= pseudoMax {
+			if nocc := s.closedShell(f); nocc > 0 && nocc < m {
+				s.tmp = growF(s.tmp, m*m)
+				tmp := s.tmp[:m*m]
+				// tmp = F C, row-oriented so the inner loops run over contiguous memory.
+				clear(tmp)
+				for i := 0; i < m; i++ {
+					ti := tmp[i*m : i*m+m]
+					for k, fik := range fb[i*m : i*m+m] {
+						if fik == 0 {
+							continue
+						}
+						for j, ckj := range cb[k*m : k*m+m] {
+							ti[j] += fik * ckj
+						}
 					}
 				}
-			}
-			nocc := -1
-			if occVirt {
-				nocc = s.closedShell(f)
-			}
-			if nocc > 0 && nocc < m {
-				s.pseudoDiag(tmp, cb, eps, m, nocc)
-				sortColumns(eps, cb, m)
+				s.pseudoDiag(tmp, cb, eps, m, nocc) // sorts the levels too
 				continue
 			}
-			// a = Cᵀ tmp, then full Jacobi.
-			clear(a)
-			for k := 0; k < m; k++ {
-				tk := tmp[k*m : k*m+m]
-				for i, cki := range cb[k*m : k*m+m] {
-					ai := a[i*m : i*m+m]
-					for j, v := range tk {
-						ai[j] += cki * v
-					}
-				}
-			}
-			for i := 0; i < m; i++ { // symmetrise rounding
-				for j := i + 1; j < m; j++ {
-					v := 0.5 * (a[i*m+j] + a[j*m+i])
-					a[i*m+j], a[j*m+i] = v, v
-				}
-			}
-			jacobi(a, cb, m)
-			for i := 0; i < m; i++ {
-				eps[i] = a[i*m+i]
-			}
+		}
+		copy(cb, fb)
+		s.w = growF(s.w, m)
+		if symEig(cb, m, eps, s.w[:m]) {
 			sortColumns(eps, cb, m)
 			continue
 		}
+		s.a = growF(s.a, m*m)
 		copy(s.a, fb)
-		s.w = growF(s.w, m)
 		sym := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: s.a[:m*m]}
 		lapack64.Syev(lapack.EVCompute, sym, s.w, s.q[:], -1)
 		s.work = growF(s.work, int(s.q[0]))
@@ -775,28 +745,6 @@ func (s *Solver) diagonalise(warm, occVirt bool) error {
 		copy(eps, s.w[:m])
 	}
 	return nil
-}
-
-// jacobi diagonalises the symmetric m×m matrix a by cyclic Jacobi rotations, applying
-// each rotation to the columns of c as well (H. Rutishauser, Numer. Math. 1966, 9, 1;
-// W. H. Press et al., Numerical Recipes, §11.1). The eigenvalues end on the diagonal of a.
-func jacobi(a, c []float64, m int) {
-	for sweep := 0; sweep < 50; sweep++ {
-		off := 0.0
-		for p := 0; p < m; p++ {
-			for q := p + 1; q < m; q++ {
-				off = max(off, math.Abs(a[p*m+q]))
-			}
-		}
-		if off < jacobiTol {
-			return
-		}
-		for p := 0; p < m-1; p++ {
-			for q := p + 1; q < m; q++ {
-				rotate(a, c, m, p, q)
-			}
-		}
-	}
 }
 
 // closedShell returns the number of doubly occupied levels of fragment f when its
@@ -825,20 +773,29 @@ func (s *Solver) closedShell(f int) int {
 // rotations vanish as the SCF converges, and the final diagonalisation is a full one.
 // eps receives the diagonal (the level order for aufbau).
 func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
+	// Work on transposed copies, so that the columns of C and F·C are contiguous rows
+	// (the same arithmetic in the same order as on the columns).
+	s.ct, s.ft = growF(s.ct, m*m), growF(s.ft, m*m)
+	ct, ft := s.ct[:m*m], s.ft[:m*m]
+	transpose(ct, c, m)
+	transpose(ft, fc, m)
 	for k := 0; k < m; k++ {
+		ck, fk := ct[k*m:k*m+m], ft[k*m:k*m+m]
 		v := 0.0
-		for r := 0; r < m; r++ {
-			v += c[r*m+k] * fc[r*m+k]
+		for r, x := range ck {
+			v += x * fk[r]
 		}
 		eps[k] = v
 	}
 	for i := 0; i < nocc; i++ {
+		ci := ct[i*m : i*m+m]
 		for v := nocc; v < m; v++ {
+			fv := ft[v*m : v*m+m]
 			fiv := 0.0
-			for r := 0; r < m; r++ {
-				fiv += c[r*m+i] * fc[r*m+v]
+			for r, x := range ci {
+				fiv += x * fv[r]
 			}
-			if math.Abs(fiv) < jacobiTol {
+			if math.Abs(fiv) < rotTol {
 				continue
 			}
 			theta := (eps[v] - eps[i]) / (2 * fiv)
@@ -848,44 +805,34 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			}
 			cs := 1 / math.Sqrt(t*t+1)
 			sn := t * cs
-			for r := 0; r < m; r++ {
-				ci, cv := c[r*m+i], c[r*m+v]
-				c[r*m+i] = cs*ci - sn*cv
-				c[r*m+v] = sn*ci + cs*cv
+			cv := ct[v*m : v*m+m]
+			for r, x := range ci {
+				y := cv[r]
+				ci[r] = cs*x - sn*y
+				cv[r] = sn*x + cs*y
 			}
 		}
 	}
+	// Sort the levels (rows of Cᵀ) ascending, then copy back.
+	for i := 1; i < m; i++ {
+		for j := i; j > 0 && eps[j] < eps[j-1]; j-- {
+			eps[j], eps[j-1] = eps[j-1], eps[j]
+			rj, rk := ct[j*m:j*m+m], ct[(j-1)*m:j*m]
+			for k := range rj {
+				rj[k], rk[k] = rk[k], rj[k]
+			}
+		}
+	}
+	transpose(c, ct, m)
 }
 
-// rotate applies the Jacobi rotation that zeroes a[p][q] to a (both sides) and to the
-// columns of c.
-func rotate(a, c []float64, m, p, q int) {
-	apq := a[p*m+q]
-	if math.Abs(apq) < jacobiTol*1e-2 {
-		return
-	}
-	theta := (a[q*m+q] - a[p*m+p]) / (2 * apq)
-	t := 1 / (math.Abs(theta) + math.Sqrt(theta*theta+1))
-	if theta < 0 {
-		t = -t
-	}
-	cs := 1 / math.Sqrt(t*t+1)
-	sn := t * cs
-	for k := 0; k < m; k++ {
-		akp, akq := a[k*m+p], a[k*m+q]
-		a[k*m+p] = cs*akp - sn*akq
-		a[k*m+q] = sn*akp + cs*akq
-	}
-	rp, rq := a[p*m:p*m+m], a[q*m:q*m+m]
-	for k := 0; k < m; k++ {
-		apk, aqk := rp[k], rq[k]
-		rp[k] = cs*apk - sn*aqk
-		rq[k] = sn*apk + cs*aqk
-	}
-	for k := 0; k < m; k++ {
-		ckp, ckq := c[k*m+p], c[k*m+q]
-		c[k*m+p] = cs*ckp - sn*ckq
-		c[k*m+q] = sn*ckp + cs*ckq
+// transpose writes the transpose of the m×m matrix src into dst.
+func transpose(dst, src []float64, m int) {
+	for i := 0; i < m; i++ {
+		row := src[i*m : i*m+m]
+		for j, x := range row {
+			dst[j*m+i] = x
+		}
 	}
 }
 
@@ -905,11 +852,11 @@ func sortColumns(eps, c []float64, m int) {
 // finish diagonalises the Fock matrix of the converged density and fills into.
 func (s *Solver) finish(ps *huckel.PiSystem, into *huckel.Orbitals) error {
 	n := len(ps.Centres)
-	en := s.fock(s.pd, s.f)
+	en := s.stats.EnergyEV // iterate returned with s.f = F(s.pd) and its energy
 	copy(s.fx, s.f)
 	s.stats.EnergyEV = en
 	s.stats.Brillouin = s.commutator(s.f, s.pd, s.e)
-	if err := s.diagonalise(true, false); err != nil {
+	if err := s.diagonalise(false); err != nil {
 		return err
 	}
 	s.occupy()
