@@ -68,20 +68,20 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 				s := s01[or]
 				s.endo = k.endoTerm(&dd.fast, &ed.fast, &diene.endo[di], &dienophile.endo[ei], or)
 				pm, bonds := buildProduct(diene, dienophile, di, ei, or)
-				smi := productSMILES(pm)
+				key := productKey(pm)
 				dAtoms := slices.Clone(du.Atoms)
 				eAtoms := []int{bonds[0][1], bonds[1][1]}
 				method := "second-order"
 				if s.firstOrder {
 					method = "first-order"
 				}
-				c := cand{s: s, di: di, ei: ei, or: or, product: productKey(pm)}
+				c := cand{s: s, di: di, ei: ei, or: or, product: key}
 				c.o = Orientation{
 					Site:            siteName(diene, du, dienophile, eAtoms),
 					DieneAtoms:      dAtoms,
 					DienophileAtoms: eAtoms,
 					Bonds:           bonds,
-					Product:         smi,
+					Product:         key,
 					Stabilization:   s.stab,
 					FrontierTerm:    s.frontier,
 					ChargeTerm:      s.charge,
@@ -95,6 +95,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 					Kind:            cycloKind(du),
 					RingSize:        du.RingSize(),
 				}
+				endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && s.frontier > 0 && s.endo/s.frontier >= opts.EndoWeak
+				c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, key, endoPref)
 				cands = append(cands, c)
 			}
 		}
@@ -141,8 +143,16 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	if dienophile.Activation != "none" && dienophile.Active != nil {
 		pair.ActivatedDienophile = productSMILES(dienophile.Active)
 	}
+	// One row per distinct adduct: an orientation giving the same compound as a better one
+	// (the two orientations of a symmetric partner, symmetry-equivalent sites) is not listed
+	// again; margins below still look at every candidate.
+	listed := map[string]bool{}
 	for i := range cands {
 		cands[i].o.Preferred = i == 0
+		if listed[cands[i].product] {
+			continue
+		}
+		listed[cands[i].product] = true
 		pair.Orientations = append(pair.Orientations, cands[i].o)
 	}
 

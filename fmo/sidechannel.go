@@ -189,8 +189,13 @@ func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cac
 		add(dimerisation(diene, opts))
 	}
 
-	// The adduct's remaining π bonds with the 4π partner.
-	prodSMILES := pair.Orientations[0].Product
+	// The remaining π bonds of the isolated product (after any loss of N₂, CO₂ or an
+	// alcohol: the bridged N=N of a tetrazine adduct is gone before a second diene could
+	// meet it) with the 4π partner.
+	prodSMILES := pair.Orientations[0].IsolatedProduct
+	if prodSMILES == "" {
+		prodSMILES = pair.Orientations[0].Product
+	}
 	if pm, err := smiles.Parse(prodSMILES); err == nil {
 		pm.Name = "adduct " + prodSMILES
 		add(analyseSide(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, diene, pm, opts))
