@@ -124,7 +124,7 @@ type ActivationEffect struct {
 
 // Pair is the analysis of one 4π partner ("diene": diene, hetero-diene or 1,3-dipole) with one
 // 2π partner ("dienophile") under one activation. Field names in JSON are a contract that other
-// tools parse (../shared/DESIGN.md): keep them stable.
+// tools parse (DEVELOPERS.md, "Output contracts"): keep them stable.
 type Pair struct {
 	DieneName           string `json:"diene_name,omitempty"`
 	DienophileName      string `json:"dienophile_name,omitempty"`

@@ -12,7 +12,7 @@ import (
 	"github.com/spf13/cobra"
 )
 
-// Exit codes (../shared/DESIGN.md): 0 success, 1 the analysis ran but some inputs failed,
+// Exit codes (DEVELOPERS.md, "Output contracts"): 0 success, 1 the analysis ran but some inputs failed,
 // 2 bad usage or unreadable input.
 const (
 	exitOK      = 0
@@ -62,7 +62,9 @@ Energies are given as x in E = α + xβ (β < 0, bonding levels have x > 0) and 
 a stated linear calibration. Results are estimates for planning, not safety assessments.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		Version:       version(),
 	}
+	root.SetVersionTemplate("cyclopair {{.Version}}\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return &usageError{err} })
 	root.AddCommand(
 		// Each command is built by its own constructor in its own file.
@@ -75,6 +77,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newPairCmd(s),
 		newCalibrateCmd(s),
 		newValidateCmd(s),
+		newStarterCmd(s),
 	)
 	return root
 }
