@@ -112,6 +112,9 @@ func FindActivationSite(m *molecule.Molecule, mode string) (ActivationSite, erro
 				continue
 			}
 			alpha, beta := conjugatedPartner(m, c, bi)
+			if mode == ActivateIminium && !iminiumPlausible(m, c, x, alpha, kind) {
+				continue
+			}
 			rank := 0
 			if kind == "imine" {
 				rank++
@@ -127,11 +130,38 @@ func FindActivationSite(m *molecule.Molecule, mode string) (ActivationSite, erro
 	if best.Acceptor < 0 {
 		what := "no carbonyl or imine to activate (use --activate none)"
 		if mode == ActivateIminium {
-			what = "no aldehyde or ketone to turn into an iminium ion (use --activate none, proton or lewis)"
+			what = "no α,β-unsaturated aldehyde or unhindered enone to turn into an iminium ion (quinones, ene-diones, anhydrides, esters and amides do not form one; use --activate none, proton or lewis)"
 		}
 		return best, fmt.Errorf("dienophile %s has %s: %w", moleculeLabel(m), what, ErrNothingToActivate)
 	}
 	return best, nil
+}
+
+// iminiumPlausible: iminium catalysis works with α,β-unsaturated aldehydes and unhindered
+// enones (K. A. Ahrendt, C. J. Borths, D. W. C. MacMillan, J. Am. Chem. Soc. 2000, 122, 4243,
+// imidazolidinone secondary-amine catalyst, enals; enones need an unhindered ketone):
+// the carbonyl must be conjugated with a C=C, not part of a quinone or ene-1,4-dione (amines
+// add to those in conjugate fashion), and a ketone's other substituent must be unbranched
+// (at most one heavy neighbour besides the carbonyl carbon, or in a ring with it) (common
+// practice, no source).
+func iminiumPlausible(m *molecule.Molecule, c, o, alpha int, kind string) bool {
+	if alpha < 0 {
+		return false
+	}
+	if enedione(m, ActivationSite{Acceptor: o, Carbon: c, Alpha: alpha}) {
+		return false
+	}
+	if kind == "ketone" {
+		for _, e := range m.Neighbors(c) {
+			if e.To == o || e.To == alpha {
+				continue
+			}
+			if m.Degree(e.To) > 2 {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // carbonylKind classifies the carbonyl carbon c (=O at o) by its other neighbours.

@@ -138,7 +138,10 @@ func TestActivateErrors(t *testing.T) {
 	}{
 		{"C=C", ActivateLewis, ErrNothingToActivate, "dienophile ethylene has no carbonyl or imine to activate (use --activate none)"},
 		{"C=CC#N", ActivateProton, ErrNothingToActivate, "no carbonyl or imine"},
-		{"C=CC(=O)OC", ActivateIminium, ErrNothingToActivate, "no aldehyde or ketone"},
+		{"C=CC(=O)OC", ActivateIminium, ErrNothingToActivate, "no α,β-unsaturated aldehyde"},
+		{"CCC=O", ActivateIminium, ErrNothingToActivate, "no α,β-unsaturated aldehyde"},            // saturated aldehyde: no C=C to activate
+		{"O=C1C=CC(=O)C=C1", ActivateIminium, ErrNothingToActivate, "no α,β-unsaturated aldehyde"}, // quinone
+		{"C=CC(=O)C(C)(C)C", ActivateIminium, ErrNothingToActivate, "unhindered enone"},            // hindered enone
 		{"C=CC=O", "heat", ErrUnknownMode, `unknown activation mode "heat"`},
 	} {
 		m := mustParse(t, tc.smiles)
@@ -157,8 +160,8 @@ func TestActivateWarnings(t *testing.T) {
 		smiles string
 		want   []string // substrings, in order; nil = no warning
 	}{
-		{"C=CC=O", nil},                // acrolein: no α-H on sp3 carbon, aldehyde
-		{"CCC=O", []string{"enamine"}}, // propanal: α-CH2
+		{"C=CC=O", nil}, // acrolein: no α-H on sp3 carbon, aldehyde
+		{"C=CC(=O)CC", []string{"ketone", "enamine"}}, // ethyl vinyl ketone: α-CH2
 		{"C=CC(C)=O", []string{"ketone", "enamine"}},
 		{"C/C=C/C=O", nil},
 	} {

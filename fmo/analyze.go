@@ -122,6 +122,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		Dienophile:          dienophile.SMILES,
 		Activation:          dienophile.Activation,
 		Params:              opts.Params.Name,
+		Method:              diene.Orb.Method,
 		Calibration:         opts.CalibrationName,
 		CalibrationDetail:   opts.calibrationDetail(),
 		FormingBeta:         opts.FormingBeta,

@@ -22,6 +22,14 @@ type Options struct {
 	// Calibration converts x to eV; CalibrationName names it in every Pair.
 	Calibration     EVScale
 	CalibrationName string
+	// NewMethod builds the π method that solves each partner (a new value per call: a
+	// huckel.Method keeps workspaces and serves one goroutine). nil means simple Hückel
+	// (huckel.Solver). Everything downstream reads the resulting huckel.Orbitals (levels
+	// on the x scale, coefficients, charges) and does not depend on the method; pair it
+	// with the method's eV map in Calibration (ppp.Params.Scale for PPP-SCF).
+	// The localisation energy stays a Hückel quantity under every method (see
+	// Partner.localization).
+	NewMethod func() huckel.Method
 
 	// FormingBeta γ is the resonance integral of each forming σ bond, in units of β.
 	// Default 0.3: the forming bonds of a cycloaddition transition state are long (about
@@ -137,6 +145,18 @@ func NewOptions(p *huckel.Params, cal EVScale, calName string) *Options {
 		EndoWeak:           DefaultEndoWeak,
 	}
 }
+
+// method returns a new solver of the configured π method.
+func (o *Options) method() huckel.Method {
+	if o.NewMethod == nil {
+		return new(huckel.Solver)
+	}
+	return o.NewMethod()
+}
+
+// MethodName is the name of the configured π method (huckel.MethodHuckel or
+// huckel.MethodPPP).
+func (o *Options) MethodName() string { return o.method().Name() }
 
 // check panics on options that are programmer errors.
 func (o *Options) check() {

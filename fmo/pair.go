@@ -97,6 +97,21 @@ type Orientation struct {
 	// relative configuration where it survives), equal to the primary adduct when there are
 	// no follow-up steps.
 	IsolatedProduct string `json:"isolated_product"`
+	// Fraction is the predicted share of this orientation among the orientations at the
+	// preferred reacting units (0–1), from the fitted ratio model of fmo/rate; 0 at other
+	// units and when no model was applied.
+	Fraction float64 `json:"fraction"`
+}
+
+// RateEstimate is a predicted rate from the fitted model of fmo/rate: log10 of the rate
+// constant relative to the named reference reaction, with its prediction interval.
+type RateEstimate struct {
+	Log10KRel float64    `json:"log10_k_rel"`
+	Interval  [2]float64 `json:"interval"` // [lo, hi] of log10_k_rel
+	Reference string     `json:"reference"`
+	// Log10VsFree is log10 of the rate relative to the same pair without activation (only on
+	// activated variants whose free pair was analysed).
+	Log10VsFree *float64 `json:"log10_vs_unactivated,omitempty"`
 }
 
 // SideChannel is a competing reaction the pair analysis checked.
@@ -158,6 +173,7 @@ type Pair struct {
 	SideChannels []SideChannel     `json:"side_channels"`
 
 	Params      string   `json:"params"`       // parameter set name
+	Method      string   `json:"method"`       // π method of both partners' orbitals: "huckel" or "ppp"
 	Calibration string   `json:"calibration"`  // calibration name used for every eV figure
 	FormingBeta float64  `json:"forming_beta"` // resonance integral assumed for each forming σ bond, units of β
 	Warnings    []string `json:"warnings"`
@@ -174,4 +190,16 @@ type Pair struct {
 	PreferredKind       string     `json:"preferred_kind"`               // "[4+2]" or "[3+2]"
 	OrientationsChecked int        `json:"orientations_checked"`         // unit pairs × 2 orientations scored
 	CalibrationDetail   string     `json:"calibration_detail,omitempty"` // the calibration's lines and fit statistics
+
+	// Rate is the predicted rate (fmo/rate); nil when no rate model was applied.
+	Rate *RateEstimate `json:"rate,omitempty"`
+	// EndoFraction is the predicted share of the endo adduct at the preferred orientation
+	// (0–1), null where there is no endo/exo question (EndoNote) or no model was applied.
+	EndoFraction *float64 `json:"endo_fraction"`
+	// RatioInterval gives the 90 % intervals of the preferred orientation's Fraction and of
+	// EndoFraction, [lo, hi] each, when a model was applied.
+	FractionInterval     *[2]float64 `json:"fraction_interval,omitempty"`
+	EndoFractionInterval *[2]float64 `json:"endo_fraction_interval,omitempty"`
+	// RatioTemperatureC is the temperature (°C) the fractions are for.
+	RatioTemperatureC float64 `json:"ratio_temperature_C,omitempty"`
 }

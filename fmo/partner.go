@@ -31,6 +31,9 @@ type Partner struct {
 	fast  []fastUnit // parallel to Units: data[i].fast, contiguous for the screening loop
 	endo  []endoUnit // parallel to Units: secondary-orbital projector elements
 	sides []*side    // parallel to Units: the partner's half of each adduct
+	// eHuckel is the Hückel π energy of Pi (|β|), the reference of the localisation
+	// energy under every method.
+	eHuckel float64
 }
 
 // slot layout of unitData: for a diene a,b,c,d; for a dipole a,b,c,- ; for a 2π unit
@@ -80,11 +83,20 @@ func (p *Partner) prepare(opts *Options) error {
 	if err != nil {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
-	orb, err := huckel.Solve(pi)
-	if err != nil {
+	orb := new(huckel.Orbitals)
+	if err := opts.method().Solve(pi, orb); err != nil {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	p.Pi, p.Orb = pi, orb
+	p.eHuckel = orb.PiEnergy
+	if orb.Method != huckel.MethodHuckel {
+		// Another method solved the orbitals: the Hückel π energy for the localisation.
+		ho, err := huckel.Solve(pi)
+		if err != nil {
+			return fmt.Errorf("%s: %w", p.Name, err)
+		}
+		p.eHuckel = ho.PiEnergy
+	}
 	p.Warnings = append(p.Warnings, pi.Warnings...)
 	p.Warnings = append(p.Warnings, orb.Warnings...)
 	if orb.Partial {
@@ -247,6 +259,12 @@ func (p *Partner) endoSubstituent(u Unit, x, y int) int {
 // an isoxazolidine or triazoline). Residual centres keep their h values. A heteroatom
 // terminus thus costs its electronegativity h_r as well: the Hückel form of the stronger
 // π bond of C=O, C=N and C≡N that makes them poorer dienophiles than C=C.
+//
+// L is a Hückel quantity whatever method solved the partner's orbitals (Options.NewMethod):
+// the PPP total energy of the residue would depend on the core charges left behind by the
+// two sp3 termini and on a geometry the 2D layout does not give, so no PPP form of the
+// localisation energy is offered. Under PPP both terms come from Hückel solves of the same
+// PiSystem, so L is the same number under either method.
 func (p *Partner) localization(u Unit) (float64, error) {
 	t0, t1 := u.Termini()
 	c0, c1 := p.Pi.CentreOf(t0), p.Pi.CentreOf(t1)
@@ -273,7 +291,7 @@ func (p *Partner) localization(u Unit) (float64, error) {
 		}
 		eRest = o.PiEnergy
 	}
-	loc := p.Orb.PiEnergy - eRest
+	loc := p.eHuckel - eRest
 	if math.IsNaN(loc) {
 		return 0, fmt.Errorf("%s: localisation at %s is not a number", p.Name, u.Describe(p.Mol))
 	}

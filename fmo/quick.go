@@ -9,6 +9,8 @@ type Quick struct {
 	Stabilization         float64 // its perturbation energy (frontier + charge), |β|
 	RegioMargin           float64 // score difference to the other orientation at the preferred units, |β|
 	Endo                  float64 // secondary-orbital term of the preferred orientation, |β|
+	Frontier              float64 // its frontier (orbital) term, |β| (Stabilization without the charge term)
+	Localization          float64 // localisation energy of both partners at the preferred units, |β|
 	Demand                int8    // +1 normal, −1 inverse, 0 neutral (Options.DemandThreshold)
 	DieneUnit             int16   // index into diene.Units of the preferred unit, −1 if none
 	DienophileUnit        int16   // index into dienophile.Units
@@ -78,11 +80,20 @@ func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick 
 	r.Best = best
 	r.RegioMargin = best - other
 	r.GapNormal, r.GapInverse = dd.hx-ed.lx, ed.hx-dd.lx
-	r.Stabilization = best + k.locWeight*(dd.loc+ed.loc) + k.gapWeight*min(r.GapNormal, r.GapInverse)
+	r.Localization = dd.loc + ed.loc
+	r.Stabilization = best + k.locWeight*r.Localization + k.gapWeight*min(r.GapNormal, r.GapInverse)
+	r.Frontier = r.Stabilization
 	// first-order flag of the preferred orientation: g ≤ √S in either pairing
 	x, y := 0, 1
 	if bo == 1 {
 		x, y = 1, 0
+	}
+	if k.chargeCoef != 0 {
+		qx, qy := ed.q0, ed.q1
+		if bo == 1 {
+			qx, qy = ed.q1, ed.q0
+		}
+		r.Frontier += k.chargeCoef * (dd.q0*qx + dd.q1*qy)
 	}
 	sN := k.g2 * (dd.h[0]*ed.l[x] + dd.h[1]*ed.l[y] + 2*dd.h[2]*ed.l[2])
 	sI := k.g2 * (dd.l[0]*ed.h[x] + dd.l[1]*ed.h[y] + 2*dd.l[2]*ed.h[2])

@@ -26,6 +26,22 @@ type Calibration struct {
 	// Per-map statistics.
 	HOMOR2, HOMORMSE, LUMOR2, LUMORMSE float64
 	HOMON, LUMON                       int
+	// Direct marks the exact map of a method that computes eV itself (PPP-SCF, Koopmans'
+	// theorem): both lines are ε = α_C + x·β₀, the inverse of the method's own x scale, so
+	// EV returns the method's orbital energies unchanged. No fit is involved and the fit
+	// statistics are zero; Detail says so instead of printing them.
+	Direct bool
+}
+
+// DirectDetail is the header wording for eV figures of a method that computes eV itself.
+const DirectDetail = "eV from Koopmans' theorem (PPP), no calibration"
+
+// DirectScale returns the Direct map ε = alphaEV + x·betaEV (both branches) named name:
+// the exact inverse of the x scale of Orbitals filled by an eV method (Orbitals.AlphaEV,
+// Orbitals.BetaEV), for code that converts x to eV through a Calibration.
+func DirectScale(name string, alphaEV, betaEV float64, source string) Calibration {
+	return Calibration{Name: name, HOMOIntercept: alphaEV, HOMOSlope: betaEV,
+		LUMOIntercept: alphaEV, LUMOSlope: betaEV, Source: source, Direct: true}
 }
 
 // EV converts x to eV with the occupied-level map (occupied = true) or the empty-level map.
@@ -41,6 +57,9 @@ func (c Calibration) String() string { return c.Name + ": " + c.Detail() }
 
 // Detail is String without the name: the two fitted lines and the fit statistics.
 func (c Calibration) Detail() string {
+	if c.Direct {
+		return fmt.Sprintf("%s (ε = %.3f %+.3f·x eV, the method's own x scale)", DirectDetail, c.HOMOIntercept, c.HOMOSlope)
+	}
 	return fmt.Sprintf("E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV)",
 		c.HOMOIntercept, c.HOMOSlope, c.LUMOIntercept, c.LUMOSlope, c.N, c.R2, c.RMSE)
 }
@@ -119,4 +138,83 @@ func fitLine(x, y []float64, which string) (a, b, ssRes, ssTot float64, err erro
 		ssTot = math.SmallestNonzeroFloat64
 	}
 	return a, b, ssRes, ssTot, nil
+}
+
+// ErrCalibrationRange is wrapped by the error of Calibration.Check.
+var ErrCalibrationRange = errors.New("calibration value outside its physical range")
+
+// Physical ranges of a calibration, enforced by Check.
+const (
+	// CalInterceptMin and CalInterceptMax bound both intercepts (eV). The intercept is the
+	// orbital energy at x = 0, on the scale of −IE (occupied map) or −EA (empty map).
+	// First ionisation energies of neutral atoms and molecules lie between about 3.9 eV
+	// (Cs) and 24.6 eV (He), electron affinities between about −4 eV (temporary anions
+	// seen in electron transmission spectra) and 3.6 eV (Cl) (NIST Chemistry WebBook;
+	// from memory), so an intercept outside
+	// −25…+10 eV describes no molecule.
+	CalInterceptMin, CalInterceptMax = -25.0, 10.0
+	// CalSlopeMin and CalSlopeMax bound both slopes (eV per unit x): the slope is −|β|.
+	// Empirical |β| ranges from about 0.7 eV (thermochemical) to about 3.5 eV
+	// (spectroscopic and ionisation fits) (A. Streitwieser, Molecular Orbital Theory for
+	// Organic Chemists, 1961, ch. 8; from memory); the bounds leave a factor of about 3 on
+	// either side. A slope of zero or above would put bonding levels (x > 0) higher in
+	// energy than antibonding ones.
+	CalSlopeMin, CalSlopeMax = -10.0, -0.1
+	// CalRMSEMax bounds the RMSE (eV): the calibration data span about 5–12 eV, so a
+	// larger scatter than 10 eV is not a fit of them.
+	CalRMSEMax = 10.0
+)
+
+// Check reports the first number of c outside its physical range (see the Cal*
+// constants): intercepts and slopes of both maps, r² of the pooled and per-map fits in
+// [0, 1] (least squares with an intercept cannot do worse than the mean), RMSEs in [0,
+// CalRMSEMax], point counts not negative and, when both per-map counts are given, adding
+// up to N; every float must be finite, and Name and Source hold no control characters.
+// Calibrations read from files should be checked before use: a value such as 1e308
+// would otherwise print as a 310-digit figure. The error wraps ErrCalibrationRange.
+func (c Calibration) Check() error {
+	bad := func(format string, args ...any) error {
+		return fmt.Errorf("%w: %s", ErrCalibrationRange, fmt.Sprintf(format, args...))
+	}
+	for _, f := range []struct {
+		what   string
+		v      float64
+		lo, hi float64
+		why    string
+	}{
+		{"occupied-level intercept", c.HOMOIntercept, CalInterceptMin, CalInterceptMax, "eV; −IE of real molecules lies between −25 and −4 eV"},
+		{"empty-level intercept", c.LUMOIntercept, CalInterceptMin, CalInterceptMax, "eV; −EA of real molecules lies between about −4 and +4 eV"},
+		{"occupied-level slope", c.HOMOSlope, CalSlopeMin, CalSlopeMax, "eV per unit x; the slope is −|β|, and |β| lies between about 0.7 and 3.5 eV"},
+		{"empty-level slope", c.LUMOSlope, CalSlopeMin, CalSlopeMax, "eV per unit x; the slope is −|β|, and |β| lies between about 0.7 and 3.5 eV"},
+		{"r²", c.R2, 0, 1, "a least-squares fit with an intercept has 0 ≤ r² ≤ 1"},
+		{"occupied-level r²", c.HOMOR2, 0, 1, "a least-squares fit with an intercept has 0 ≤ r² ≤ 1"},
+		{"empty-level r²", c.LUMOR2, 0, 1, "a least-squares fit with an intercept has 0 ≤ r² ≤ 1"},
+		{"RMSE", c.RMSE, 0, CalRMSEMax, "eV"},
+		{"occupied-level RMSE", c.HOMORMSE, 0, CalRMSEMax, "eV"},
+		{"empty-level RMSE", c.LUMORMSE, 0, CalRMSEMax, "eV"},
+	} {
+		const slack = 1e-9 // rounding in a file written with fixed decimals
+		if math.IsNaN(f.v) || math.IsInf(f.v, 0) || f.v < f.lo-slack || f.v > f.hi+slack {
+			return bad("%s %g is outside %g…%g (%s)", f.what, f.v, f.lo, f.hi, f.why)
+		}
+	}
+	for _, n := range []struct {
+		what string
+		v    int
+	}{{"N", c.N}, {"occupied-level N", c.HOMON}, {"empty-level N", c.LUMON}} {
+		if n.v < 0 {
+			return bad("%s = %d is negative (a count of reference points)", n.what, n.v)
+		}
+	}
+	if c.HOMON > 0 && c.LUMON > 0 && c.N != c.HOMON+c.LUMON {
+		return bad("N = %d is not the sum of the per-map counts %d + %d", c.N, c.HOMON, c.LUMON)
+	}
+	for _, t := range []struct{ what, v string }{{"name", c.Name}, {"source", c.Source}} {
+		for _, r := range t.v {
+			if r < 0x20 && r != '\n' && r != '\t' || r >= 0x7f && r < 0xa0 {
+				return bad("%s contains the control character %U (write plain text)", t.what, r)
+			}
+		}
+	}
+	return nil
 }

@@ -45,7 +45,12 @@
 //
 // Bad data (a parameter file, an unsupported atom, more electrons than a fragment can
 // hold, an ω iteration that does not converge, a non-finite ω) returns an error that wraps one of the
-// package's sentinel errors. Programmer misuse (out-of-range indices, inconsistent
+// package's sentinel errors. A π system above DefaultMaxCentres (500) centres is refused
+// by Perceive and Solve with ErrTooManyCentres before the O(n²) memory of a dense solve
+// is allocated (PerceiveOptions.MaxCentres raises the limit). Parameter files must keep
+// h and k within physical ranges (MaxAbsH, MaxK; see ParseParams), and Calibration.Check
+// does the same for calibrations read from files. Messages quote user input through
+// package errtext (control characters escaped, at most 100 characters shown). Programmer misuse (out-of-range indices, inconsistent
 // fragments in a hand-built PiSystem) panics. Nothing here reads files or the terminal.
 //
 // Results are estimates for planning, not safety assessments.

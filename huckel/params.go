@@ -7,6 +7,9 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"unicode/utf8"
+
+	"cyclopair/huckel/errtext"
 
 	"go.yaml.in/yaml/v3"
 
@@ -93,6 +96,15 @@ var ErrParams = errors.New("invalid parameter set")
 // maxParamsSize caps a parameter file (they are a few kB).
 const maxParamsSize = 1 << 20
 
+// Physical ranges ParseParams enforces (the basis is on ParseParams).
+const (
+	MaxAbsH = 5.0 // largest |h| of an h entry
+	MaxK    = 3.0 // largest k of a k entry (k must also be > 0)
+)
+
+// maxNameRunes caps the length of a parameter-set name (it appears in every output).
+const maxNameRunes = 100
+
 type fileH struct {
 	Type   string   `yaml:"type"`
 	H      *float64 `yaml:"h"`
@@ -140,8 +152,25 @@ type fileParams struct {
 //	  - {types: [C, C], order: 2, k: 1.1, source: "..."}   # order-specific
 //
 // Decoding is strict: unknown keys, unknown centre types, duplicate entries, missing
-// values and non-finite numbers are errors of type *yamlfile.Error (wrapping ErrParams) with
-// file:line:column. filename is used only in messages. Every entry needs a source.
+// values, non-finite numbers and numbers outside their physical range are errors of type
+// *yamlfile.Error (wrapping ErrParams) with file:line:column. filename is used only in
+// messages. Every entry needs a source.
+//
+// Ranges (checked so that a typo such as 1e308 or a sign slip fails with its line instead
+// of printing 300-digit levels):
+//   - h within ±MaxAbsH (5): h_X = (α_X − α_C)/β. The preset sets (Streitwieser 1961;
+//     Van-Catledge 1980; each value with its source in presets/params) span −1.0
+//     (trigonal B) to 3.0 (F), and --lewis-h caps the Lewis-acid-bound carbonyl O at 5;
+//     beyond ±5 a centre sits more than 5|β| (about 12 eV with the default calibration's
+//     slopes) from carbon's α, outside any atom these sets describe.
+//   - k in (0, MaxK] (3): k_XY = β_XY/β_CC. Resonance integrals scale roughly with the
+//     2pπ overlap (R. S. Mulliken, J. Phys. Chem. 1952, 56, 295 — from memory), and the
+//     overlap of the shortest π bonds (triple bonds) is under twice that of benzene. The
+//     preset sets use 0.2 to 1.1; values up to 2 for triple bonds appear in older tables
+//     (from memory). k ≤ 0 would reverse or remove a bond's interaction and is an error.
+//   - omega in [0, 5] and auxiliary in [0, 1] (typical 1.4 and 0.1, Streitwieser 1961).
+//   - name and title are one line of printable text (name at most 100 characters); source
+//     and notes may span lines but hold no other control characters.
 func ParseParams(data []byte, filename string) (*Params, error) {
 	if len(data) > maxParamsSize {
 		return nil, &yamlfile.Error{File: filename, Msg: fmt.Sprintf("file is larger than %d bytes", maxParamsSize), Err: ErrParams}
@@ -175,6 +204,9 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		return nil, &yamlfile.Error{File: filename, Line: line, Col: col, Msg: msg, Err: ErrParams}
 	}
 	top := root.Content[0]
+	if err := checkParamsText(&fp, top, filename); err != nil {
+		return nil, err
+	}
 	p := &Params{
 		Name: fp.Name, Title: fp.Title, Source: fp.Source, Notes: fp.Notes,
 		Replace: fp.Replace, Base: fp.Base, KFallback: fp.KFallback, KFallbackSource: fp.KFallbackSource,
@@ -196,17 +228,17 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		}
 	}
 	if p.KFallback != "" && p.KFallback != KFallbackGeometricMean {
-		return nil, perr(filename, valueNode(top, "k_fallback"), "unknown k_fallback %q (the only rule is %q)", p.KFallback, KFallbackGeometricMean)
+		return nil, perr(filename, valueNode(top, "k_fallback"), "unknown k_fallback %s (the only rule is %q)", errtext.Quote(p.KFallback), KFallbackGeometricMean)
 	}
 	if len(fp.KLike) > 0 {
 		p.KLike = make(map[CentreType]CentreType, len(fp.KLike))
 		kl := valueNode(top, "k_like")
 		for from, to := range fp.KLike {
 			if typeIndex(CentreType(from)) < 0 {
-				return nil, perr(filename, keyNode(kl, from), "k_like: unknown centre type %q (%s)", from, typeHint())
+				return nil, perr(filename, keyNode(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(from), typeHint())
 			}
 			if typeIndex(CentreType(to)) < 0 {
-				return nil, perr(filename, valueNode(kl, from), "k_like: unknown centre type %q (%s)", to, typeHint())
+				return nil, perr(filename, valueNode(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(to), typeHint())
 			}
 			p.KLike[CentreType(from)] = CentreType(to)
 		}
@@ -217,13 +249,13 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		n := seqItem(hseq, i)
 		t := CentreType(e.Type)
 		if typeIndex(t) < 0 {
-			return nil, perr(filename, valueNode(n, "type"), "h entry %d: unknown centre type %q (%s)", i+1, e.Type, typeHint())
+			return nil, perr(filename, valueNode(n, "type"), "h entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(e.Type), typeHint())
 		}
 		if e.H == nil {
 			return nil, perr(filename, n, "h entry %d (%s): missing value h", i+1, t)
 		}
-		if !finite(*e.H) || math.Abs(*e.H) > 10 {
-			return nil, perr(filename, valueNode(n, "h"), "h entry %d (%s): h = %g is outside -10…10", i+1, t, *e.H)
+		if !finite(*e.H) || math.Abs(*e.H) > MaxAbsH {
+			return nil, perr(filename, valueNode(n, "h"), "h entry %d (%s): h = %g is outside -%g…%g (the preset sets use -1 to 3)", i+1, t, *e.H, MaxAbsH, MaxAbsH)
 		}
 		if strings.TrimSpace(e.Source) == "" {
 			return nil, perr(filename, n, "h entry %d (%s): missing source (say where the value comes from, or \"assumed: <rule>\")", i+1, t)
@@ -248,7 +280,7 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		a, b := CentreType(e.Types[0]), CentreType(e.Types[1])
 		for _, t := range []CentreType{a, b} {
 			if typeIndex(t) < 0 {
-				return nil, perr(filename, valueNode(n, "types"), "k entry %d: unknown centre type %q (%s)", i+1, t, typeHint())
+				return nil, perr(filename, valueNode(n, "types"), "k entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(string(t)), typeHint())
 			}
 		}
 		if e.Order < 0 || e.Order > 3 {
@@ -257,8 +289,8 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		if e.K == nil {
 			return nil, perr(filename, n, "k entry %d (%s–%s): missing value k", i+1, a, b)
 		}
-		if !finite(*e.K) || *e.K <= 0 || *e.K > 5 {
-			return nil, perr(filename, valueNode(n, "k"), "k entry %d (%s–%s): k = %g must be in (0, 5]", i+1, a, b, *e.K)
+		if !finite(*e.K) || *e.K <= 0 || *e.K > MaxK {
+			return nil, perr(filename, valueNode(n, "k"), "k entry %d (%s–%s): k = %g must be in (0, %g] (the preset sets use 0.2 to 1.1)", i+1, a, b, *e.K, MaxK)
 		}
 		if strings.TrimSpace(e.Source) == "" {
 			return nil, perr(filename, n, "k entry %d (%s–%s): missing source", i+1, a, b)
@@ -292,7 +324,7 @@ func friendlyTypeError(root *yaml.Node, line int, msg string) (string, int) {
 	if f, t, ok := strings.Cut(msg, " not found in type "); ok && strings.HasPrefix(f, "field ") {
 		token = strings.TrimPrefix(f, "field ")
 		if w, ok := where[t]; ok {
-			msg = fmt.Sprintf("unknown key %q %s", token, w)
+			msg = fmt.Sprintf("unknown key %s %s", errtext.Quote(token), w)
 		}
 	} else if i := strings.Index(msg, "`"); i >= 0 {
 		if j := strings.Index(msg[i+1:], "`"); j >= 0 {
@@ -321,6 +353,51 @@ func friendlyTypeError(root *yaml.Node, line int, msg string) (string, int) {
 	}
 	walk(root)
 	return msg, col
+}
+
+// checkParamsText rejects control characters in the set's texts and an overlong name:
+// they are printed in tables, headers and error messages.
+func checkParamsText(fp *fileParams, top *yaml.Node, file string) error {
+	for _, f := range []struct {
+		key, v    string
+		multiline bool
+	}{
+		{"name", fp.Name, false}, {"title", fp.Title, false},
+		{"source", fp.Source, true}, {"notes", fp.Notes, true},
+		{"k_fallback_source", fp.KFallbackSource, true},
+	} {
+		if bad, ok := controlChar(f.v, f.multiline); ok {
+			return perr(file, valueNode(top, f.key), "%s contains the control character %s (write plain text)", f.key, errtext.Quote(string(bad)))
+		}
+	}
+	if n := utf8.RuneCountInString(fp.Name); n > maxNameRunes {
+		return perr(file, valueNode(top, "name"), "name is %d characters long; at most %d (it heads every output)", n, maxNameRunes)
+	}
+	for i, e := range fp.H {
+		if bad, ok := controlChar(e.Source, true); ok {
+			return perr(file, valueNode(seqItem(valueNode(top, "h"), i), "source"), "h entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
+		}
+	}
+	for i, e := range fp.K {
+		if bad, ok := controlChar(e.Source, true); ok {
+			return perr(file, valueNode(seqItem(valueNode(top, "k"), i), "source"), "k entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
+		}
+	}
+	return nil
+}
+
+// controlChar returns the first control character of s (C0, DEL, C1; line feed and tab
+// allowed when multiline), and whether there is one.
+func controlChar(s string, multiline bool) (rune, bool) {
+	for _, r := range s {
+		if multiline && (r == '\n' || r == '\t') {
+			continue
+		}
+		if r < 0x20 || r >= 0x7f && r < 0xa0 {
+			return r, true
+		}
+	}
+	return 0, false
 }
 
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }

@@ -19,7 +19,7 @@ func TestParseParamsErrors(t *testing.T) {
 		{"missing source", "name: x\nh:\n  - {type: C, h: 1}\n", "x.yaml: 3:5: h entry 1 (C): missing source"},
 		{"duplicate h", "name: x\nh:\n  - {type: C, h: 1, source: s}\n  - {type: C, h: 2, source: s}\n", "x.yaml: 4:5: h entry 2: duplicate entry for type C"},
 		{"bad k arity", "name: x\nk:\n  - {types: [C], k: 1, source: s}\n", "x.yaml: 3:5: k entry 1: types must list exactly two"},
-		{"negative k", "name: x\nk:\n  - {types: [C, C], k: -1, source: s}\n", "x.yaml: 3:24: k entry 1 (C–C): k = -1 must be in (0, 5]"},
+		{"negative k", "name: x\nk:\n  - {types: [C, C], k: -1, source: s}\n", "x.yaml: 3:24: k entry 1 (C–C): k = -1 must be in (0, 3]"},
 		{"bad order", "name: x\nk:\n  - {types: [C, C], order: 4, k: 1, source: s}\n", "k entry 1: order must be 1, 2 or 3"},
 		{"wrong kind", "name: x\nh: 3\n", "x.yaml: 2:4: cannot unmarshal !!int `3` into a list of h entries"},
 		{"syntax", "name: [x\n", "x.yaml: not valid YAML"},

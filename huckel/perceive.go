@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strings"
 
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/molecule"
 )
 
@@ -55,6 +56,9 @@ type atomState struct {
 	excluded bool // element or valence without π parameters
 	far      bool // terminal lone-pair atom across a dropped cumulated double bond
 	centre   bool
+	warned   bool  // a warning already names this atom
+	part     int32 // connected part of the molecule (warnParts), -1 before it is found
+	queue    int32 // warnParts' breadth-first queue: the atom in queue position i is st[i].queue
 }
 
 // Perceive finds the π system of the Kekulé graph m and types its centres with p.
@@ -82,17 +86,29 @@ type atomState struct {
 //   - π bonds join centres that share a molecular bond, except two donor/alkyl centres.
 //     k comes from p.K(type, type, Kekulé order).
 //   - Atoms of elements without π types (P, Si, Se, metals …) and hypervalent or charged
-//     sulfur stay outside; their multiple bonds are dropped with a warning.
+//     sulfur stay outside; their multiple bonds are dropped with a warning. A metal atom
+//     that is not the Lewis acid of an O=LA centre is named in a warning as well (see
+//     warnParts); main-group σ substituents (SiMe3, PPh2 …) stay outside silently.
+//   - Several molecules in one input (dot-separated parts) are perceived together; a
+//     warning names the part the π system comes from and the parts left out, or says
+//     that several parts are solved side by side (see warnParts).
 //   - With p.Auxiliary = δ ≠ 0, a carbon centre bonded to heteroatom centres X gets
 //     h_C += δ·Σh_X (auxiliary inductive parameter; Streitwieser 1961 recommends 0.1).
 //   - Separate π systems get separate Fragment numbers, in order of their lowest atom.
 //
-// Errors are *PerceiveError wrapping ErrNoParameter or ErrUnsupported. Warnings (odd
-// electron count, more than LargeSystemWarn centres, dropped multiple bonds) are in
-// PiSystem.Warnings.
+// Errors are *PerceiveError wrapping ErrNoParameter, ErrUnsupported or, for more than
+// DefaultMaxCentres centres, ErrTooManyCentres (PerceiveOptions raises the limit).
+// Warnings (odd electron count, more than LargeSystemWarn centres, dropped multiple bonds,
+// metal atoms, several molecules in one input; see warnParts) are in PiSystem.Warnings.
 func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
+	return PerceiveOptions{}.Perceive(m, p)
+}
+
+// Perceive is the package-level Perceive with the options' centre limit.
+func (o PerceiveOptions) Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 	n := len(m.Atoms)
-	ps := &PiSystem{Mol: m, Params: p, Omega: p.Omega}
+	limit := o.maxCentres()
+	ps := &PiSystem{Mol: m, Params: p, Omega: p.Omega, MaxCentres: limit}
 	// One allocation for all per-atom state, one for per-bond state.
 	st := make([]atomState, n)
 	dropped := make([]bool, len(m.Bonds)) // bond takes no part in the π system
@@ -117,6 +133,7 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 				}
 			}
 			if len(partners) > 0 {
+				st[i].warned = true
 				ps.Warnings = append(ps.Warnings, fmt.Sprintf(
 					"atom %d (%s): no π parameters for this atom; its multiple bonds (to atom %s) are left out of the π system and its inductive effect is not modelled",
 					i, atomLabel(a), strings.Join(partners, ", ")))
@@ -332,14 +349,27 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		}
 	}
 
-	// Centres in atom order.
-	ps.AtomCentre = make([]int, n)
+	// Centres in atom order, counted (and checked against the limit) before anything
+	// that grows with their number is allocated.
 	nc := 0
 	for i := range m.Atoms {
 		if st[i].centre {
 			nc++
 		}
 	}
+	if nc > limit {
+		first := -1 // the atom of the first centre beyond the limit
+		for i, k := 0, 0; i < n && first < 0; i++ {
+			if st[i].centre {
+				if k == limit {
+					first = i
+				}
+				k++
+			}
+		}
+		return nil, tooManyCentres(m, first, nc, limit)
+	}
+	ps.AtomCentre = make([]int, n)
 	ps.Centres = make([]Centre, 0, nc)
 	for i := range m.Atoms {
 		ps.AtomCentre[i] = -1
@@ -350,7 +380,7 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		h, ok := p.H(typ)
 		if !ok {
 			return nil, &PerceiveError{Atom: i, Label: atomLabel(&m.Atoms[i]), Err: ErrNoParameter,
-				Msg: fmt.Sprintf("no h parameter for type %s in set %s (add it with --params FILE)", typ, p.Name)}
+				Msg: fmt.Sprintf("no h parameter for type %s in set %s (add it with --params FILE)", typ, errtext.Clip(p.Name))}
 		}
 		ps.AtomCentre[i] = len(ps.Centres)
 		ps.Centres = append(ps.Centres, Centre{Atom: i, Element: m.Atoms[i].Element, Type: typ,
@@ -385,7 +415,7 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 			}
 			return nil, &PerceiveError{Atom: at, Label: atomLabel(&m.Atoms[at]), Err: ErrNoParameter,
 				Msg: fmt.Sprintf("no k parameter for the %s–%s bond to atom %d (Kekulé order %d) in set %s (add it with --params FILE)",
-					st[b.A].typ, st[b.B].typ, b.A+b.B-at, b.Order, p.Name)}
+					st[b.A].typ, st[b.B].typ, b.A+b.B-at, b.Order, errtext.Clip(p.Name))}
 		}
 		if ci > cj {
 			ci, cj = cj, ci
@@ -415,6 +445,7 @@ func Perceive(m *molecule.Molecule, p *Params) (*PiSystem, error) {
 		ps.Warnings = append(ps.Warnings, fmt.Sprintf(
 			"%d π centres: gonum has no subset or sparse eigensolver, so each solve is a dense O(n³) diagonalisation and may take seconds", nc))
 	}
+	ps.warnParts(st)
 	return ps, nil
 }
 
@@ -607,7 +638,7 @@ func (ps *PiSystem) Matrix() []float64 {
 // those atoms become sp3 in a cycloadduct. Their electrons are dropped with them; the
 // caller may edit Centres[i].Electrons of the copy afterwards (Solve reads them). Bonds
 // to removed centres disappear, fragments and AtomCentre are recomputed, Mol, Params,
-// Omega and Warnings are carried over. It panics on an out-of-range index.
+// Omega, MaxCentres and Warnings are carried over. It panics on an out-of-range index.
 func (ps *PiSystem) Without(centres ...int) *PiSystem {
 	n := len(ps.Centres)
 	drop := make([]bool, n)
@@ -618,7 +649,7 @@ func (ps *PiSystem) Without(centres ...int) *PiSystem {
 		drop[c] = true
 	}
 	newIdx := make([]int, n)
-	out := &PiSystem{Mol: ps.Mol, Params: ps.Params, Omega: ps.Omega,
+	out := &PiSystem{Mol: ps.Mol, Params: ps.Params, Omega: ps.Omega, MaxCentres: ps.MaxCentres,
 		Warnings: slices.Clone(ps.Warnings)}
 	for i, c := range ps.Centres {
 		if drop[i] {

@@ -87,7 +87,9 @@ var (
 //     DegenerateSet gives the whole set. SOMO equals HOMO when that level holds fewer
 //     than 2 electrons, else −1.
 //
-// Errors: ErrElectrons (wrapped, naming the fragment), ErrEigen, ErrNoConvergence, ErrOmega.
+// Errors: ErrElectrons (wrapped, naming the fragment), ErrEigen, ErrNoConvergence, ErrOmega,
+// and ErrTooManyCentres for a system above ps.MaxCentres (DefaultMaxCentres when 0),
+// checked before anything that grows with the system is allocated.
 func Solve(ps *PiSystem) (*Orbitals, error) {
 	var s Solver
 	s.useMat = true
@@ -158,6 +160,9 @@ type Solver struct {
 //
 // The ω path allocates only while its workspace grows; with ω = 0 nothing of it runs.
 func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
+	if err := ps.CheckSize(); err != nil {
+		return err
+	}
 	n := len(ps.Centres)
 	s.h = growF(s.h, n)
 	for i := range ps.Centres {

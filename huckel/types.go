@@ -143,6 +143,9 @@ type PiSystem struct {
 	// Omega is the ω-technique constant used by Solve (0 = off); Perceive copies it from
 	// Params.Omega. With ω ≠ 0 Solve iterates h_i = h_i⁰ + ω·q_i to self-consistency.
 	Omega float64
+	// MaxCentres is the centre limit Solve enforces (0 means DefaultMaxCentres). Perceive
+	// sets it to the limit it was given, so a system it accepted is solved.
+	MaxCentres int
 }
 
 // Level is one molecular orbital, E = α + X·β (β < 0, so bonding levels have X > 0).

@@ -861,3 +861,13 @@ func (c *kinChecker) duplicates(k *KineticsData) error {
 	}
 	return nil
 }
+
+//go:embed kinetics/model.yaml
+var rateModelYAML []byte
+
+// RateModelName is the name of the bundled rate model file in messages.
+const RateModelName = "presets/kinetics/model.yaml"
+
+// RateModelYAML returns a copy of the bundled rate model (written by the fit in fmo/rate,
+// parsed there; see `go test ./fmo/rate -run TestEmbeddedModel -update`).
+func RateModelYAML() []byte { return bytes.Clone(rateModelYAML) }

@@ -13,6 +13,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo/check"
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/yamlfile"
 	"cyclopair/presets"
 
@@ -25,6 +26,8 @@ type calibrateOptions struct {
 	format string // table, json, yaml
 	out    string // calibration file to write
 	name   string
+	rates  bool   // --rates: FILE is a rates file (presets/kinetics/rates.yaml format); fit a rate model
+	sel    string // --selectivity FILE with --rates (default: the bundled selectivity set)
 }
 
 func newCalibrateCmd(s *streams) *cobra.Command {
@@ -56,6 +59,12 @@ Results are estimates for planning, not safety assessments.`,
   cyclopair calibrate my-ie-ea.yaml --format json | jq .homo`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
+			if opts.rates {
+				return runCalibrateRates(s, opts, args[0])
+			}
+			if opts.sel != "" {
+				return &usageError{fmt.Errorf("--selectivity is only used with --rates")}
+			}
 			switch opts.format {
 			case "table", "json", "yaml":
 			default:
@@ -66,6 +75,8 @@ Results are estimates for planning, not safety assessments.`,
 	}
 	f := cmd.Flags()
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
+	f.BoolVar(&opts.rates, "rates", false, "FILE holds rate series in the format of presets/kinetics/rates.yaml: refit the rate model (write it with --out, use it with --rate-model)")
+	f.StringVar(&opts.sel, "selectivity", "", "with --rates: a selectivity file in the format of presets/kinetics/selectivity.yaml (default: the bundled one)")
 	f.StringVar(&opts.format, "format", "table", "output format: table, json or yaml (the calibration file itself)")
 	f.StringVar(&opts.out, "out", "", "write the fitted calibration to this file (load it with --calibration)")
 	f.StringVar(&opts.name, "name", "", "name of the fitted calibration (default fit-<parameter set>)")
@@ -277,6 +288,9 @@ func resolveCalibration(s *streams, spec string, p *huckel.Params) (huckel.Calib
 	lc, err := check.LoadCalibrationFile(f, spec)
 	if err != nil {
 		return huckel.Calibration{}, &inputError{err}
+	}
+	if err := lc.Calibration.Check(); err != nil { // physical ranges (the loader checks syntax and signs)
+		return huckel.Calibration{}, &inputError{fmt.Errorf("%s: %v (refit with 'cyclopair calibrate DATA.yaml --out %s')", errtext.Clip(spec), err, errtext.Clip(spec))}
 	}
 	if lc.Params != "" && lc.Params != p.Name {
 		fmt.Fprintf(s.err, "cyclopair: warning: calibration %s was fitted with parameter set %s and is used with %s: its eV figures may be off (refit with 'cyclopair calibrate --params %s')\n",

@@ -20,6 +20,8 @@ type diagramOptions struct {
 	params            string
 	calibration       string
 	out               string
+	methodOptions
+	limits inputLimits
 }
 
 func newDiagramCmd(s *streams) *cobra.Command {
@@ -42,6 +44,9 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 			if o.diene == "" || o.dienophile == "" {
 				return &usageError{errors.New("give both --diene and --dienophile")}
 			}
+			if err := o.limits.check(); err != nil {
+				return err
+			}
 			return runDiagram(s, o)
 		},
 	}
@@ -53,19 +58,18 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out'")
 	f.StringVarP(&o.out, "output", "o", "", "write the SVG to `FILE` instead of stdout")
 	_ = cmd.MarkFlagFilename("output", "svg")
+	addMethodFlags(f, &o.methodOptions, defaultMethod)
+	o.limits.flags(cmd, false)
 	return cmd
 }
 
 func runDiagram(s *streams, o *diagramOptions) error {
-	p, err := resolveParams(o.params)
+	mod, err := resolveSolveModel(s, o.params, o.calibration, o.methodOptions)
 	if err != nil {
 		return err
 	}
-	cal, err := resolveCalibration(s, o.calibration, p)
-	if err != nil {
-		return err
-	}
-	opts := fmo.NewOptions(p, cal, cal.Name)
+	p, cal := mod.params, mod.cal
+	opts := mod.options()
 	var modes []string
 	for _, m := range strings.Split(o.activate, ",") {
 		if m = strings.ToLower(strings.TrimSpace(m)); m != "" && !contains(modes, m) {
@@ -78,11 +82,11 @@ func runDiagram(s *streams, o *diagramOptions) error {
 	if len(modes) == 0 {
 		modes = []string{fmo.ActivateNone}
 	}
-	d, err := pairPartner(o.diene, fmo.RoleDiene, opts)
+	d, err := pairPartner(o.diene, fmo.RoleDiene, opts, &o.limits)
 	if err != nil {
 		return err
 	}
-	e, err := pairPartner(o.dienophile, fmo.RoleDienophile, opts)
+	e, err := pairPartner(o.dienophile, fmo.RoleDienophile, opts, &o.limits)
 	if err != nil {
 		return err
 	}

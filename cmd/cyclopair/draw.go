@@ -10,6 +10,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/draw"
 	"cyclopair/fmo"
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 
@@ -26,6 +27,8 @@ type drawOptions struct {
 	rank       int    // orientation to draw in a pair picture, 1 = preferred
 	svg        string // output file; stdout when empty or "-"
 	numbers    bool
+	methodOptions
+	limits inputLimits
 }
 
 func newDrawCmd(s *streams) *cobra.Command {
@@ -83,6 +86,9 @@ and local rules before any lab work.`,
 			if !pair && opts.orbital == "" {
 				opts.orbital = "homo"
 			}
+			if err := opts.limits.check(); err != nil {
+				return err
+			}
 			return runDraw(s, opts, args)
 		},
 	}
@@ -96,24 +102,23 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.svg, "svg", "", "write the SVG to this file instead of stdout")
 	f.IntVar(&opts.rank, "orientation", 1, "pair picture: which orientation to draw, 1 = preferred, 2 = runner-up, … (as listed by 'cyclopair pair')")
 	f.BoolVar(&opts.numbers, "numbers", false, "print 1-based atom positions next to the atoms (C1, C2 … as in site names)")
+	addMethodFlags(f, &opts.methodOptions, defaultMethod)
+	opts.limits.flags(cmd, true)
+	f.Lookup("max-centres").Usage += "; orbital pictures only (pair pictures keep the default)"
 	return cmd
 }
 
 // runDraw builds the picture and writes it. It is the testable body of the command.
 func runDraw(s *streams, opts *drawOptions, args []string) error {
-	p, err := resolveParams(opts.params)
+	mod, err := resolveSolveModel(s, opts.params, "", opts.methodOptions)
 	if err != nil {
 		return err
 	}
-	cal, err := presets.Calibration(p)
-	if err != nil {
-		return fmt.Errorf("calibration for parameter set %s: %w", p.Name, err)
-	}
 	var svg []byte
 	if len(args) == 1 {
-		svg, err = drawOrbital(args[0], opts, p, cal)
+		svg, err = drawOrbital(args[0], opts, mod)
 	} else {
-		svg, err = drawPair(opts, p, cal)
+		svg, err = drawPair(opts, mod)
 	}
 	if err != nil {
 		return err
@@ -130,45 +135,47 @@ func runDraw(s *streams, opts *drawOptions, args []string) error {
 }
 
 // smilesErr formats a SMILES reader error as "<SMILES>: column N: what (hint)" plus the
-// excerpt with a caret.
+// excerpt with a caret; the SMILES is shortened and escaped (errtext.Clip).
 func smilesErr(smi string, err error) error {
 	var se *smiles.Error
 	if errors.As(err, &se) {
-		return &inputError{fmt.Errorf("%s: %s\n%s", smi, se.Error(), indent(se.Excerpt()))}
+		return &inputError{fmt.Errorf("%s: %s%s", errtext.Clip(smi), se.Error(), excerptLines(se))}
 	}
-	return &inputError{fmt.Errorf("%s: %v", smi, err)}
+	return &inputError{fmt.Errorf("%s: %v", errtext.Clip(smi), err)}
 }
 
-func drawOrbital(arg string, opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
+func drawOrbital(arg string, opts *drawOptions, mod *solveModel) ([]byte, error) {
+	p, cal := mod.params, mod.cal
 	name, smi := partnerInput(arg)
 	if opts.name == "" {
 		opts.name = name
 	}
-	m, err := smiles.Parse(smi)
+	m, err := opts.limits.parse(smi)
 	if err != nil {
 		return nil, smilesErr(smi, err)
 	}
-	ps, err := huckel.Perceive(m, p)
+	where := errtext.Clip(smi)
+	ps, err := opts.limits.perceive(m, p)
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v", where, err)}
 	}
 	if len(ps.Centres) == 0 {
-		return nil, &inputError{fmt.Errorf("%s: no π system (no conjugated atoms found; nothing to draw)", smi)}
+		return nil, &inputError{fmt.Errorf("%s: %s", where, noPiSystem(ps, "draw"))}
 	}
-	orb, err := huckel.Solve(ps)
-	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+	orb := new(huckel.Orbitals)
+	if err := mod.solver().Solve(ps, orb); err != nil {
+		return nil, &inputError{fmt.Errorf("%s: %v", where, err)}
 	}
 	level, which, err := pickLevel(orb, opts.orbital)
 	if err != nil {
-		return nil, &usageError{fmt.Errorf("%s: --orbital %s: %v", smi, opts.orbital, err)}
+		return nil, &usageError{fmt.Errorf("%s: --orbital %s: %v", where, errtext.Clip(opts.orbital), err)}
 	}
 	svg, err := draw.Orbital(orb, level, draw.OrbitalOptions{
 		Name: opts.name, SMILES: smi, Which: which, Params: p.Name,
 		Calibration: cal, CalName: cal.Name, IDPrefix: "orb", Numbers: opts.numbers,
 	})
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v", smi, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v", where, err)}
 	}
 	return svg, nil
 }
@@ -243,13 +250,13 @@ func partnerInput(v string) (name, smi string) {
 	return "", v
 }
 
-func drawPair(opts *drawOptions, p *huckel.Params, cal huckel.Calibration) ([]byte, error) {
-	o := fmo.NewOptions(p, cal, cal.Name)
-	d, err := pairPartner(opts.diene, fmo.RoleDiene, o)
+func drawPair(opts *drawOptions, mod *solveModel) ([]byte, error) {
+	o := mod.options()
+	d, err := pairPartner(opts.diene, fmo.RoleDiene, o, &opts.limits)
 	if err != nil {
 		return nil, err
 	}
-	e, err := pairPartner(opts.dienophile, fmo.RoleDienophile, o)
+	e, err := pairPartner(opts.dienophile, fmo.RoleDienophile, o, &opts.limits)
 	if err != nil {
 		return nil, err
 	}

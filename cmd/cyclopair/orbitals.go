@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/huckel/smiles"
 	"cyclopair/presets"
 
@@ -19,17 +20,22 @@ type orbitalsOptions struct {
 	omega       float64 // ω-technique constant; used when omegaSet
 	omegaSet    bool
 	calibration string // default, or a file from 'cyclopair calibrate --out'
+	methodOptions
+	limits inputLimits
 }
 
 func newOrbitalsCmd(s *streams) *cobra.Command {
 	opts := &orbitalsOptions{}
 	cmd := &cobra.Command{
 		Use:   "orbitals SMILES... | -",
-		Short: "Hückel π levels, frontier orbitals and π charges of molecules",
+		Short: "Hückel or PPP-SCF π levels, frontier orbitals and π charges of molecules",
 		Long: `Perceive the π system of each molecule, solve the Hückel problem and print the levels
 (x in E = α + xβ, and eV through a stated linear calibration), occupations, degeneracies,
 HOMO/LUMO (SOMO for open shells), the frontier coefficients per atom and the π charges.
 Atom numbers are 0-based positions in the SMILES as written.
+
+With --method ppp the same π system is solved by Pariser–Parr–Pople SCF: levels are in eV
+by Koopmans' theorem (no calibration) and x = (ε − α_C)/β₀ with β₀ = −2.39 eV.
 
 With '-' molecules are read from stdin, one per line as "SMILES [name]"; blank lines and
 lines starting with '#' are skipped. A bad line is reported with its line number and the
@@ -40,7 +46,8 @@ Results are estimates for planning, not safety assessments.`,
   cyclopair orbitals 'C=CC(=O)OC' c1ccncc1 --format json
   printf 'C=CC=C butadiene\nC=CC=O acrolein\n' | cyclopair orbitals - --format csv
   cyclopair orbitals 'C=C[CH2+]' --omega 1.4
-  cyclopair orbitals c1ccncc1 --params vancatledge1980`,
+  cyclopair orbitals c1ccncc1 --params vancatledge1980
+  cyclopair orbitals C=CC=O --method ppp`,
 		Args: cobra.MinimumNArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
@@ -48,9 +55,18 @@ Results are estimates for planning, not safety assessments.`,
 			default:
 				return &usageError{fmt.Errorf("--format %q: want table, json or csv", opts.format)}
 			}
+			if err := opts.methodOptions.check(); err != nil {
+				return err
+			}
 			opts.omegaSet = c.Flags().Changed("omega")
+			if opts.omegaSet && opts.method == huckel.MethodPPP {
+				return &usageError{errors.New("--omega is a Hückel device (the ω-technique); PPP-SCF treats charges self-consistently: drop --omega with --method ppp")}
+			}
 			if opts.omegaSet && (opts.omega < 0 || opts.omega > 5) {
 				return &usageError{fmt.Errorf("--omega %g: want a value between 0 and 5 (typical 1.4)", opts.omega)}
+			}
+			if err := opts.limits.check(); err != nil {
+				return err
 			}
 			for _, a := range args {
 				if a == "-" && len(args) > 1 {
@@ -65,6 +81,8 @@ Results are estimates for planning, not safety assessments.`,
 	_ = cmd.RegisterFlagCompletionFunc("params", completeParams)
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
 	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
+	addMethodFlags(cmd.Flags(), &opts.methodOptions, defaultMethod)
+	opts.limits.flags(cmd, true)
 	return cmd
 }
 
@@ -77,17 +95,18 @@ type orbitalsInput struct {
 
 // runOrbitals computes and prints every input. It is the testable body of the command.
 func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
-	p, cal, err := resolveModel(s, opts.params, opts.calibration)
+	mod, err := resolveSolveModel(s, opts.params, opts.calibration, opts.methodOptions)
 	if err != nil {
 		return err
 	}
+	p, cal := mod.params, mod.cal
 	out := newOrbitalsWriter(s.out, opts.format, p, cal)
-	var solver huckel.Solver
+	solver := mod.solver()
 	failed, total := 0, 0
 	var single error
 	handle := func(in orbitalsInput) error {
 		total++
-		res, err := computeOrbitals(in, p, opts, &solver)
+		res, err := computeOrbitals(in, p, opts, solver)
 		if err != nil {
 			failed++
 			if in.line == 0 && len(args) == 1 {
@@ -98,7 +117,7 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 			return nil
 		}
 		for _, w := range res.orb.Warnings {
-			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", in.smiles, w)
+			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", errtext.Clip(in.smiles), w)
 		}
 		return out.write(res)
 	}
@@ -108,7 +127,11 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		line := 0
 		for sc.Scan() {
 			line++
-			text := strings.TrimSpace(sc.Text())
+			text := sc.Text()
+			if line == 1 {
+				text = strings.TrimPrefix(text, "\ufeff") // a byte-order mark from an editor
+			}
+			text = strings.TrimSpace(text)
 			if text == "" || strings.HasPrefix(text, "#") {
 				continue
 			}
@@ -157,12 +180,12 @@ type orbitalsResult struct {
 // computeOrbitals parses, perceives and solves one input. Errors are formatted as
 // "<SMILES>: [line N, ]<position>: <what> (<hint>)", with the SMILES excerpt and caret on
 // the following lines for syntax errors.
-func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver *huckel.Solver) (*orbitalsResult, error) {
-	where := in.smiles
+func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver huckel.Method) (*orbitalsResult, error) {
+	where := errtext.Clip(in.smiles)
 	if in.line > 0 {
-		where = fmt.Sprintf("%s: line %d", in.smiles, in.line)
+		where = fmt.Sprintf("%s: line %d", where, in.line)
 	}
-	m, err := smiles.Parse(in.smiles)
+	m, err := opts.limits.parse(in.smiles)
 	if err != nil {
 		var se *smiles.Error
 		if errors.As(err, &se) {
@@ -170,20 +193,20 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 			if in.line > 0 {
 				sep = ", "
 			}
-			return nil, fmt.Errorf("%s%s%s\n%s", where, sep, se.Error(), indent(se.Excerpt()))
+			return nil, fmt.Errorf("%s%s%s%s", where, sep, se.Error(), excerptLines(se))
 		}
 		return nil, fmt.Errorf("%s: %v", where, err)
 	}
 	m.Name = in.name
-	ps, err := huckel.Perceive(m, p)
+	ps, err := opts.limits.perceive(m, p)
 	if err != nil {
-		return nil, fmt.Errorf("%s: %v", where, err)
+		return nil, fmt.Errorf("%s: %w", where, err)
 	}
 	if opts.omegaSet {
 		ps.Omega = opts.omega
 	}
 	if len(ps.Centres) == 0 {
-		return nil, fmt.Errorf("%s: no π system (no conjugated atoms found; nothing to compute)", where)
+		return nil, fmt.Errorf("%s: %s", where, noPiSystem(ps, "compute"))
 	}
 	o := new(huckel.Orbitals)
 	if err := solver.Solve(ps, o); err != nil {
@@ -196,4 +219,23 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 // indent prefixes every line of s with two spaces (the SMILES excerpt under an error).
 func indent(s string) string {
 	return "  " + strings.ReplaceAll(s, "\n", "\n  ")
+}
+
+// excerptLines is the indented excerpt with caret that follows a SMILES error line, or
+// nothing for an over-long input (its error line says everything; an excerpt would only
+// show 100 characters of the middle of it).
+func excerptLines(se *smiles.Error) string {
+	if errors.Is(se, smiles.ErrTooLong) {
+		return ""
+	}
+	return "\n" + indent(se.Excerpt())
+}
+
+// noPiSystem is the message for a molecule without π centres, naming what perception
+// left out (a metal atom, say) when it warned about it.
+func noPiSystem(ps *huckel.PiSystem, verb string) string {
+	if len(ps.Warnings) > 0 {
+		return fmt.Sprintf("no π system, nothing to %s: %s", verb, ps.Warnings[0])
+	}
+	return fmt.Sprintf("no π system (no conjugated atoms found; nothing to %s)", verb)
 }

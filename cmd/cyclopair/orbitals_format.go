@@ -41,6 +41,7 @@ type orbitalsJSON struct {
 	SMILES      string          `json:"smiles"`
 	Name        string          `json:"name,omitempty"`
 	Params      string          `json:"params"`
+	Method      string          `json:"method"`
 	Electrons   int             `json:"electrons"`
 	PiEnergy    num             `json:"pi_energy"`
 	HOMO        *frontierJSON   `json:"homo"`
@@ -50,6 +51,7 @@ type orbitalsJSON struct {
 	OpenShell   bool            `json:"open_shell"`
 	Omega       num             `json:"omega"`
 	Iterations  int             `json:"omega_iterations,omitempty"`
+	SCFCycles   int             `json:"scf_cycles,omitempty"` // PPP-SCF cycles (method ppp)
 	Levels      []levelJSON     `json:"levels"`
 	Centres     []centreJSON    `json:"centres"`
 	Fragments   int             `json:"fragments"`
@@ -124,12 +126,15 @@ func frontier(o *huckel.Orbitals, i int, cal huckel.Calibration) *frontierJSON {
 
 func toJSON(r *orbitalsResult, p *huckel.Params, cal huckel.Calibration) orbitalsJSON {
 	o := r.orb
-	j := orbitalsJSON{SMILES: r.in.smiles, Name: r.in.name, Params: p.Name, Electrons: o.Electrons,
+	j := orbitalsJSON{SMILES: r.in.smiles, Name: r.in.name, Params: p.Name, Method: o.Method, Electrons: o.Electrons,
 		PiEnergy: num(o.PiEnergy), HOMO: frontier(o, o.HOMO, cal), LUMO: frontier(o, o.LUMO, cal),
 		SOMO: frontier(o, o.SOMO, cal), OpenShell: o.Partial, Omega: num(r.ps.Omega), Iterations: o.Iterations,
 		Fragments: len(r.ps.Fragments), Warnings: o.Warnings, Calibration: calJSON(cal)}
 	if j.Warnings == nil {
 		j.Warnings = []string{}
+	}
+	if o.Method != huckel.MethodHuckel {
+		j.Iterations, j.SCFCycles = 0, o.Iterations
 	}
 	if o.HOMO >= 0 && o.LUMO >= 0 {
 		hl, ll := o.Levels[o.HOMO], o.Levels[o.LUMO]
@@ -239,6 +244,9 @@ func (ow *orbitalsWriter) table(r *orbitalsResult) error {
 	if len(ps.Fragments) > 1 {
 		frag = fmt.Sprintf(", %d separate π systems", len(ps.Fragments))
 	}
+	if o.Method != huckel.MethodHuckel {
+		omega = fmt.Sprintf(", method %s (%d SCF cycles)", o.Method, o.Iterations)
+	}
 	fmt.Fprintf(w, "parameters %s, %d π centres, %d π electrons%s%s\n", ow.p.Name, len(ps.Centres), o.Electrons, frag, omega)
 	sign := "+"
 	if o.PiEnergy < 0 {
@@ -250,8 +258,12 @@ func (ow *orbitalsWriter) table(r *orbitalsResult) error {
 		fmt.Fprintf(w, "; HOMO–LUMO gap %.4f|β| = %.2f eV", g, levelEV(cal, ll)-levelEV(cal, hl))
 	}
 	fmt.Fprintln(w)
-	fmt.Fprintf(w, "eV from calibration %s (occupied: %.3f %+.3f·x, empty: %.3f %+.3f·x; N = %d, r² = %.3f, RMSE = %.2f eV)\n\n",
-		cal.Name, cal.HOMOIntercept, cal.HOMOSlope, cal.LUMOIntercept, cal.LUMOSlope, cal.N, cal.R2, cal.RMSE)
+	if cal.Direct {
+		fmt.Fprintf(w, "%s; x = (ε − α_C)/β₀ with α_C = %.3f eV, β₀ = %.2f eV; h = the Fock diagonal on the same scale\n\n", huckel.DirectDetail, cal.HOMOIntercept, cal.HOMOSlope)
+	} else {
+		fmt.Fprintf(w, "eV from calibration %s (occupied: %.3f %+.3f·x, empty: %.3f %+.3f·x; N = %d, r² = %.3f, RMSE = %.2f eV)\n\n",
+			cal.Name, cal.HOMOIntercept, cal.HOMOSlope, cal.LUMOIntercept, cal.LUMOSlope, cal.N, cal.R2, cal.RMSE)
+	}
 
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "level\tx\teV\toccupancy\tdegeneracy\t\t")

@@ -4,11 +4,14 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 
 	"cyclopair/fmo"
-	"cyclopair/huckel/smiles"
+	"cyclopair/fmo/rate"
+	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -26,6 +29,10 @@ type pairOptions struct {
 	svg               string  // --svg FILE: also write the energy-level diagram (diagram.go)
 	lewisH            float64 // --lewis-h: h(O=LA) for --activate lewis (0 = the parameter set's)
 	calibration       string  // --calibration: default or a file from 'cyclopair calibrate --out'
+	rateModel         string  // --rate-model FILE: a model from 'cyclopair calibrate --rates' ("" = bundled)
+	temperature       float64 // --temperature: °C for the isomer shares
+	methodOptions
+	limits inputLimits
 }
 
 func newPairCmd(s *streams) *cobra.Command {
@@ -35,7 +42,8 @@ func newPairCmd(s *streams) *cobra.Command {
 		Short: "Frontier-orbital analysis of one cycloaddition pair",
 		Long: `Analyse one 4π partner (--diene: a diene, hetero-diene or 1,3-dipole) with one 2π partner
 (--dienophile) by Hückel frontier-orbital perturbation theory: the normal and inverse
-frontier gaps (x in E = α + xβ, reported in |β| and in eV through the named calibration),
+frontier gaps (x in E = α + xβ, reported in |β| and in eV through the named calibration;
+with --method ppp the orbitals come from PPP-SCF and eV from Koopmans' theorem),
 the demand and Sustmann type, every candidate pair of reacting units in both
 regio-orientations ranked best first with the adduct SMILES, the regio margin and
 confidence, the endo (secondary-orbital) verdict, whether the supra–supra thermal pairing is
@@ -85,6 +93,15 @@ and local rules before any lab work.`,
 			if c.Flags().Changed("lewis-h") && (!slices.Contains(opts.activate, fmo.ActivateLewis) || !(opts.lewisH > 0 && opts.lewisH <= 5)) {
 				return &usageError{fmt.Errorf("--lewis-h %g: needs --activate lewis and a value in (0, 5] (h of the Lewis-acid-bound carbonyl O; free C=O 1.0, protonated 2.5)", opts.lewisH)}
 			}
+			if err := opts.methodOptions.check(); err != nil {
+				return err
+			}
+			if opts.method == huckel.MethodPPP && opts.lewisH != 0 {
+				return &usageError{errors.New("--lewis-h sets a Hückel h value; PPP-SCF takes the O=LA centre from --ppp-params: drop --lewis-h with --method ppp")}
+			}
+			if err := opts.limits.check(); err != nil {
+				return err
+			}
 			return runPair(s, opts)
 		},
 	}
@@ -100,29 +117,33 @@ and local rules before any lab work.`,
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
+	addRateFlags(f, &opts.rateModel, &opts.temperature)
+	addMethodFlags(f, &opts.methodOptions, defaultMethod)
+	opts.limits.flags(cmd, false)
 	return cmd
 }
 
 // runPair is the testable body of 'cyclopair pair'.
 func runPair(s *streams, opts *pairOptions) error {
-	p, cal, err := resolveModel(s, opts.params, opts.calibration)
+	mod, err := resolveSolveModel(s, opts.params, opts.calibration, opts.methodOptions)
 	if err != nil {
 		return err
 	}
-	fo := fmo.NewOptions(p, cal, cal.Name)
+	cal := mod.cal
+	fo := mod.options()
 	fo.ChargeTerm = opts.chargeTerm
 	fo.AllOrbitals = opts.allOrbitals
-	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo)
+	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo, &opts.limits)
 	if err != nil {
 		return err
 	}
-	dienophile, err := pairPartner(opts.dienophile, fmo.RoleDienophile, fo)
+	dienophile, err := pairPartner(opts.dienophile, fmo.RoleDienophile, fo, &opts.limits)
 	if err != nil {
 		return err
 	}
 	var act *fmo.ActivateOptions
 	if opts.amine != "" {
-		am, err := smiles.Parse(opts.amine)
+		am, err := opts.limits.parse(opts.amine)
 		if err != nil {
 			return smilesErr(opts.amine, err)
 		}
@@ -156,12 +177,23 @@ func runPair(s *streams, opts *pairOptions) error {
 		base, _ = fmo.Analyze(diene, dienophile, fo)
 	}
 	roleWarning := fmo.RoleCheck(diene, dienophile, base, fo)
+	rm, err := loadRateModel(opts.rateModel)
+	if err != nil {
+		return err
+	}
+	var freeRate *float64
+	if base != nil {
+		if d, err := rate.FromPair(base, diene.Mol); err == nil {
+			v := rm.Predict(&d).Log10KRel
+			freeRate = &v
+		}
+	}
 	failed := 0
 	var firstErr error
 	for _, v := range variants {
 		if v.Err != nil {
 			failed++
-			err := fmt.Errorf("%s: --activate %s: %v", opts.dienophile, v.Mode, v.Err)
+			err := fmt.Errorf("%s: --activate %s: %v", errtext.Clip(opts.dienophile), v.Mode, v.Err)
 			if firstErr == nil {
 				firstErr = err
 			}
@@ -171,6 +203,13 @@ func runPair(s *streams, opts *pairOptions) error {
 			continue
 		}
 		pair := v.Pair
+		if err := rm.Annotate(pair, diene, opts.temperature); err != nil {
+			return err
+		}
+		if v.Mode != fmo.ActivateNone && freeRate != nil && pair.Rate != nil {
+			d := math.Round((pair.Rate.Log10KRel-*freeRate)*1e6) / 1e6
+			pair.Rate.Log10VsFree = &d
+		}
 		pair.AttachSideChannels(fmo.SideChannels(diene, dienophile, pair, fo))
 		if roleWarning != "" {
 			pair.Warnings = append(pair.Warnings, roleWarning)
@@ -206,9 +245,9 @@ func runPair(s *streams, opts *pairOptions) error {
 
 // pairPartner reads one partner; errors come back in the CLI's one-line form naming the SMILES.
 // The value may be a built-in substrate name (presets.Substrates, as for 'cyclopair draw') instead of a SMILES.
-func pairPartner(v string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) {
+func pairPartner(v string, role fmo.Role, o *fmo.Options, lim *inputLimits) (*fmo.Partner, error) {
 	name, smi := partnerInput(v)
-	m, err := smiles.Parse(smi)
+	m, err := lim.parse(smi)
 	if err != nil {
 		return nil, smilesErr(smi, err)
 	}
@@ -220,9 +259,9 @@ func pairPartner(v string, role fmo.Role, o *fmo.Options) (*fmo.Partner, error) 
 	if err != nil {
 		var se *fmo.SiteError
 		if errors.As(err, &se) {
-			return nil, &inputError{fmt.Errorf("%s: %s: %v", smi, role, pairSiteMessage(se))}
+			return nil, &inputError{fmt.Errorf("%s: %s: %v", errtext.Clip(smi), role, pairSiteMessage(se))}
 		}
-		return nil, &inputError{fmt.Errorf("%s: %v", smi, strings.TrimPrefix(err.Error(), smi+": "))}
+		return nil, &inputError{fmt.Errorf("%s: %v", errtext.Clip(smi), strings.TrimPrefix(err.Error(), smi+": "))}
 	}
 	pt.SMILES = smi
 	return pt, nil

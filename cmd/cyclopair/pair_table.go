@@ -8,6 +8,7 @@ import (
 
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
+	"cyclopair/huckel"
 )
 
 // pairTableRows is how many orientations the table shows; JSON always has all of them.
@@ -42,7 +43,11 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 		fmt.Fprintf(w, "activation effect (vs the free dienophile): LUMO lowered by %.3f |β| (%.2f eV); c²(Cβ) − c²(Cα) of the LUMO %.3f → %.3f; c² at the carbonyl carbon %.3f → %.3f; endo term %+.5f |β|\n",
 			e.LUMOLowering.Beta, e.LUMOLowering.EV, e.BetaAsymmetryFree, e.BetaAsymmetry, e.CarbonylLUMOFree, e.CarbonylLUMO, e.EndoChange)
 	}
-	fmt.Fprintf(w, "parameters: %s\n", p.Params)
+	if p.Method != "" && p.Method != huckel.MethodHuckel {
+		fmt.Fprintf(w, "parameters: %s (perception and k), π method %s\n", p.Params, p.Method)
+	} else {
+		fmt.Fprintf(w, "parameters: %s\n", p.Params)
+	}
 	if calDetail == "" {
 		calDetail = p.Calibration
 	}
@@ -52,6 +57,9 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	fmt.Fprintf(w, "demand: %s (Sustmann type %s; neutral/type II when the gaps differ by less than %.3f |β|)\n",
 		p.Demand, p.SustmannType, p.DemandThreshold)
 	fmt.Fprintf(w, "allowed (supra–supra, thermal): %s: %s\n", yesNo(p.Allowed), p.AllowedReason)
+	for _, l := range rateLines(p) {
+		fmt.Fprintln(w, l)
+	}
 	best := p.Orientations[0]
 	rel := func(x float64) string {
 		if best.FrontierTerm <= 0 {

@@ -11,6 +11,7 @@ import (
 	"text/tabwriter"
 
 	"cyclopair/huckel"
+	"cyclopair/huckel/errtext"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -35,14 +36,14 @@ func resolveParams(spec string) (*huckel.Params, error) {
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
 			return nil, &inputError{fmt.Errorf("%s: no such parameter set or file (built-in sets: %s)",
-				spec, strings.Join(presets.ParamNames(), ", "))}
+				errtext.Clip(spec), strings.Join(presets.ParamNames(), ", "))}
 		}
-		return nil, &inputError{fmt.Errorf("%s: %v (check the path and permissions)", spec, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v (check the path and permissions)", errtext.Clip(spec), unwrapPathError(err))}
 	}
 	defer f.Close()
 	data, err := io.ReadAll(io.LimitReader(f, maxParamsFile+1))
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v (check the file)", spec, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v (check the file)", errtext.Clip(spec), unwrapPathError(err))}
 	}
 	user, err := huckel.ParseParams(data, spec)
 	if err != nil {
@@ -50,7 +51,7 @@ func resolveParams(spec string) (*huckel.Params, error) {
 	}
 	p, err := presets.ResolveParams(user)
 	if err != nil {
-		return nil, &inputError{fmt.Errorf("%s: %v", spec, err)}
+		return nil, &inputError{fmt.Errorf("%s: %v", errtext.Clip(spec), err)}
 	}
 	if user.Name == "" {
 		p.Name = spec

@@ -9,6 +9,8 @@ import (
 	"os/signal"
 	"strings"
 
+	"cyclopair/huckel/errtext"
+
 	"github.com/spf13/cobra"
 )
 
@@ -103,12 +105,23 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return exitPartial
 	}
 	msg := strings.TrimPrefix(err.Error(), "cyclopair: ")
-	fmt.Fprintf(stderr, "cyclopair: %s\n", msg)
+	fmt.Fprintf(stderr, "cyclopair: %s\n", escapeLines(msg))
 	var ue *usageError
 	if errors.As(err, &ue) || isCobraUsage(err) {
 		fmt.Fprintf(stderr, "run 'cyclopair %s --help' for usage\n", commandPath(root, args))
 	}
 	return exitUsage
+}
+
+// escapeLines makes control characters in an error message visible (errtext.Escape), line
+// by line, so that no input echoed in a message — a flag value, a file name, a name read
+// from a file — can drive the terminal; the line breaks of a SMILES excerpt are kept.
+func escapeLines(msg string) string {
+	lines := strings.Split(msg, "\n")
+	for i, l := range lines {
+		lines[i] = errtext.Escape(l)
+	}
+	return strings.Join(lines, "\n")
 }
 
 // isCobraUsage recognises cobra's own argument errors (unknown command, wrong arg count).

@@ -39,7 +39,10 @@ type screenOptions struct {
 	workers        int
 	shard          string
 	// changed records which flags the user set (they override the substrate file).
-	changed func(name string) bool
+	changed     func(name string) bool
+	rateModel   string  // --rate-model FILE
+	temperature float64 // --temperature °C for the isomer shares
+	methodOptions
 }
 
 func newScreenCmd(s *streams) *cobra.Command {
@@ -54,9 +57,10 @@ screening kernel, ranked, and only the rows printed get the full analysis (produ
 warnings).
 
 Gaps and margins are in units of |β| (E = α + xβ, β < 0) and gaps also in eV through the
-calibration named in the header. Ranking keys: normal_gap (LUMO(dienophile) − HOMO(diene),
-smallest first; the default), gap (controlling gap), stabilization, regio_margin, score
-(larger first), none (pair order of the input, streamed).
+calibration named in the header. Ranking keys: rate (the default: predicted log10 k relative
+to cyclopentadiene + acrylonitrile from the fitted model of 'cyclopair validate', fastest
+first), normal_gap (LUMO(dienophile) − HOMO(diene), smallest first), gap (controlling gap),
+stabilization, regio_margin, score (larger first), none (pair order of the input, streamed).
 
 Instead of (or on top of) a YAML file, --dienes and --dienophiles read CSV (name,smiles) or
 plain files (one SMILES per line, optionally followed by a name). Command-line flags override
@@ -99,7 +103,8 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.amine, "amine", "", "`SMILES` of the secondary amine for --activate iminium (default: the file's, else pyrrolidine "+fmo.DefaultAmineSMILES+")")
 	f.StringVar(&o.params, "params", "", "parameter set `name` or YAML file (default: the file's, else "+presets.DefaultParams+")")
 	f.StringVar(&o.calibration, "calibration", "", "x → eV calibration: default or a `file` from 'cyclopair calibrate --out' (default: the file's, else default)")
-	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else normal_gap)")
+	f.StringVar(&o.rankBy, "rank-by", "", "ranking `key`: rate (predicted rate, fastest first), normal_gap, gap, stabilization, regio_margin, score, none (default: the file's, else rate)")
+	addRateFlags(f, &o.rateModel, &o.temperature)
 	f.IntVar(&o.top, "top", 0, "print only the best `K` rows (0: all; default: the file's)")
 	f.StringVar(&o.demand, "demand", "", "keep only pairs of this `demand`: normal, inverse, neutral, any")
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
@@ -108,6 +113,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
+	addMethodFlags(f, &o.methodOptions, "")
 }
 
 // screenRequest turns the flags into a screen request: a flag the user set overrides the
@@ -123,6 +129,26 @@ func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 		LoadParams: resolveParams,
 		LoadCalibration: func(spec string, p *huckel.Params) (huckel.Calibration, error) {
 			return resolveCalibration(s, spec, p)
+		},
+		Method: o.method, PPPParams: o.pppParams,
+		LoadMethod: func(method, spec string) (func() huckel.Method, *huckel.Calibration, error) {
+			if err := (methodOptions{method: method}).check(); err != nil {
+				return nil, nil, err
+			}
+			if method == "" {
+				method = defaultMethod
+			}
+			if method != huckel.MethodPPP {
+				if o.pppParams != "" {
+					return nil, nil, &usageError{fmt.Errorf("--ppp-params %s: only used with --method ppp", o.pppParams)}
+				}
+				return nil, nil, nil // a file's ppp_params: is ignored under Hückel
+			}
+			m, err := methodModel(method, spec, "", nil, huckel.Calibration{})
+			if err != nil {
+				return nil, nil, err
+			}
+			return m.newMethod, &m.cal, nil
 		},
 	}
 	if changed("activate") {
@@ -177,6 +203,10 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 	lib := cfg.Library
 	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
+	if cfg.RateModel, err = loadRateModel(o.rateModel); err != nil {
+		return err
+	}
+	cfg.TemperatureC = o.temperature
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
@@ -193,10 +223,14 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	}
 
 	cal := cfg.Calibration
+	paramsText := cfg.Params.Name
+	if cfg.Method != huckel.MethodHuckel {
+		paramsText += " (perception and k), π method " + cfg.Method
+	}
 	rep := render.Report{
 		Title:             lib.Title,
 		Source:            cfg.Source,
-		Params:            cfg.Params.Name,
+		Params:            paramsText,
 		Calibration:       cal.Name,
 		CalibrationDetail: cal.Detail(),
 		RankBy:            string(cfg.RankBy),

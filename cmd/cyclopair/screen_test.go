@@ -273,11 +273,11 @@ func TestScreenRankedShardsMerge(t *testing.T) {
 		}
 		return rows
 	}
-	whole, _, _ := runCLI(t, "", "demo", "--format", "json", "--top", "10")
+	whole, _, _ := runCLI(t, "", "demo", "--rank-by", "normal_gap", "--format", "json", "--top", "10")
 	want := parse(whole)
 	var merged []row
 	for _, sh := range []string{"1/3", "2/3", "3/3"} {
-		out, _, code := runCLI(t, "", "demo", "--format", "json", "--top", "10", "--shard", sh)
+		out, _, code := runCLI(t, "", "demo", "--rank-by", "normal_gap", "--format", "json", "--top", "10", "--shard", sh)
 		if code != exitOK {
 			t.Fatalf("shard %s failed", sh)
 		}

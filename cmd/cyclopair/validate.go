@@ -10,6 +10,8 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/fmo/check"
+	"cyclopair/huckel"
+	"cyclopair/huckel/ppp"
 	"cyclopair/presets"
 
 	"github.com/spf13/cobra"
@@ -22,6 +24,7 @@ type validateOptions struct {
 	format      string // table, json, markdown
 	cases       string // a check-set file instead of the bundled one
 	strict      bool
+	methodOptions
 }
 
 func newValidateCmd(s *streams) *cobra.Command {
@@ -39,6 +42,13 @@ kept as a documented known miss; nothing is tuned to pass a case.
 The known misses are recorded for the default parameter set and options; with another
 --params the differences show as "unexpected hit" or "miss".
 
+--method ppp runs the pair analysis on PPP-SCF orbitals instead of Hückel ones (the known
+misses are recorded for Hückel, so differences show as "miss" or "unexpected hit").
+Whatever the method, the report ends with the π orbital energies of both methods against
+gas-phase ionisation energies and electron affinities (presets/reference/pi-levels.yaml):
+r², RMSE and mean error, PPP as computed (Koopmans), Hückel through a line fitted on the
+same points.
+
 --cases FILE runs a check set of your own in the same format (see the header of
 presets/literature/cases.yaml). With --strict the exit status is 1 when a result differs
 from the record (a new miss, or a known miss that now hits); without it, 1 only when a case
@@ -47,7 +57,8 @@ cannot be analysed.
 Results are estimates for planning, not safety assessments.`,
 		Example: `  cyclopair validate
   cyclopair validate --format markdown > accuracy.md
-  cyclopair validate --params vancatledge1980 --format json | jq '.categories'`,
+  cyclopair validate --params vancatledge1980 --format json | jq '.categories'
+  cyclopair validate --method ppp`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
@@ -65,12 +76,25 @@ Results are estimates for planning, not safety assessments.`,
 	f.StringVar(&opts.cases, "cases", "", "check-set YAML file to run instead of the bundled one")
 	f.BoolVar(&opts.strict, "strict", false, "exit 1 when any result differs from the check set's record")
 	_ = cmd.MarkFlagFilename("cases", "yaml", "yml")
+	addMethodFlags(f, &opts.methodOptions, defaultMethod)
 	return cmd
 }
 
 // runValidate is the testable body of 'cyclopair validate'.
 func runValidate(s *streams, opts *validateOptions) error {
-	p, cal, err := resolveModel(s, opts.params, opts.calibration)
+	mo := opts.methodOptions
+	if mo.method != huckel.MethodPPP {
+		mo.pppParams = "" // with Hückel, --ppp-params only sets the PPP side of the π-level figures
+	}
+	mod, err := resolveSolveModel(s, opts.params, opts.calibration, mo)
+	if err != nil {
+		return err
+	}
+	pp, err := resolvePPP(opts.pppParams)
+	if err != nil {
+		return err
+	}
+	levels, err := piLevelFigures(mod.params, pp)
 	if err != nil {
 		return err
 	}
@@ -91,17 +115,24 @@ func runValidate(s *streams, opts *validateOptions) error {
 			return &inputError{err}
 		}
 	}
-	fo := fmo.NewOptions(p, cal, cal.Name)
+	fo := mod.options()
 	rep := check.Validate(set, fo)
 	switch opts.format {
 	case "json":
-		if err := writeValidateJSON(s.out, rep); err != nil {
+		if err := writeValidateJSON(s.out, rep, levels); err != nil {
 			return err
 		}
 	case "markdown":
 		writeValidateMarkdown(s.out, rep)
+		writeLevelsMarkdown(s.out, levels)
 	default:
 		writeValidateTable(s.out, rep)
+		writeLevelsTable(s.out, levels)
+		if opts.cases == "" {
+			if err := writeRateValidation(s.out); err != nil {
+				return err
+			}
+		}
 	}
 	errs, disagree := 0, 0
 	for _, c := range rep.Cases {
@@ -133,12 +164,13 @@ func runValidate(s *streams, opts *validateOptions) error {
 
 type validateJSON struct {
 	*check.ValidationReport
-	Agrees  bool   `json:"agrees_with_record"`
-	Caution string `json:"caution"`
+	Agrees   bool          `json:"agrees_with_record"`
+	PiLevels *piLevelsJSON `json:"pi_levels,omitempty"`
+	Caution  string        `json:"caution"`
 }
 
-func writeValidateJSON(w io.Writer, rep *check.ValidationReport) error {
-	b, err := json.Marshal(validateJSON{ValidationReport: rep, Agrees: rep.Agrees(), Caution: render.Caution})
+func writeValidateJSON(w io.Writer, rep *check.ValidationReport, levels *ppp.Comparison) error {
+	b, err := json.Marshal(validateJSON{ValidationReport: rep, Agrees: rep.Agrees(), PiLevels: levelsJSON(levels), Caution: render.Caution})
 	if err != nil {
 		return err
 	}
@@ -168,7 +200,11 @@ func seriesVerdict(s check.SeriesResult) string {
 }
 
 func writeValidateTable(w io.Writer, rep *check.ValidationReport) {
-	fmt.Fprintf(w, "literature check set %s: parameter set %s, calibration %s\n\n", rep.File, rep.Params, rep.Calibration)
+	if rep.Method != "" && rep.Method != huckel.MethodHuckel {
+		fmt.Fprintf(w, "literature check set %s: parameter set %s, π method %s, calibration %s\n\n", rep.File, rep.Params, rep.Method, rep.Calibration)
+	} else {
+		fmt.Fprintf(w, "literature check set %s: parameter set %s, calibration %s\n\n", rep.File, rep.Params, rep.Calibration)
+	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "category\thits\ttotal\trate\tknown misses\tnew misses\tunexpected hits\terrors")
 	for _, c := range rep.Categories {
@@ -212,7 +248,7 @@ func writeValidateTable(w io.Writer, rep *check.ValidationReport) {
 			fmt.Fprintf(w, "\n%s: %s\n", s.ID, s.KnownMiss)
 		}
 	}
-	fmt.Fprintf(w, "\nSources and confidences are listed per case in the check set. %s\n", render.Caution)
+	fmt.Fprintf(w, "\nSources and confidences are listed per case in the check set.\n")
 }
 
 // mdCell escapes a table cell for GitHub-flavoured Markdown.
@@ -223,7 +259,11 @@ func mdCell(s string) string {
 
 func writeValidateMarkdown(w io.Writer, rep *check.ValidationReport) {
 	fmt.Fprintf(w, "# Literature check: %s\n\n", mdCell(rep.File))
-	fmt.Fprintf(w, "Parameter set `%s`, calibration `%s`.\n\n", rep.Params, rep.Calibration)
+	if rep.Method != "" && rep.Method != huckel.MethodHuckel {
+		fmt.Fprintf(w, "Parameter set `%s`, π method `%s`, calibration `%s`.\n\n", rep.Params, rep.Method, rep.Calibration)
+	} else {
+		fmt.Fprintf(w, "Parameter set `%s`, calibration `%s`.\n\n", rep.Params, rep.Calibration)
+	}
 	fmt.Fprintln(w, "| category | hits | total | rate | known misses | new misses | unexpected hits | errors |")
 	fmt.Fprintln(w, "|---|---:|---:|---:|---:|---:|---:|---:|")
 	for _, c := range rep.Categories {
@@ -254,5 +294,105 @@ func writeValidateMarkdown(w io.Writer, rep *check.ValidationReport) {
 		fmt.Fprintf(w, "| %s | %s | %s + %s | %s | %s | %s | %s | %s | %s | %s |\n", c.ID, c.Category, mdCell(c.Diene), mdCell(c.Dienophile),
 			c.Activation, mdCell(c.Expected), mdCell(c.Got), c.Status, mdCell(note), mdCell(c.Source), c.Confidence)
 	}
-	fmt.Fprintf(w, "\n%s\n", render.Caution)
+}
+
+// piLevelFigures compares the HOMO and LUMO energies of both π methods with the bundled
+// gas-phase ionisation energies and electron affinities (ppp.Compare).
+func piLevelFigures(hp *huckel.Params, pp *ppp.Params) (*ppp.Comparison, error) {
+	refs, err := presets.PiLevelReferences()
+	if err != nil {
+		return nil, err
+	}
+	c, err := ppp.Compare(refs, hp, pp)
+	if err != nil {
+		return nil, err
+	}
+	return &c, nil
+}
+
+// piLevelsJSON is the "pi_levels" block of the validate JSON.
+type piLevelsJSON struct {
+	Reference    string        `json:"reference"`
+	PPPParams    string        `json:"ppp_params"`
+	HuckelParams string        `json:"huckel_params"`
+	PPPHOMO      levelStatJSON `json:"ppp_homo"`
+	HuckelHOMO   levelStatJSON `json:"huckel_homo"`
+	PPPLUMO      levelStatJSON `json:"ppp_lumo"`
+	HuckelLUMO   levelStatJSON `json:"huckel_lumo"`
+	Failed       []string      `json:"failed"`
+	Note         string        `json:"note"`
+}
+
+type levelStatJSON struct {
+	N          int `json:"n"`
+	R2         num `json:"r2"`
+	RMSE       num `json:"rmse_ev"`
+	MeanSigned num `json:"mean_error_ev"`
+	PearsonR2  num `json:"correlation_r2"`
+}
+
+const levelsReference = "presets/reference/pi-levels.yaml (gas-phase π ionisation energies and electron affinities, source per row)"
+
+const levelsNote = "PPP: Koopmans orbital energies as computed, no fit. Hückel: x through a straight line fitted on these same points (in-sample, so its r² is the best a calibration can reach). r² = 1 − SS_res/SS_tot; correlation r² is the squared Pearson coefficient."
+
+func levelStat(f ppp.FitStats) levelStatJSON {
+	return levelStatJSON{N: f.N, R2: num(f.R2), RMSE: num(f.RMSE), MeanSigned: num(f.MeanSigned), PearsonR2: num(f.PearsonR2)}
+}
+
+func levelsJSON(c *ppp.Comparison) *piLevelsJSON {
+	if c == nil {
+		return nil
+	}
+	j := &piLevelsJSON{Reference: levelsReference, PPPParams: c.PPPParams, HuckelParams: c.HuckelParams,
+		PPPHOMO: levelStat(c.PPPHOMO), HuckelHOMO: levelStat(c.HuckelHOMO), PPPLUMO: levelStat(c.PPPLUMO),
+		HuckelLUMO: levelStat(c.HuckelLUMO), Failed: c.Failed, Note: levelsNote}
+	if j.Failed == nil {
+		j.Failed = []string{}
+	}
+	return j
+}
+
+// levelRows are the four comparison lines in print order.
+func levelRows(c *ppp.Comparison) []struct {
+	what string
+	f    ppp.FitStats
+	how  string
+} {
+	return []struct {
+		what string
+		f    ppp.FitStats
+		how  string
+	}{
+		{"PPP HOMO vs −IE", c.PPPHOMO, "Koopmans, no fit"},
+		{"Hückel HOMO vs −IE", c.HuckelHOMO, "line fitted on these points"},
+		{"PPP LUMO vs −EA", c.PPPLUMO, "Koopmans, no fit"},
+		{"Hückel LUMO vs −EA", c.HuckelLUMO, "line fitted on these points"},
+	}
+}
+
+func writeLevelsTable(w io.Writer, c *ppp.Comparison) {
+	fmt.Fprintf(w, "\nπ orbital energies against %s\n(PPP set %s, Hückel set %s):\n", levelsReference, c.PPPParams, c.HuckelParams)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "figure\tN\tr²\tRMSE/eV\tmean error/eV\tcorrelation r²\teV from")
+	for _, r := range levelRows(c) {
+		fmt.Fprintf(tw, "%s\t%d\t%.3f\t%.2f\t%+.2f\t%.3f\t%s\n", r.what, r.f.N, r.f.R2, r.f.RMSE, r.f.MeanSigned, r.f.PearsonR2, r.how)
+	}
+	tw.Flush()
+	for _, f := range c.Failed {
+		fmt.Fprintf(w, "  not computed: %s\n", f)
+	}
+	fmt.Fprintf(w, "%s\n\n%s\n", levelsNote, render.Caution)
+}
+
+func writeLevelsMarkdown(w io.Writer, c *ppp.Comparison) {
+	fmt.Fprintf(w, "\n## π orbital energies\n\nAgainst %s; PPP set `%s`, Hückel set `%s`.\n\n", levelsReference, c.PPPParams, c.HuckelParams)
+	fmt.Fprintln(w, "| figure | N | r² | RMSE/eV | mean error/eV | correlation r² | eV from |")
+	fmt.Fprintln(w, "|---|---:|---:|---:|---:|---:|---|")
+	for _, r := range levelRows(c) {
+		fmt.Fprintf(w, "| %s | %d | %.3f | %.2f | %+.2f | %.3f | %s |\n", r.what, r.f.N, r.f.R2, r.f.RMSE, r.f.MeanSigned, r.f.PearsonR2, r.how)
+	}
+	for _, f := range c.Failed {
+		fmt.Fprintf(w, "\nNot computed: %s\n", mdCell(f))
+	}
+	fmt.Fprintf(w, "\n%s\n\n%s\n", levelsNote, render.Caution)
 }

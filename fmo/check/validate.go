@@ -105,6 +105,7 @@ type SeriesResult struct {
 type ValidationReport struct {
 	File        string          `json:"file"`
 	Params      string          `json:"params"`
+	Method      string          `json:"method"` // π method of every partner ("huckel" or "ppp")
 	Calibration string          `json:"calibration"`
 	Categories  []CategoryScore `json:"categories"`
 	Products    [2]int          `json:"products"` // [matching, checked] expected products
@@ -130,7 +131,7 @@ func (r *ValidationReport) Agrees() bool {
 // Validate runs every case and series of set with opts. A case that cannot be analysed is
 // reported with StatusError and the run goes on. Cases are evaluated in file order.
 func Validate(set *CheckSet, opts *fmo.Options) *ValidationReport {
-	rep := &ValidationReport{File: set.File, Params: opts.Params.Name, Calibration: opts.CalibrationName}
+	rep := &ValidationReport{File: set.File, Params: opts.Params.Name, Method: opts.MethodName(), Calibration: opts.CalibrationName}
 	score := map[string]*CategoryScore{}
 	for _, c := range Categories() {
 		score[c] = &CategoryScore{Category: c}

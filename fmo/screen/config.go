@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
@@ -46,6 +47,16 @@ type Request struct {
 	// and the file formats and word their errors for the command line.
 	LoadParams      func(spec string) (*huckel.Params, error)
 	LoadCalibration func(spec string, p *huckel.Params) (huckel.Calibration, error)
+
+	// Method is the π method ("huckel" or "ppp"); "" keeps the file's method: (else the
+	// default LoadMethod picks). PPPParams is the PPP parameter set name or file; "" keeps
+	// the file's ppp_params: (relative to the file), else the default set.
+	Method, PPPParams string
+	// LoadMethod turns a method name ("" for the default) and its parameter spec into a
+	// solver factory for fmo.Options.NewMethod (nil: Hückel) and, for a method that computes
+	// eV itself, its exact eV map (direct non-nil), which then replaces the calibration.
+	// nil LoadMethod means Hückel only.
+	LoadMethod func(method, spec string) (newMethod func() huckel.Method, direct *huckel.Calibration, err error)
 }
 
 // Config is a screen resolved in one place from file, flags and defaults: everything
@@ -56,6 +67,7 @@ type Config struct {
 	Bad         []error             // rows that failed to load, in input order
 	Params      *huckel.Params
 	Calibration huckel.Calibration
+	Method      string // π method of every partner: "huckel" or "ppp"
 	Options     *fmo.Options
 	Activate    *fmo.ActivateOptions // nil: defaults (pyrrolidine for iminium)
 	Activations []string             // activation modes, in order, without duplicates
@@ -64,6 +76,10 @@ type Config struct {
 	Filter      substrates.Filter
 	Shard       Shard
 	Workers     int // 0: all cores
+	// RateModel and TemperatureC are handed to Prepare (nil, 0: the bundled model, 25 °C);
+	// the caller sets them after Resolve.
+	RateModel    *rate.Model
+	TemperatureC float64
 }
 
 // UsageError marks a bad command-line setting of a Request (the CLI adds its usage hint);
@@ -114,10 +130,23 @@ func Resolve(req Request) (*Config, error) {
 	if c.Params, err = c.params(req, dir); err != nil {
 		return nil, err
 	}
-	if c.Calibration, err = c.calibration(req, dir); err != nil {
+	newMethod, direct, err := c.method(req, dir)
+	if err != nil {
+		return nil, err
+	}
+	if direct != nil {
+		if req.Calibration != "" && req.Calibration != "default" {
+			return nil, usage("--calibration %s: method %s gives eV directly and takes no calibration", req.Calibration, c.Method)
+		}
+		if cs := c.Library.Calibration; cs != "" && cs != "default" {
+			return nil, fmt.Errorf("%s: calibration: method %s gives eV directly and takes no calibration (drop the calibration: key)", c.Library.Where("calibration"), c.Method)
+		}
+		c.Calibration = *direct
+	} else if c.Calibration, err = c.calibration(req, dir); err != nil {
 		return nil, err
 	}
 	c.Options = fmo.NewOptions(c.Params, c.Calibration, c.Calibration.Name)
+	c.Options.NewMethod = newMethod
 	switch {
 	case req.Amine != "":
 		am, err := smiles.Parse(req.Amine)
@@ -159,7 +188,7 @@ func (c *Config) load(req Request) (dir string, err error) {
 			c.Bad = append(c.Bad, b)
 		}
 	} else {
-		c.Library = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(RankNormalGap), Set: map[string]bool{}}
+		c.Library = &substrates.Library{Activations: []string{fmo.ActivateNone}, RankBy: string(RankRate), Set: map[string]bool{}}
 	}
 	for _, side := range []struct {
 		file string
@@ -312,6 +341,45 @@ func (c *Config) params(req Request, dir string) (*huckel.Params, error) {
 	return req.LoadParams("")
 }
 
+// method picks the π method: the request's, else the file's method:, else LoadMethod's
+// default; and its parameter spec: the request's, else the file's ppp_params: (a path
+// relative to the file when such a file exists there).
+func (c *Config) method(req Request, dir string) (func() huckel.Method, *huckel.Calibration, error) {
+	lib := c.Library
+	name, spec := req.Method, req.PPPParams
+	fromFile := false
+	if name == "" {
+		name, fromFile = lib.Method, lib.Method != ""
+	}
+	if spec == "" && lib.PPPParams != "" {
+		spec = lib.PPPParams
+		if !filepath.IsAbs(spec) && dir != "" {
+			if _, err := os.Stat(filepath.Join(dir, spec)); err == nil {
+				spec = filepath.Join(dir, spec)
+			}
+		}
+	}
+	if req.LoadMethod == nil {
+		if name != "" && name != huckel.MethodHuckel {
+			return nil, nil, usage("method %s: not available here", name)
+		}
+		c.Method = huckel.MethodHuckel
+		return nil, nil, nil
+	}
+	nm, direct, err := req.LoadMethod(name, spec)
+	if err != nil {
+		if fromFile {
+			return nil, nil, fmt.Errorf("%s: method: %v", lib.Where("method"), err)
+		}
+		return nil, nil, err
+	}
+	c.Method = huckel.MethodHuckel
+	if nm != nil {
+		c.Method = nm().Name()
+	}
+	return nm, direct, nil
+}
+
 // calibration picks the calibration: the request's, else the file's calibration: key (a
 // file is taken relative to the substrate file), else the built-in calibration fitted for
 // the parameter set ("default").
@@ -354,7 +422,8 @@ func source(req Request) string {
 func (c *Config) Prepare(ctx context.Context, progress func(n int64)) (*Prepared, error) {
 	lib := *c.Library
 	lib.Activations = c.Activations
-	return Prepare(ctx, &lib, c.Options, PrepareOptions{Workers: c.Workers, Activate: c.Activate, Progress: progress})
+	return Prepare(ctx, &lib, c.Options, PrepareOptions{Workers: c.Workers, Activate: c.Activate, Progress: progress,
+		RateModel: c.RateModel, TemperatureC: c.TemperatureC})
 }
 
 // ScreenOptions are the configured ranking, filters, shard and workers as options for

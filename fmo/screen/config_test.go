@@ -41,7 +41,7 @@ func TestResolvePrecedence(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !slices.Equal(c.Activations, []string{"none", "lewis", "iminium"}) || c.RankBy != RankNormalGap || c.Top != 20 || c.Source != name {
+	if !slices.Equal(c.Activations, []string{"none", "lewis", "iminium"}) || c.RankBy != RankRate || c.Top != 20 || c.Source != name {
 		t.Errorf("file settings: activations %v, rank %s, top %d, source %q", c.Activations, c.RankBy, c.Top, c.Source)
 	}
 	if !slices.Equal(asked, []string{"params ", "calibration "}) || c.Options == nil || c.Activate != nil {
@@ -147,7 +147,7 @@ func TestResolveFiles(t *testing.T) {
 	if len(c.Library.Dienes) != 2 || len(c.Library.Dienophiles) != 1 || len(c.Bad) != 1 {
 		t.Errorf("lists: %d dienes, %d dienophiles, bad %v", len(c.Library.Dienes), len(c.Library.Dienophiles), c.Bad)
 	}
-	if !slices.Equal(c.Activations, []string{fmo.ActivateNone}) || c.RankBy != RankNormalGap || c.Source != "dienes from -, dienophiles from "+list {
+	if !slices.Equal(c.Activations, []string{fmo.ActivateNone}) || c.RankBy != RankRate || c.Source != "dienes from -, dienophiles from "+list {
 		t.Errorf("lists only: activations %v, rank %s, source %q", c.Activations, c.RankBy, c.Source)
 	}
 }

@@ -4,12 +4,14 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"math"
 	"runtime"
 	"slices"
 	"sync"
 	"sync/atomic"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 	"cyclopair/fmo/substrates"
 )
 
@@ -31,7 +33,10 @@ type Prepared struct {
 	NotApplicable int
 	activate      *fmo.ActivateOptions
 	quick         *fmo.QuickKernel
-	sides         fmo.SideChannelCache // dimerisation per diene, shared by every row of that diene
+	rate          *rate.Model           // the rate model for the rate key and the rows' rate
+	temperatureC  float64               // of the isomer shares
+	dieneConf     [][]rate.Conformation // per diene, per reacting unit
+	sides         fmo.SideChannelCache  // dimerisation per diene, shared by every row of that diene
 }
 
 // Space is the pair space of the prepared library.
@@ -46,6 +51,11 @@ type PrepareOptions struct {
 	// Progress, if not nil, is called concurrently from workers with the number of
 	// molecules (or activated variants) just prepared.
 	Progress func(n int64)
+	// RateModel is the rate model for the rate key and every row's rate (nil: the bundled
+	// model, rate.Default).
+	RateModel *rate.Model
+	// TemperatureC is the temperature of the predicted isomer shares (0: 25 °C).
+	TemperatureC float64
 }
 
 // Prepare builds every partner of lib with opts. Each distinct SMILES (with the same pins)
@@ -61,7 +71,18 @@ func Prepare(ctx context.Context, lib *substrates.Library, opts *fmo.Options, po
 			po.Progress(1)
 		}
 	}
-	p := &Prepared{Opts: opts, Activations: slices.Clone(lib.Activations), activate: act, quick: fmo.NewQuickKernel(opts)}
+	p := &Prepared{Opts: opts, Activations: slices.Clone(lib.Activations), activate: act, quick: fmo.NewQuickKernel(opts),
+		rate: po.RateModel, temperatureC: po.TemperatureC}
+	if p.rate == nil {
+		m, err := rate.Default()
+		if err != nil {
+			return nil, err
+		}
+		p.rate = m
+	}
+	if p.temperatureC == 0 {
+		p.temperatureC = 25
+	}
 	if len(p.Activations) == 0 {
 		p.Activations = []string{fmo.ActivateNone}
 	}
@@ -137,6 +158,10 @@ func Prepare(ctx context.Context, lib *substrates.Library, opts *fmo.Options, po
 			p.Dienophiles = append(p.Dienophiles, part)
 			p.DphRows = append(p.DphRows, *r.sub)
 		}
+	}
+	p.dieneConf = make([][]rate.Conformation, len(p.Dienes))
+	for i, d := range p.Dienes {
+		p.dieneConf[i] = rate.PartnerConformations(d)
 	}
 	// Activated variants, one per (dienophile, mode).
 	na := len(p.Activations)
@@ -222,6 +247,18 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
 		for _, w := range fmo.DieneCautions(diene.Mol, mode) {
 			if !slices.Contains(pair.Warnings, w) {
 				pair.Warnings = append(pair.Warnings, w)
+			}
+		}
+	}
+	if err := p.rate.Annotate(pair, diene, p.temperatureC); err != nil {
+		return nil, err
+	}
+	if mode := p.Activations[a]; mode != fmo.ActivateNone && pair.Rate != nil {
+		if free, err := fmo.Analyze(diene, p.Dienophiles[e], p.Opts); err == nil {
+			if d, err := rate.FromPair(free, diene.Mol); err == nil {
+				v := pair.Rate.Log10KRel - p.rate.Predict(&d).Log10KRel
+				v = math.Round(v*1e6) / 1e6
+				pair.Rate.Log10VsFree = &v
 			}
 		}
 	}

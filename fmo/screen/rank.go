@@ -33,10 +33,13 @@ const (
 	RankRegioMargin RankKey = "regio_margin"
 	// RankScore: the screening score of QuickScore (see Quick), largest first.
 	RankScore RankKey = "score"
+	// RankRate: the predicted log10 k_rel of the fitted rate model (fmo/rate), fastest
+	// first. The default.
+	RankRate RankKey = "rate"
 )
 
 // RankKeys lists the keys in the order help texts show them.
-var RankKeys = []RankKey{RankNormalGap, RankGap, RankStabilization, RankRegioMargin, RankScore, RankNone}
+var RankKeys = []RankKey{RankRate, RankNormalGap, RankGap, RankStabilization, RankRegioMargin, RankScore, RankNone}
 
 // ErrRankKey is wrapped by ParseRankKey for an unknown key.
 var ErrRankKey = errors.New("unknown ranking key")
@@ -51,11 +54,11 @@ func RankKeyNames() []string {
 	return names
 }
 
-// ParseRankKey reads a key name ("" is RankNormalGap).
+// ParseRankKey reads a key name ("" is RankRate, the default).
 func ParseRankKey(s string) (RankKey, error) {
 	s = strings.ToLower(strings.TrimSpace(s))
 	if s == "" {
-		return RankNormalGap, nil
+		return RankRate, nil
 	}
 	for _, k := range RankKeys {
 		if string(k) == s {

@@ -76,7 +76,15 @@ func (j *preparedJob) scoreChunk(_ int, lo, hi int64, out []chunkScore) {
 			out[i] = chunkScore{}
 		} else {
 			q := j.p.quick.Score(diene, v)
-			out[i] = chunkScore{key: rankValue(j.rank, &q), pass: passes(&j.flt, &q), ok: true}
+			key := 0.0
+			if j.rank == RankRate {
+				if q.OK {
+					key = -j.p.rate.Quick(&q, &j.p.dieneConf[d][q.DieneUnit])
+				}
+			} else {
+				key = rankValue(j.rank, &q)
+			}
+			out[i] = chunkScore{key: key, pass: passes(&j.flt, &q), ok: true}
 		}
 		if a++; a == na {
 			a = 0

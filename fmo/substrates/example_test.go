@@ -33,6 +33,6 @@ top: 5
 	}
 	// Output:
 	// diene: cyclopentadiene C1=CC=CC1
-	// activations: [none lewis] rank by: normal_gap top: 5
+	// activations: [none lewis] rank by: rate top: 5
 	// bad: screen.yaml: 3:36: dienes[1] "typo": SMILES "C1=CC=C(C1" column 11: unclosed branch opened at column 8 (add ')' to close it)
 }

@@ -10,6 +10,7 @@ import (
 	"fmt"
 	"io"
 
+	"cyclopair/huckel"
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/yamlfile"
 )
@@ -30,6 +31,10 @@ var (
 )
 
 // DefaultMaxFileBytes caps the size of a substrate file (and of a CSV or line file).
+// Methods are the π method names a substrate file's method: key accepts (the names of
+// huckel.Method implementations).
+var Methods = []string{huckel.MethodHuckel, huckel.MethodPPP}
+
 const DefaultMaxFileBytes = 16 << 20
 
 // Limits on single values, so one huge scalar cannot flood memory or the terminal.
@@ -97,6 +102,8 @@ type Library struct {
 	Params      string   // built-in parameter set name, "" for the default
 	ParamsFile  string   // parameter file path as written in the file, "" if none
 	Calibration string   // "default" (or "") or a calibration file path as written in the file
+	Method      string   // π method ("huckel" or "ppp"), "" when the file does not say
+	PPPParams   string   // PPP parameter set name or file path as written in the file, "" if none
 	Amine       string   // secondary amine SMILES for iminium activation, "" for the default (pyrrolidine)
 	AmineMol    *molecule.Molecule
 	Filter      Filter

@@ -15,7 +15,7 @@ import (
 // package screen does.
 func withVocab(o LoadOptions) LoadOptions {
 	o.Modes = fmo.Modes()
-	o.RankKeys = []string{"normal_gap", "gap", "stabilization", "regio_margin", "score", "none"}
+	o.RankKeys = []string{"rate", "normal_gap", "gap", "stabilization", "regio_margin", "score", "none"}
 	return o
 }
 
@@ -68,7 +68,7 @@ func TestLoadLibraryDefaults(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if lib.RankBy != "normal_gap" || len(lib.Activations) != 1 || lib.Activations[0] != "none" || lib.Dienes[0].Name != "C=CC=C" {
+	if lib.RankBy != "rate" || len(lib.Activations) != 1 || lib.Activations[0] != "none" || lib.Dienes[0].Name != "C=CC=C" {
 		t.Errorf("defaults = %+v", lib)
 	}
 }

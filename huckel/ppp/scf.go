@@ -349,6 +349,11 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 // with the Hückel density.
 func (s *Solver) start(ps *huckel.PiSystem) error {
 	clear(s.c)
+	if s.jacobiStart(ps) {
+		s.occupy()
+		s.density(s.pd)
+		return nil
+	}
 	if err := s.hs.Solve(ps, &s.ho); err != nil {
 		// The Hückel start failed (e.g. an ω iteration): start from the core Hamiltonian.
 		copy(s.f, s.hc)
@@ -376,6 +381,53 @@ func (s *Solver) start(ps *huckel.PiSystem) error {
 	s.occupy()
 	s.density(s.pd)
 	return nil
+}
+
+// jacobiStart is the Hückel start without a huckel.Solver: when every fragment has at most
+// jacobiMax centres and ps asks for no ω iteration, it builds each fragment's Hückel
+// matrix (h_i on the diagonal, k_ij for the π bonds, as huckel.Solve does) and
+// diagonalises it by Jacobi rotations from the unit matrix into s.c and s.eps. The start
+// vectors are then the Hückel eigenvectors up to the basis chosen inside degenerate sets,
+// which the SCF does not depend on (a degenerate set is occupied evenly). It returns false
+// (and leaves the work to the huckel.Solver path) otherwise.
+func (s *Solver) jacobiStart(ps *huckel.PiSystem) bool {
+	if ps.Omega != 0 {
+		return false
+	}
+	for _, m := range s.fragM {
+		if m > jacobiMax {
+			return false
+		}
+	}
+	pk := s.pkO[len(s.fragM)]
+	s.fx = growF(s.fx, pk)
+	hm := s.fx[:pk] // scratch: fx is rewritten by finish
+	clear(hm)
+	for f, m := range s.fragM {
+		o, po := s.fragOff[f], s.pkO[f]
+		for i := 0; i < m; i++ {
+			hm[po+i*m+i] = ps.Centres[s.perm[o+i]].H
+			s.c[po+i*m+i] = 1
+		}
+	}
+	for _, b := range ps.Bonds {
+		f := ps.Centres[b.I].Fragment
+		m, o, po := s.fragM[f], s.fragOff[f], s.pkO[f]
+		i, j := s.inv[b.I]-o, s.inv[b.J]-o
+		hm[po+i*m+j] += b.K
+		hm[po+j*m+i] += b.K
+	}
+	scale := math.Abs(s.p.Beta0)
+	for f, m := range s.fragM {
+		o, po := s.fragOff[f], s.pkO[f]
+		a, cb, eps := hm[po:po+m*m], s.c[po:po+m*m], s.eps[o:o+m]
+		jacobi(a, cb, m)
+		for i := 0; i < m; i++ {
+			eps[i] = -a[i*m+i] * scale // x descending = energy ascending
+		}
+		sortColumns(eps, cb, m)
+	}
+	return true
 }
 
 // occupy sets s.occ by aufbau per fragment from s.eps (ascending within each fragment),

@@ -3,8 +3,8 @@ package smiles
 import (
 	"errors"
 	"fmt"
-	"strings"
-	"unicode/utf8"
+
+	"cyclopair/huckel/errtext"
 )
 
 // Sentinel errors. Every *Error wraps exactly one of them, so callers can ask
@@ -17,6 +17,9 @@ var (
 	ErrKekulize       = errors.New("aromatic ring cannot be kekulised")
 	ErrValence        = errors.New("impossible valence")
 	ErrRadical        = errors.New("radical not supported")
+	// ErrTooLong: the input is longer than the length limit (MaxLength, or
+	// ParseOptions.MaxLength); nothing of it was read.
+	ErrTooLong = errors.New("SMILES too long")
 )
 
 // Error is one problem found in a SMILES string. Pos is a 0-based byte offset into Input
@@ -46,36 +49,11 @@ func (e *Error) Error() string {
 // Unwrap returns the sentinel error.
 func (e *Error) Unwrap() error { return e.Err }
 
-// excerptWidth is the longest input line Excerpt prints before shortening it.
-const excerptWidth = 60
-
-// Excerpt returns two lines without a trailing newline: the input (shortened to a window
-// around Pos with "..." marks when it is longer than 60 bytes) and a caret under Pos.
-func (e *Error) Excerpt() string {
-	s := e.Input
-	pos := min(max(e.Pos, 0), len(s))
-	start, end := 0, len(s)
-	prefix, suffix := "", ""
-	if len(s) > excerptWidth {
-		start = max(pos-excerptWidth/2, 0)
-		end = min(start+excerptWidth, len(s))
-		start = max(end-excerptWidth, 0)
-		if start > 0 {
-			prefix = "..."
-		}
-		if end < len(s) {
-			suffix = "..."
-		}
-	}
-	var b strings.Builder
-	b.WriteString(prefix)
-	b.WriteString(s[start:end])
-	b.WriteString(suffix)
-	b.WriteByte('\n')
-	b.WriteString(strings.Repeat(" ", len(prefix)+utf8.RuneCountInString(s[start:pos])))
-	b.WriteByte('^')
-	return b.String()
-}
+// Excerpt returns two lines without a trailing newline: the input and a caret under Pos.
+// The input is shown as errtext.Excerpt shows it: control characters escaped (\x1b, \x00
+// …), and an input longer than errtext.Width (100) characters cut to a window around Pos
+// with "..." marks and its total length, so a message stays short whatever was typed.
+func (e *Error) Excerpt() string { return errtext.Excerpt(e.Input, e.Pos) }
 
 // ErrorList is a list of errors found in one input, in order of position, modelled on
 // go/scanner.ErrorList. Parse returns a single *Error when it found one problem and an

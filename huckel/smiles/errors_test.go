@@ -184,8 +184,8 @@ func TestExcerpt(t *testing.T) {
 	if len(lines) != 2 {
 		t.Fatalf("Excerpt() = %q", e.Excerpt())
 	}
-	if !strings.HasPrefix(lines[0], "...") || !strings.HasSuffix(lines[0], "...") {
-		t.Errorf("long input not shortened with ... marks: %q", lines[0])
+	if !strings.HasPrefix(lines[0], "...") || !strings.HasSuffix(lines[0], "... (input of 201 characters)") {
+		t.Errorf("long input not shortened with ... marks and its length: %q", lines[0])
 	}
 	if caret := strings.IndexByte(lines[1], '^'); caret < 0 || lines[0][caret] != 'X' {
 		t.Errorf("caret does not point at X:\n%s", e.Excerpt())

@@ -38,8 +38,11 @@
 // # Failure modes
 //
 // Parse never panics on any input. A problem yields an *Error carrying the 0-based byte
-// offset, a message, a hint and one of the sentinels ErrEmpty, ErrSyntax,
-// ErrUnknownElement, ErrRingNotClosed, ErrKekulize, ErrValence and ErrRadical. Where the
+// offset, a message, a hint and one of the sentinels ErrEmpty, ErrTooLong, ErrSyntax,
+// ErrUnknownElement, ErrRingNotClosed, ErrKekulize, ErrValence and ErrRadical. Input
+// longer than MaxLength bytes (4,096; ParseOptions raises it) is refused with ErrTooLong
+// before anything is allocated. Excerpt shows at most 100 characters of the input around
+// the problem, with control characters escaped (package errtext). Where the
 // reader can go on after a problem (unknown elements, unclosed rings and branches,
 // several radical atoms) it collects every problem and returns them as an ErrorList;
 // a single problem is returned as a bare *Error. In both cases errors.As(err, &e) with
@@ -132,13 +135,42 @@ type parser struct {
 // what the returned molecule owns.
 var parserPool = sync.Pool{New: func() any { return new(parser) }}
 
-// Parse reads one SMILES string. The returned molecule has Source set to s, atoms in the
-// order they appear in s (Atom.Pos is each atom's byte offset), Kekulé bond orders and
-// hydrogen counts. On failure the molecule is nil and the error is an *Error or an
-// ErrorList of *Error (see the package documentation).
-func Parse(s string) (*molecule.Molecule, error) {
+// MaxLength is the longest SMILES, in bytes, that Parse accepts. 4,096 bytes is the cap
+// the substrate-file loader puts on each SMILES (one limit for every way in: command
+// line, stdin, files); it allows about 2,700 atoms, well beyond the largest π system the
+// huckel package solves by default (huckel.DefaultMaxCentres = 500). Longer input fails
+// with ErrTooLong before anything is allocated; ParseOptions.MaxLength raises the limit.
+const MaxLength = 4096
+
+// ParseOptions adjusts Parse. The zero value gives Parse's behaviour.
+type ParseOptions struct {
+	// MaxLength is the longest input accepted, in bytes; 0 (or less) means MaxLength.
+	// Raise it for generated SMILES (the adduct of two large partners is longer than
+	// either) or from a command-line flag (--max-smiles-length); math.MaxInt lifts it.
+	// Reading is linear in the length, but the later stages are not (see package huckel).
+	MaxLength int
+}
+
+// Parse reads one SMILES string of at most MaxLength bytes. The returned molecule has
+// Source set to s, atoms in the order they appear in s (Atom.Pos is each atom's byte
+// offset), Kekulé bond orders and hydrogen counts. On failure the molecule is nil and the
+// error is an *Error or an ErrorList of *Error (see the package documentation).
+func Parse(s string) (*molecule.Molecule, error) { return ParseOptions{}.Parse(s) }
+
+// Parse is the package-level Parse with the options' length limit. A longer input fails
+// with an *Error wrapping ErrTooLong at the first byte beyond the limit.
+func (o ParseOptions) Parse(s string) (*molecule.Molecule, error) {
 	if len(s) == 0 {
 		return nil, &Error{Input: s, Pos: 0, Msg: "empty input", Hint: "give a SMILES such as C=CC=C", Err: ErrEmpty}
+	}
+	limit := o.MaxLength
+	if limit <= 0 {
+		limit = MaxLength
+	}
+	if len(s) > limit {
+		return nil, &Error{Input: s, Pos: limit, Err: ErrTooLong,
+			Msg:  fmt.Sprintf("SMILES of %d bytes is longer than the limit of %d bytes", len(s), limit),
+			Hint: "shorten it, or raise the limit with --max-smiles-length"}
 	}
 	p := parserPool.Get().(*parser)
 	defer p.release()

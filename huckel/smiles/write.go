@@ -16,7 +16,9 @@ import (
 // charges, isotopes, hydrogen counts, bond orders and atom maps; stereo marks on bonds are
 // written as they are stored (flipped when the bond is written from B to A). A tetrahedral
 // configuration set in code (Atom.Chiral) is written as '@' or '@@' for the neighbour order
-// of the output; the reader accepts these marks but does not keep them.
+// of the output; the reader accepts these marks but does not keep them. The Kekulé form can
+// be longer than the input (and a built product longer than either partner): read it back
+// with ParseOptions.MaxLength raised when it exceeds MaxLength.
 //
 // The output depends only on the graph and the atom order, not on the order of m.Bonds:
 // each fragment starts at its lowest-numbered atom, a depth-first search visits

@@ -8,6 +8,7 @@
 package yamlfile
 
 import (
+	"cyclopair/huckel/errtext"
 	"fmt"
 	"strings"
 )
@@ -30,7 +31,7 @@ type Error struct {
 
 func (e *Error) Error() string {
 	var b strings.Builder
-	b.WriteString(e.File)
+	b.WriteString(errtext.Clip(e.File))
 	if e.Line > 0 {
 		fmt.Fprintf(&b, ": %d:%d", e.Line, e.Col)
 	}
@@ -39,7 +40,7 @@ func (e *Error) Error() string {
 		b.WriteString(e.Path)
 		b.WriteString(": ")
 	}
-	b.WriteString(e.Msg)
+	b.WriteString(errtext.Escape(e.Msg))
 	if e.Hint != "" {
 		b.WriteString(" (" + e.Hint + ")")
 	}

@@ -203,6 +203,8 @@ func headerLines(rep Report) []string {
 // rankByText explains a ranking key in words.
 func rankByText(key string) string {
 	switch key {
+	case "rate":
+		return "rate (predicted log10 k relative to cyclopentadiene + acrylonitrile, fastest first; fitted model, see validate)"
 	case "normal_gap":
 		return "normal_gap (LUMO(dienophile) − HOMO(diene), smallest first)"
 	case "gap":

@@ -1,0 +1,202 @@
+package rate
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+
+	"cyclopair/fmo"
+	"cyclopair/presets"
+
+	"go.yaml.in/yaml/v3"
+)
+
+// Reference is the one reaction every predicted rate is relative to.
+type Reference struct {
+	Name       string `yaml:"name"`
+	Diene      string `yaml:"diene"`
+	Dienophile string `yaml:"dienophile"`
+	Conditions string `yaml:"conditions"`
+	Source     string `yaml:"source"`
+}
+
+// DefaultReference: cyclopentadiene + acrylonitrile in 1,4-dioxane at 20 °C, k2 about
+// 1.0e-5 M^-1 s^-1 (J. Sauer, H. Wiest, A. Mielert, Chem. Ber. 1964, 97, 3183; from memory),
+// the reference row of the series sauer1964-cpd.
+var DefaultReference = Reference{
+	Name:       "cyclopentadiene + acrylonitrile (1,4-dioxane, 20 °C)",
+	Diene:      "C1=CCC=C1",
+	Dienophile: "C=CC#N",
+	Conditions: "1,4-dioxane, 20 °C, k2 about 1.0e-5 M^-1 s^-1",
+	Source:     "J. Sauer, H. Wiest, A. Mielert, Chem. Ber. 1964, 97, 3183 (from memory)",
+}
+
+// Model is a fitted rate and ratio model (see the package doc for the formulas).
+type Model struct {
+	Reference  Reference
+	RefVector  [NumTerms]float64 // descriptor vector of the reference pair
+	Coef       [NumTerms]float64
+	Fitted     [NumTerms]bool
+	Cov        [NumTerms][NumTerms]float64 // of the fitted coefficients
+	S2         float64                     // residual variance factor χ²/dof
+	DOF, Rows  int
+	ModelError float64 // τ, log10
+	T          float64 // Student t quantile of IntervalLevel at DOF
+	Series     []SeriesStat
+	CVRMSE     float64 // leave-one-series-out RMSE over the rows of every fitted series, log10
+	GapCVRMSE  float64 // the same for a gap-only line
+	Checksum   string  // presets.KineticsChecksum of the data it was fitted on ("" for user data)
+	Ratios     RatioModel
+}
+
+// Estimate is a predicted rate: log10 of k relative to the reference reaction and its
+// prediction interval.
+type Estimate struct {
+	Log10KRel float64
+	Lo, Hi    float64
+}
+
+// Predict returns the estimate for descriptors d.
+func (m *Model) Predict(d *Descriptors) Estimate {
+	v := d.Vector()
+	var g [NumTerms]float64
+	for j := range g {
+		g[j] = v[j] - m.RefVector[j]
+	}
+	y := dot(m.Coef, g)
+	q := 0.0
+	for i := range NumTerms {
+		for k := range NumTerms {
+			q += g[i] * m.Cov[i][k] * g[k]
+		}
+	}
+	half := m.T * math.Sqrt(m.S2*m.ModelError*m.ModelError+q)
+	return Estimate{Log10KRel: y, Lo: y - half, Hi: y + half}
+}
+
+// Quick is Predict's central value for a QuickScore result, written out for the screening
+// loop (no interval): Σ_j coef_j·(x_j − ref_j). It is linear in −gap, the frontier term,
+// −localisation (per-partner additive: loc = loc_diene + loc_dienophile), and the diene's
+// s-cis and reach terms (per-partner), so an upper bound over a set of partners follows
+// from bounds on each quantity (see the package doc).
+func (m *Model) Quick(q *fmo.Quick, conf *Conformation) float64 {
+	c := &m.Coef
+	r := &m.RefVector
+	return c[0]*(-min(q.GapNormal, q.GapInverse)-r[0]) + c[1]*(q.Frontier-r[1]) +
+		c[2]*(-q.Localization-r[2]) + c[3]*(conf.SCis-r[3]) + c[4]*(-conf.Reach-r[4])
+}
+
+// Annotate fills p.Rate, the orientation fractions and p.EndoFraction at temperature tempC
+// (°C). diene is the 4π partner's molecule.
+func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
+	d, err := FromPair(p, diene.Mol)
+	if err != nil {
+		return err
+	}
+	e := m.Predict(&d)
+	p.Rate = &fmo.RateEstimate{Log10KRel: round6(e.Log10KRel), Interval: [2]float64{round6(e.Lo), round6(e.Hi)},
+		Reference: m.Reference.Name}
+	m.Ratios.annotate(p, tempC)
+	return nil
+}
+
+func round6(x float64) float64 { return math.Round(x*1e6) / 1e6 }
+
+// ----------------------------------------------------------------------------- model files
+
+type fileTerm struct {
+	Name        string  `yaml:"name"`
+	Coefficient float64 `yaml:"coefficient"`
+	Fitted      bool    `yaml:"fitted"`
+	Reference   float64 `yaml:"reference_value"`
+	Meaning     string  `yaml:"meaning"`
+}
+
+type fileModel struct {
+	Format           string       `yaml:"format"`
+	Reference        Reference    `yaml:"reference"`
+	KineticsChecksum string       `yaml:"kinetics_checksum"`
+	Terms            []fileTerm   `yaml:"terms"`
+	Covariance       [][]float64  `yaml:"covariance"`
+	ResidualFactor   float64      `yaml:"residual_factor"`
+	ModelError       float64      `yaml:"model_error_log10"`
+	Rows             int          `yaml:"difference_rows"`
+	DOF              int          `yaml:"dof"`
+	TQuantile        float64      `yaml:"t_quantile"`
+	IntervalLevel    float64      `yaml:"interval_level"`
+	CVRMSE           float64      `yaml:"cv_rmse_log10"`
+	GapCVRMSE        float64      `yaml:"gap_baseline_cv_rmse_log10"`
+	Series           []SeriesStat `yaml:"series"`
+	Ratios           RatioModel   `yaml:"ratios"`
+}
+
+// FileFormat names the model-file format.
+const FileFormat = "cyclopair-rate-model/1"
+
+// Marshal writes the model as YAML, with header the comment lines put first.
+func (m *Model) Marshal(header string) ([]byte, error) {
+	f := fileModel{Format: FileFormat, Reference: m.Reference, KineticsChecksum: m.Checksum,
+		ResidualFactor: r(m.S2), ModelError: m.ModelError, Rows: m.Rows, DOF: m.DOF, TQuantile: r(m.T),
+		IntervalLevel: IntervalLevel, CVRMSE: r(m.CVRMSE), GapCVRMSE: r(m.GapCVRMSE), Ratios: m.Ratios}
+	for j := range NumTerms {
+		f.Terms = append(f.Terms, fileTerm{Name: Names[j], Coefficient: r(m.Coef[j]), Fitted: m.Fitted[j],
+			Reference: r(m.RefVector[j]), Meaning: Explain[j]})
+		row := make([]float64, NumTerms)
+		for k := range NumTerms {
+			row[k] = r(m.Cov[j][k])
+		}
+		f.Covariance = append(f.Covariance, row)
+	}
+	for _, s := range m.Series {
+		s.Spearman, s.RMSE, s.GapRho, s.GapRMSE = r(s.Spearman), r(s.RMSE), r(s.GapRho), r(s.GapRMSE)
+		f.Series = append(f.Series, s)
+	}
+	var b bytes.Buffer
+	b.WriteString(header)
+	enc := yaml.NewEncoder(&b)
+	enc.SetIndent(2)
+	if err := enc.Encode(&f); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
+}
+
+func r(x float64) float64 { return math.Round(x*1e6) / 1e6 }
+
+// ParseModel reads a model file written by Marshal (strict: unknown keys are errors).
+func ParseModel(data []byte, name string) (*Model, error) {
+	var f fileModel
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	dec.KnownFields(true)
+	if err := dec.Decode(&f); err != nil {
+		return nil, fmt.Errorf("%s: %v (a rate model file written by cyclopair calibrate --rates)", name, err)
+	}
+	if f.Format != FileFormat {
+		return nil, fmt.Errorf("%s: format %q, want %q", name, f.Format, FileFormat)
+	}
+	if len(f.Terms) != NumTerms || len(f.Covariance) != NumTerms {
+		return nil, fmt.Errorf("%s: %d terms, want %d (%v)", name, len(f.Terms), NumTerms, Names)
+	}
+	m := &Model{Reference: f.Reference, Checksum: f.KineticsChecksum, S2: f.ResidualFactor, ModelError: f.ModelError,
+		Rows: f.Rows, DOF: f.DOF, T: f.TQuantile, CVRMSE: f.CVRMSE, GapCVRMSE: f.GapCVRMSE, Series: f.Series, Ratios: f.Ratios}
+	for j, t := range f.Terms {
+		if t.Name != Names[j] {
+			return nil, fmt.Errorf("%s: term %d is %q, want %q", name, j+1, t.Name, Names[j])
+		}
+		m.Coef[j], m.Fitted[j], m.RefVector[j] = t.Coefficient, t.Fitted, t.Reference
+		if len(f.Covariance[j]) != NumTerms {
+			return nil, fmt.Errorf("%s: covariance row %d has %d values, want %d", name, j+1, len(f.Covariance[j]), NumTerms)
+		}
+		copy(m.Cov[j][:], f.Covariance[j])
+	}
+	if m.T <= 0 || m.S2 < 0 {
+		return nil, fmt.Errorf("%s: t_quantile must be positive and residual_factor not negative", name)
+	}
+	return m, nil
+}
+
+// Default returns the bundled model (presets/kinetics/model.yaml), fitted on the bundled
+// kinetics set.
+func Default() (*Model, error) {
+	return ParseModel(presets.RateModelYAML(), presets.RateModelName)
+}
