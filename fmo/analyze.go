@@ -49,7 +49,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    string // canonical SMILES, to tell identical adducts apart from different ones
+		product    string // canonical SMILES: one row per distinct adduct, and the margins
 	}
 	var cands []cand
 	for di, du := range diene.Units {
@@ -95,8 +95,6 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 					Kind:            cycloKind(du),
 					RingSize:        du.RingSize(),
 				}
-				endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && s.frontier > 0 && s.endo/s.frontier >= opts.EndoWeak
-				c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, key, endoPref)
 				cands = append(cands, c)
 			}
 		}
@@ -154,10 +152,20 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			continue
 		}
 		listed[cands[i].product] = true
-		pair.Orientations = append(pair.Orientations, cands[i].o)
+		// stereo forms and follow-up steps only for the listed rows
+		c := &cands[i]
+		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
+		pm, bonds := buildProduct(diene, dienophile, c.di, c.ei, c.or)
+		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
+		c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, c.product, endoPref)
+		pair.Orientations = append(pair.Orientations, c.o)
 	}
 
-	// Margins.
+	// Margins. Canonical keys tell identical adducts apart from different ones. Every
+	// candidate has its key: the listing above keeps one row per distinct adduct (issue 9),
+	// which undoes the lazy keys of issue 14 (canonicalising every candidate is O(n² log n)
+	// each for n atoms, noticeable on long polyenes).
+	key := func(i int) string { return cands[i].product }
 	for _, c := range cands[1:] {
 		if c.di == best.di && c.ei == best.ei {
 			pair.RegioMargin = best.s.score - c.s.score
@@ -165,13 +173,14 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		}
 	}
 	var regioPartner string
-	for _, c := range cands {
+	for i, c := range cands {
 		if c.di == best.di && c.ei == best.ei && c.or != best.or {
-			regioPartner = c.product
+			regioPartner = key(i)
 		}
 	}
-	for _, c := range cands[1:] {
-		if (c.di != best.di || c.ei != best.ei) && c.product != best.product && c.product != regioPartner {
+	bestKey := key(0)
+	for i, c := range cands[1:] {
+		if (c.di != best.di || c.ei != best.ei) && key(i+1) != bestKey && key(i+1) != regioPartner {
 			pair.SiteMargin = best.s.score - c.s.score
 			break
 		}
@@ -188,7 +197,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	default:
 		pair.RegioConfidence = "no preference"
 	}
-	if best.product == regioPartner {
+	if bestKey == regioPartner {
 		pair.RegioConfidence = "no preference" // both orientations give the same adduct
 	}
 
@@ -249,7 +258,8 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 
 // ScoreFormula is the ranking formula, reported in every Pair.
 const ScoreFormula = "score = frontier_term + charge_term − localization_weight·localization − gap_weight·min(gap_normal, gap_inverse); " +
-	"frontier_term = Σ_pairings 2(γΣ_bonds c_r c_s)²/gap over the frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|)"
+	"frontier_term = Σ_pairings w_p·2(γΣ_bonds c_r c_s)²/gap over the reacting unit's frontier sets (first-order 2|γΣcc| when gap ≤ |γΣcc|); " +
+	"w_p = 1 for the smaller gap, max(0, 1 − |gap_normal − gap_inverse|/demand_threshold) for the other"
 
 // endoDistinct reports whether endo and exo approaches of the 2π unit differ at all: some
 // terminus must carry exactly one conjugated substituent (a one-electron π centre outside

@@ -60,7 +60,18 @@ func TestFollowUpSteps(t *testing.T) {
 		best := p.Orientations[0]
 		got := lostOf(best.FollowUp)
 		if c.diene == "c1cnncn1" {
-			// N₂ then pyrrolidine; the product is a methylpyridine (regiochemistry is not the point here)
+			// The follow-up rule at the C3/C6 site (atoms 1 and 4 of c1cnncn1), where
+			// 1,2,4-triazines react (Boger 1986): N₂ then pyrrolidine, giving a
+			// methylpyridine (regiochemistry is not the point here). Which site the ranking
+			// prefers is tested elsewhere; since the issue-9 site changes it is not C3/C6.
+			best = Orientation{}
+			for _, o := range p.Orientations {
+				if ts := []int{o.Bonds[0][0], o.Bonds[1][0]}; slices.Contains(ts, 1) && slices.Contains(ts, 4) {
+					best = o
+					break
+				}
+			}
+			got = lostOf(best.FollowUp)
 			if !slices.Equal(got, []string{"retro_diels_alder:N#N", "elimination:C1CCNC1"}) {
 				t.Errorf("%s + %s: steps %v; want N₂ then pyrrolidine", c.diene, c.dienophile, got)
 			}

@@ -93,7 +93,13 @@ type Options struct {
 
 	// DemandThreshold (|β|): |gap_normal − gap_inverse| below it is "neutral" (Sustmann
 	// type II). Default 0.15 |β| (about 0.4 eV with a 2.5–3 eV β; judgement, no source).
+	// It also weighs the two frontier pairings in the orbital term (see pairingWeights): the
+	// minor pairing (larger gap) counts with weight 1 − Δ/DemandThreshold, Δ = |gap_normal −
+	// gap_inverse|, and not at all once the demand is clear (type I or III).
 	DemandThreshold float64
+	// BothPairings counts both frontier pairings with full weight whatever the demand (the
+	// plain second-order sum). Off by default: see pairingWeights.
+	BothPairings bool
 
 	// Regio confidence from the relative margin between the two orientations at the
 	// preferred site, margin / frontier term of the best: at least RegioClear is "clear",
@@ -170,7 +176,8 @@ func (o *Options) check() {
 
 func (o *Options) kernel() kernel {
 	k := kernel{gamma: o.FormingBeta, gammaS: o.SecondaryBeta, locWeight: o.LocalizationWeight,
-		g2: o.FormingBeta * o.FormingBeta, gapWeight: o.GapWeight, allOrbitals: o.AllOrbitals}
+		g2: o.FormingBeta * o.FormingBeta, gapWeight: o.GapWeight, allOrbitals: o.AllOrbitals,
+		demand: o.DemandThreshold, bothPairings: o.BothPairings}
 	if o.ChargeTerm && o.Dielectric > 0 && o.FormingDistance > 0 && o.BetaEV > 0 {
 		const coulombEVAngstrom = 14.3996 // e²/(4πε₀) in eV·Å (CODATA)
 		k.chargeCoef = coulombEVAngstrom / (o.Dielectric * o.FormingDistance) / o.BetaEV

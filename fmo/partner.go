@@ -3,6 +3,7 @@ package fmo
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/molecule"
@@ -34,6 +35,8 @@ type Partner struct {
 	// eHuckel is the Hückel π energy of Pi (|β|), the reference of the localisation
 	// energy under every method.
 	eHuckel float64
+	// freePi is the unactivated partner's π system (nil when not activated).
+	freePi *huckel.PiSystem
 }
 
 // slot layout of unitData: for a diene a,b,c,d; for a dipole a,b,c,- ; for a 2π unit
@@ -110,7 +113,7 @@ func (p *Partner) prepare(opts *Options) error {
 	p.sides = sides
 	p.data = make([]unitData, len(units))
 	for i, u := range units {
-		d, err := p.unitData(u)
+		d, err := p.unitData(u, i)
 		if err != nil {
 			return err
 		}
@@ -141,7 +144,70 @@ func fragmentFrontier(o *huckel.Orbitals, f int) (homo, lumo int) {
 	return homo, lumo
 }
 
-func (p *Partner) unitData(u Unit) (unitData, error) {
+// unitFrontier returns the frontier levels of a reacting unit with termini t0 and t1 in π
+// fragment f: the occupied and the empty level (first member of a degenerate set; -1 if
+// absent) that contribute most to the termini's superdelocalizability,
+//
+//	occupied: max over sets of  w/x,     empty: max over sets of  w/|x|,
+//	w = Σ_set (c_t0² + c_t1²),
+//
+// i.e. the level whose second-order interaction with a reagent level at α (the energy zero
+// of Hückel theory) is largest at the atoms that form the new bonds (K. Fukui, T. Yonezawa,
+// C. Nagata, J. Chem. Phys. 1957, 26, 831: superdelocalizability S_r = 2Σ_occ c_r²/x; from
+// memory). In a molecule whose top level sits on the unit this is the fragment's HOMO and
+// LUMO. When the top level lives elsewhere (the phenyl ring of N-phenylmaleimide or of a
+// cinnamoyl group, with little amplitude at the reacting C=C), or has a node at the termini
+// (the Hückel LUMO of 1,2,4,5-tetrazine at C3/C6), a level with its weight on the unit is
+// taken instead: the "frontier orbital effective for reaction" (R. R. da Silva,
+// T. C. Ramalho, J. M. Santos, J. D. Figueroa-Villar, J. Phys. Chem. A 2006, 110, 1031; from
+// memory) and Fleming's point that the orbital with the large coefficient at the reacting
+// atoms, not necessarily the molecule's HOMO, is the one that matters (I. Fleming, Molecular
+// Orbitals and Organic Chemical Reactions, Wiley, 2009; from memory). There is no threshold
+// to choose. An occupied level at or above α (x ≤ 0: anions, non-bonding levels) or an empty
+// level at or below it (x ≥ 0: cations) sits at the reference energy and is taken directly
+// (the highest such occupied, the lowest such empty level); ties go to the level nearer the
+// gap.
+func unitFrontier(o *huckel.Orbitals, f, t0, t1 int) (homo, lumo int) {
+	homo, lumo = -1, -1
+	bestH, bestL := -1.0, -1.0
+	// Levels are sorted by X descending and equal X by fragment, so the members of a
+	// degenerate set of one fragment are contiguous (huckel.Orbitals.Levels).
+	for i, next := 0, 0; i < len(o.Levels); i = next {
+		l := o.Levels[i]
+		next = i + 1
+		for next < len(o.Levels) && o.Levels[next].X == l.X && o.Levels[next].Fragment == l.Fragment {
+			next++
+		}
+		if l.Fragment != f {
+			continue
+		}
+		w := 0.0
+		for li := i; li < next; li++ {
+			c0, c1 := o.Coefficient(li, t0), o.Coefficient(li, t1)
+			w += c0*c0 + c1*c1
+		}
+		if l.Occupancy > 0 {
+			v := math.Inf(1)
+			if l.X > 0 {
+				v = w / l.X
+			}
+			if homo < 0 || v >= bestH { // X descending: a tie goes to the later, higher level
+				homo, bestH = i, v
+			}
+		} else {
+			v := math.Inf(1)
+			if l.X < 0 {
+				v = w / -l.X
+			}
+			if lumo < 0 || v > bestL { // a tie keeps the earlier, lower level
+				lumo, bestL = i, v
+			}
+		}
+	}
+	return homo, lumo
+}
+
+func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
 	var d unitData
 	for i := range d.slots {
 		d.slots[i] = -1
@@ -152,7 +218,8 @@ func (p *Partner) unitData(u Unit) (unitData, error) {
 		d.slots[3] = p.endoSubstituent(u, u.Atoms[1], u.Atoms[0])
 	}
 	frag := p.Pi.Centres[p.Pi.AtomCentre[u.Atoms[0]]].Fragment
-	h, l := fragmentFrontier(p.Orb, frag)
+	t0, t1 := u.Termini()
+	h, l := unitFrontier(p.Orb, frag, t0, t1)
 	d.homo = p.frontier(h, d.slots)
 	d.lumo = p.frontier(l, d.slots)
 	d.ok = h >= 0 && l >= 0
@@ -163,7 +230,7 @@ func (p *Partner) unitData(u Unit) (unitData, error) {
 			}
 		}
 	}
-	loc, err := p.localization(u)
+	loc, err := p.localization(u, p.sides[ui])
 	if err != nil {
 		return d, err
 	}
@@ -250,22 +317,24 @@ func (p *Partner) endoSubstituent(u Unit, x, y int) int {
 
 // localization is the π energy the partner loses when the unit's termini become sp3:
 //
-//	L = E_π(partner) − E_π(partner without the two termini)     (units of |β|, a cost)
+//	L = E_π(partner) − E_π(partner without the two termini) − Σ_termini Δh_t   (|β|, a cost)
 //
 // both from the same Hückel matrix (huckel.PiSystem.Without). The residual π system holds two
 // π electrons fewer than the partner (they go into the new σ bonds, counted at α like every
-// σ electron). For a 1,3-dipole the termini carry three π electrons (one is the anionic lone
-// pair); the third stays on the middle atom, which keeps a lone pair in the adduct (the N of
-// an isoxazolidine or triazoline). Residual centres keep their h values. A heteroatom
-// terminus thus costs its electronegativity h_r as well: the Hückel form of the stronger
-// π bond of C=O, C=N and C≡N that makes them poorer dienophiles than C=C.
+// σ electron, plus the activator's shift Δh_t of an activated terminus; see below). For a
+// 1,3-dipole the termini carry three π electrons (one is the anionic lone pair); the third
+// stays on the middle atom, which keeps a lone pair in the adduct (the N of an
+// isoxazolidine or triazoline). Residual centres keep their h values. A heteroatom terminus
+// thus costs its electronegativity h_r as well: the Hückel form of the stronger π bond of
+// C=O, C=N and C≡N that makes them poorer dienophiles than C=C. A ring of six π centres that
+// the reaction breaks pays its whole delocalisation energy (localizeBenzenoid).
 //
 // L is a Hückel quantity whatever method solved the partner's orbitals (Options.NewMethod):
 // the PPP total energy of the residue would depend on the core charges left behind by the
 // two sp3 termini and on a geometry the 2D layout does not give, so no PPP form of the
 // localisation energy is offered. Under PPP both terms come from Hückel solves of the same
 // PiSystem, so L is the same number under either method.
-func (p *Partner) localization(u Unit) (float64, error) {
+func (p *Partner) localization(u Unit, sd *side) (float64, error) {
 	t0, t1 := u.Termini()
 	c0, c1 := p.Pi.CentreOf(t0), p.Pi.CentreOf(t1)
 	removed := p.Pi.Centres[c0].Electrons + p.Pi.Centres[c1].Electrons
@@ -283,6 +352,7 @@ func (p *Partner) localization(u Unit) (float64, error) {
 			return 0, fmt.Errorf("%s: unit %s: cannot place %d π electrons of the termini", p.Name, u.Describe(p.Mol), extra)
 		}
 	}
+	localizeBenzenoid(p.Pi, rest, sd, t0, t1)
 	eRest := 0.0
 	if len(rest.Centres) > 0 {
 		o, err := huckel.Solve(rest)
@@ -291,7 +361,27 @@ func (p *Partner) localization(u Unit) (float64, error) {
 		}
 		eRest = o.PiEnergy
 	}
-	loc := p.eHuckel - eRest
+	// An activator bound at a terminus (the Lewis acid on a carbonyl O, the proton of an
+	// oxocarbenium ion) stays bound in the adduct, so the shift it gives that atom's Coulomb
+	// integral, Δh = h(activated) − h(free), is counted for the electron the terminus puts
+	// into its new σ bond as well: that electron sits at α + Δh·β, not at α. Without this a
+	// Lewis acid (O=LA h 2.0 against 1.0 for a free carbonyl O) raised the C=O localisation
+	// of benzaldehyde by 1.68 |β| and made the activated C=O less reactive, against experiment
+	// (S. Danishefsky, J. F. Kerwin, S. Kobayashi, J. Am. Chem. Soc. 1982, 104, 358). The free
+	// atom's own h stays a cost: crediting it too (σ electron at α + h·β) makes an isolated
+	// C=O cost √(h² + 4k²) ≈ 2.2 |β| against 2 for C=C, far below the real gap between the
+	// two π bonds (about 93 against 65 kcal/mol; from memory), and on the check set turns
+	// quinones into hetero-dienophiles at C=O (measured: site-03, site-04, site-06, endo-04
+	// and 2-methoxy-p-benzoquinone + butadiene become misses).
+	credit := 0.0
+	if p.freePi != nil {
+		for _, t := range [2]int{t0, t1} {
+			if fc := p.freePi.CentreOf(t); fc >= 0 {
+				credit += p.Pi.Centres[p.Pi.CentreOf(t)].H - p.freePi.Centres[fc].H
+			}
+		}
+	}
+	loc := p.eHuckel - eRest - credit
 	if math.IsNaN(loc) {
 		return 0, fmt.Errorf("%s: localisation at %s is not a number", p.Name, u.Describe(p.Mol))
 	}
@@ -336,10 +426,95 @@ func (p *Partner) WithActivation(mode string, act *ActivateOptions, opts *Option
 		oc.Params = LewisParams(opts.Params, act.LewisStrength)
 		o = &oc
 	}
-	q := &Partner{Name: p.Name, SMILES: p.SMILES, Role: p.Role, Mol: p.Mol, Activation: mode, Active: am}
+	q := &Partner{Name: p.Name, SMILES: p.SMILES, Role: p.Role, Mol: p.Mol, Activation: mode, Active: am, freePi: p.Pi}
 	q.Warnings = append(q.Warnings, warns...)
 	if err := q.prepare(o); err != nil {
 		return nil, err
 	}
 	return q, nil
+}
+
+// localizeBenzenoid removes from rest (the π system left when the unit's termini t0, t1
+// become sp3) the delocalisation across the remnant of every benzenoid ring the reaction
+// breaks: a six-membered ring of one-electron π centres that holds a terminus and shares no
+// atom with another such ring. In that ring the π bonds that are single in the adduct's
+// Kekulé structure sd get k = 0, so the ring's remaining double bonds count as localised
+// (each still conjugated with its substituents). An arene C=C as a 2π unit then pays the
+// ring's whole delocalisation energy (benzene: L = 4 |β| instead of the Hückel 3.53, which
+// credits the cyclohexadiene left behind with the delocalisation energy of a butadiene, 0.47
+// |β|): acyclic conjugation carries next to no π stabilisation against which aromaticity is
+// measured (M. J. S. Dewar, C. de Llano, J. Am. Chem. Soc. 1969, 91, 789; B. A. Hess,
+// L. J. Schaad, J. Am. Chem. Soc. 1971, 93, 305). A benzo ring reacting as a 4π unit across
+// its para positions (benzene: two isolated C=C left) is unchanged. Fused rings (naphthalene,
+// anthracene) keep the plain Hückel residual: their remnant atoms stay in an intact ring.
+func localizeBenzenoid(pi, rest *huckel.PiSystem, sd *side, t0, t1 int) {
+	if sd == nil {
+		return
+	}
+	rings := benzenoidRings(pi)
+	for ri, r := range rings {
+		if !slices.Contains(r[:], pi.CentreOf(t0)) && !slices.Contains(r[:], pi.CentreOf(t1)) {
+			continue
+		}
+		fused := false
+		for rj, q := range rings {
+			if rj != ri && slices.ContainsFunc(q[:], func(c int) bool { return slices.Contains(r[:], c) }) {
+				fused = true
+			}
+		}
+		if fused {
+			continue
+		}
+		in := func(a int) bool {
+			c := pi.CentreOf(a)
+			return c >= 0 && slices.Contains(r[:], c) && a != t0 && a != t1
+		}
+		for bi := range rest.Bonds {
+			b := &rest.Bonds[bi]
+			ai, aj := rest.Centres[b.I].Atom, rest.Centres[b.J].Atom
+			if in(ai) && in(aj) && b.Bond >= 0 && b.Bond < len(sd.orders) && sd.orders[b.Bond] == 1 {
+				b.K = 0
+			}
+		}
+	}
+}
+
+// benzenoidRings returns every six-membered ring of one-electron π centres joined by π
+// bonds, as sorted centre indices, each once.
+func benzenoidRings(pi *huckel.PiSystem) [][6]int {
+	nb := piNeighbours(pi)
+	var out [][6]int
+	var path [6]int
+	var walk func(depth int)
+	walk = func(depth int) {
+		cur := path[depth-1]
+		for _, nx := range nb[cur] {
+			if !oneElectron(pi.Centres[nx]) {
+				continue
+			}
+			if depth == 6 {
+				if nx == path[0] {
+					r := path
+					slices.Sort(r[:])
+					if !slices.Contains(out, r) {
+						out = append(out, r)
+					}
+				}
+				continue
+			}
+			if nx <= path[0] || slices.Contains(path[:depth], nx) {
+				continue // rings are found from their smallest centre only
+			}
+			path[depth] = nx
+			walk(depth + 1)
+		}
+	}
+	for c := range pi.Centres {
+		if !oneElectron(pi.Centres[c]) {
+			continue
+		}
+		path[0] = c
+		walk(1)
+	}
+	return out
 }

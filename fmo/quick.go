@@ -99,7 +99,8 @@ func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick 
 	sI := k.g2 * (dd.l[0]*ed.h[x] + dd.l[1]*ed.h[y] + 2*dd.l[2]*ed.h[2])
 	_, f1 := term(sN, r.GapNormal)
 	_, f2 := term(sI, r.GapInverse)
-	r.FirstOrder = f1 || f2
+	wN, wI := k.pairingWeights(r.GapNormal, r.GapInverse)
+	r.FirstOrder = (f1 && wN > 0) || (f2 && wI > 0)
 	if k.allOrbitals {
 		s0, s1 := k.scorePair(dd, ed)
 		r.FirstOrder = s0.firstOrder || s1.firstOrder

@@ -32,6 +32,45 @@ type kernel struct {
 	g2                                   float64 // γ²
 	gapWeight                            float64 // w in −w·min(gap_normal, gap_inverse)
 	allOrbitals                          bool    // Options.AllOrbitals
+	demand                               float64 // Options.DemandThreshold, for pairingWeights
+	bothPairings                         bool    // Options.BothPairings
+}
+
+// pairingWeights returns the weights of the normal (HOMO(diene)–LUMO(dienophile)) and inverse
+// pairings in the orbital term. Where one gap is clearly the smaller (type I or III, the gaps
+// differ by at least Options.DemandThreshold) only that pairing counts; in the neutral band
+// (type II) the minor pairing fades in linearly, to full weight at equal gaps, so the score
+// stays continuous in the gaps:
+//
+//	w_minor = max(0, 1 − |gap_normal − gap_inverse| / DemandThreshold),  w_major = 1
+//
+// This is how the frontier-orbital treatment of cycloadditions is applied in practice: in
+// type I and III reactions the regiochemistry and reactivity follow the coefficients of the
+// dominant interaction alone, and both interactions are considered only when neither
+// dominates (K. N. Houk, Acc. Chem. Res. 1975, 8, 361; R. Sustmann, Pure Appl. Chem. 1974, 40,
+// 569). Summing the minor pairing at full weight let a pairing with four times the gap decide
+// a site (2-methoxy- and 2-methyl-p-benzoquinone with butadiene: the quinone HOMO sits on the
+// substituted C=C, the normal-demand LUMO term prefers the unsubstituted one). The ramp
+// shape is a judgement (no source); its only constant is the demand threshold.
+func (k *kernel) pairingWeights(gN, gI float64) (wN, wI float64) {
+	if k.bothPairings {
+		return 1, 1
+	}
+	d := gI - gN // > 0: normal demand
+	if k.demand <= 0 {
+		switch {
+		case d > 0:
+			return 1, 0
+		case d < 0:
+			return 0, 1
+		}
+		return 1, 1
+	}
+	minor := max(0, 1-math.Abs(d)/k.demand)
+	if d >= 0 {
+		return 1, minor
+	}
+	return minor, 1
 }
 
 // orientScore is the scored form of one orientation.
@@ -124,8 +163,9 @@ func (k *kernel) scores(d, e *fastUnit) (sc0, sc1 float64) {
 		i1, _ = term(k.g2*(d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI), gI)
 	}
 	pen := k.locWeight*(d.loc+e.loc) + k.gapWeight*min(gN, gI)
-	sc0 = n0 + i0 - pen
-	sc1 = n1 + i1 - pen
+	wN, wI := k.pairingWeights(gN, gI)
+	sc0 = wN*n0 + wI*i0 - pen
+	sc1 = wN*n1 + wI*i1 - pen
 	if k.chargeCoef != 0 {
 		sc0 -= k.chargeCoef * (d.q0*e.q0 + d.q1*e.q1)
 		sc1 -= k.chargeCoef * (d.q0*e.q1 + d.q1*e.q0)
@@ -141,12 +181,15 @@ func (k *kernel) scorePair(d, e *fastUnit) (s0, s1 orientScore) {
 	cN := 2 * d.h[2] * e.l[2]
 	cI := 2 * d.l[2] * e.h[2]
 	loc := d.loc + e.loc
+	wN, wI := k.pairingWeights(gN, gI)
 	fill := func(r *orientScore, sN, sI, qx, qy float64) {
 		var f1, f2 bool
 		r.gapN, r.gapI = gN, gI
 		r.normal, f1 = term(g2*sN, gN)
 		r.inverse, f2 = term(g2*sI, gI)
-		r.firstOrder = f1 || f2
+		r.normal *= wN
+		r.inverse *= wI
+		r.firstOrder = (f1 && wN > 0) || (f2 && wI > 0)
 		r.frontier = r.normal + r.inverse
 		if k.chargeCoef != 0 {
 			r.charge = -k.chargeCoef * (d.q0*qx + d.q1*qy)
@@ -163,9 +206,9 @@ func (k *kernel) scorePair(d, e *fastUnit) (s0, s1 orientScore) {
 			r    *orientScore
 			n, i float64
 		}{{&s0, n0, i0}, {&s1, n1, i1}} {
-			x.r.normal, x.r.inverse = x.n, x.i
-			x.r.frontier = x.n + x.i
-			x.r.firstOrder = fn || fi
+			x.r.normal, x.r.inverse = wN*x.n, wI*x.i
+			x.r.frontier = x.r.normal + x.r.inverse
+			x.r.firstOrder = (fn && wN > 0) || (fi && wI > 0)
 			x.r.stab = x.r.frontier + x.r.charge
 		}
 	}

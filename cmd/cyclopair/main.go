@@ -2,8 +2,15 @@
 // See README.md for the job it does and how far its answers can be trusted.
 package main
 
-import "os"
+import (
+	"io"
+	"os"
+)
 
 func main() {
-	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+	var stdout io.Writer = os.Stdout
+	if stdoutClosed() {
+		stdout = closedWriter{}
+	}
+	os.Exit(run(os.Args[1:], os.Stdin, stdout, os.Stderr))
 }

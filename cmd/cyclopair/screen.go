@@ -202,15 +202,21 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		return &inputError{err}
 	}
 	lib := cfg.Library
-	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	if cfg.RateModel, err = loadRateModel(o.rateModel); err != nil {
 		return err
 	}
 	cfg.TemperatureC = o.temperature
+	// From here on a signal stops the work and the rows already complete are flushed.
+	s.cancellable.Store(true)
+	defer s.cancellable.Store(false)
+	prepProg := newProgress(s.rawErr, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
-		return fmt.Errorf("interrupted while preparing molecules: %w", err)
+		if ctx.Err() != nil {
+			return interrupted(ctx, "stopped while preparing molecules, no rows written")
+		}
+		return fmt.Errorf("preparing molecules: %w", err)
 	}
 	failures := append([]error(nil), cfg.Bad...)
 	for _, f := range prep.Failures {
@@ -263,7 +269,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	if cfg.Top == 0 && hi-lo > 100_000 {
 		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
 	}
-	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
+	prog := newProgress(s.rawErr, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
 	so := cfg.ScreenOptions()
@@ -271,7 +277,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	so.Selected = func(n int64) {
 		prog.Stop()
 		prog = nil
-		rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
+		rowProg = newProgress(s.rawErr, s.errIsTerminal && n >= 200, "analyse", n)
 	}
 	st, runErr := prep.Screen(ctx, so, func(r screen.ScreenRow) error {
 		rowProg.Add(1)
@@ -291,7 +297,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	printFailures(s, failures)
 	if runErr != nil {
 		if errors.Is(runErr, context.Canceled) {
-			return fmt.Errorf("interrupted: %d rows written before the stop", st.Shown)
+			return interrupted(ctx, fmt.Sprintf("%d complete rows written before the stop", st.Shown))
 		}
 		return runErr
 	}

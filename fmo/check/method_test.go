@@ -13,12 +13,12 @@ import (
 // TestValidatePPP records the bundled check set with PPP-SCF orbitals (Options.NewMethod,
 // eV by Koopmans' theorem) beside the Hückel default, per category, and the cases where
 // the two methods differ. This is the measurement that keeps Hückel the default
-// (README, "π method"): PPP gains a regio case (regio-15, the 1-acceptor diene) and a
-// site case (site-02, methyl-p-benzoquinone) but loses a regio case (regio-22, nitrone +
-// styrene, where the SCF moves the nitrone HOMO further onto O) and a demand case
-// (demand-05, phenyl azide + styrene: PPP's Koopmans gaps are about three times wider in
+// (README, "π method"). With the site-specific frontier levels and pairing weights the
+// regio cases agree (22 of 25 each); PPP gains site-06 (a Hückel known miss) but loses
+// site-07 (Danishefsky's diene + benzaldehyde with a Lewis acid); why each flips has not
+// been examined yet. PPP also loses demand-05 (phenyl azide + styrene: PPP's Koopmans gaps are about three times wider in
 // |β₀| than Hückel gaps, and the 0.15 |β| neutral band no longer covers the 0.6 |β₀|
-// difference). Totals are equal (37 of 46); the rate series is ranked worse (ρ 0.77
+// difference). Totals: Hückel 39 of 48, PPP 38 of 48; the rate series is ranked worse (ρ 0.77
 // against 0.81). The test fails when any of these figures moves, so the README is kept
 // in step.
 func TestValidatePPP(t *testing.T) {
@@ -40,7 +40,7 @@ func TestValidatePPP(t *testing.T) {
 		t.Fatalf("report methods %q, %q", prep.Method, hrep.Method)
 	}
 	want := map[string][2]int{ // category: {Hückel hits, PPP hits}
-		CategoryRegio: {21, 21}, CategorySite: {5, 6}, CategoryEndo: {5, 5}, CategoryDemand: {6, 5},
+		CategoryRegio: {22, 22}, CategorySite: {6, 6}, CategoryEndo: {5, 5}, CategoryDemand: {6, 5},
 	}
 	for i, hc := range hrep.Categories {
 		pc := prep.Categories[i]
@@ -58,7 +58,7 @@ func TestValidatePPP(t *testing.T) {
 			differ = append(differ, hc.ID)
 		}
 	}
-	if want := []string{"regio-15", "regio-22", "site-02", "demand-05"}; !slices.Equal(differ, want) {
+	if want := []string{"site-06", "site-07", "demand-05"}; !slices.Equal(differ, want) {
 		t.Errorf("cases where the methods differ: %v, recorded %v", differ, want)
 	}
 	for _, s := range prep.Series {

@@ -75,44 +75,54 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		subs = append(subs, s)
 	}
 	if isCSV {
-		cr := csv.NewReader(bytes.NewReader(data))
-		cr.FieldsPerRecord = -1
-		cr.Comment = '#'
-		cr.TrimLeadingSpace = true
+		// One record per line: a malformed line (an unterminated quote, a stray quote) is
+		// listed with its line and the reader goes on at the next line, so one bad quote
+		// cannot swallow the rows after it. Quoted fields therefore cannot span lines
+		// (a name or a SMILES never holds a line break).
 		first := true
-		for {
-			rec, err := cr.Read()
-			if err == io.EOF {
-				break
+		lineNo := 0
+		sc := bufio.NewScanner(bytes.NewReader(data))
+		sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
+		for sc.Scan() {
+			lineNo++
+			raw := sc.Text()
+			if t := strings.TrimSpace(raw); t == "" || strings.HasPrefix(t, "#") {
+				continue
 			}
+			cr := csv.NewReader(strings.NewReader(raw))
+			cr.FieldsPerRecord = -1
+			cr.TrimLeadingSpace = true
+			rec, err := cr.Read()
 			if err != nil {
+				col := 1
 				var pe *csv.ParseError
 				if errors.As(err, &pe) {
-					bad = append(bad, &yamlfile.Error{File: name, Line: pe.Line, Col: pe.Column, Msg: "CSV: " + pe.Err.Error(),
-						Hint: "quote fields that contain commas or quotes", Err: ErrFileSyntax, Cause: err})
-					if len(bad) > 1000 {
-						return subs, bad, nil
-					}
-					continue
+					col = pe.Column
+					err = pe.Err
 				}
-				return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: "CSV: " + err.Error() + "; row skipped",
+					Hint: "quote fields that contain commas or quotes; a quoted field ends on its line", Err: ErrFileSyntax})
+				if len(bad) > 1000 {
+					return subs, bad, nil
+				}
+				continue
 			}
-			line, col := cr.FieldPos(0) // valid only for a record read without error
+			_, col := cr.FieldPos(0)
 			if first && len(rec) >= 2 && strings.EqualFold(strings.TrimSpace(rec[0]), "name") && strings.EqualFold(strings.TrimSpace(rec[1]), "smiles") {
 				first = false
 				continue
 			}
 			first = false
-			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
-				continue
-			}
 			if len(rec) != 2 {
-				bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
 					Err: ErrBadValue})
 				continue
 			}
 			_, scol := cr.FieldPos(1)
-			add(line, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]))
+			add(lineNo, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]))
+		}
+		if err := sc.Err(); err != nil {
+			return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 		}
 		return subs, bad, nil
 	}

@@ -108,13 +108,13 @@ type Writer interface {
 func New(f Format, w io.Writer, rep Report, lay Layout) (Writer, error) {
 	switch f {
 	case Table:
-		return newTable(w, rep, lay)
+		return newTable(TerminalSafe(w), rep, lay)
 	case CSV:
 		return newCSV(w, rep)
 	case JSON:
 		return newJSON(w, rep), nil
 	case Markdown:
-		return newMarkdown(w, rep)
+		return newMarkdown(TerminalSafe(w), rep)
 	}
 	return nil, fmt.Errorf("%w %q", ErrUnknownFormat, string(f))
 }
