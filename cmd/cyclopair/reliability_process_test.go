@@ -231,8 +231,9 @@ func TestFailedOutputIsAnError(t *testing.T) {
 	}
 }
 
-// TestClosedOrFullStdoutProcess runs the real binary with standard output closed (>&-) and
-// on /dev/full: one stderr line, exit 2. A write-only /dev/null stays a success.
+// TestClosedOrFullStdoutProcess runs the real binary on /dev/full: one stderr line, exit 2.
+// /dev/null stays a success. A stdout closed at start (>&-) is not tested: the Go runtime
+// reopens it as /dev/null (see main.go), so it reads as the /dev/null case.
 func TestClosedOrFullStdoutProcess(t *testing.T) {
 	bin := cliBinary(t)
 	dienes, dienophiles := bigLists(t, 3)
@@ -242,8 +243,6 @@ func TestClosedOrFullStdoutProcess(t *testing.T) {
 		code           int
 		want           string
 	}{
-		{"validate closed", ">&-", []string{"validate"}, 2, "cyclopair: standard output: closed when the program started"},
-		{"screen closed", ">&-", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 2, "cyclopair: standard output: closed when the program started"},
 		{"validate full", ">/dev/full", []string{"validate"}, 2, "cyclopair: standard output: write failed: no space left on device"},
 		{"screen full", ">/dev/full", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles, "--format", "csv"}, 2, "cyclopair: standard output: write failed: no space left on device"},
 		{"screen null", ">/dev/null", []string{"screen", "--dienes", dienes, "--dienophiles", dienophiles}, 0, ""},

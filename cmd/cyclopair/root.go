@@ -255,23 +255,11 @@ func (c *checkedWriter) Write(p []byte) (int, error) {
 	return n, err
 }
 
-// errStdoutClosed is the write error when the process was started with standard output
-// closed (see stdoutClosed).
-var errStdoutClosed = errors.New("standard output is closed")
-
-// closedWriter stands for a closed standard output: every write fails.
-type closedWriter struct{}
-
-func (closedWriter) Write([]byte) (int, error) { return 0, errStdoutClosed }
-
 // writeErrText is a write error without the file name Go adds ("write /dev/stdout: ...").
 func writeErrText(err error) string {
 	var pe *os.PathError
 	if errors.As(err, &pe) {
 		return "write failed: " + pe.Err.Error()
-	}
-	if errors.Is(err, errStdoutClosed) {
-		return "closed when the program started, nothing could be written"
 	}
 	return "write failed: " + err.Error()
 }
