@@ -136,7 +136,10 @@ func substituted(m *molecule.Molecule, unit []int) []int {
 func productForms(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Molecule, key string, endoPref bool) ([]StereoProduct, []FollowUpStep, string) {
 	en := stereoAdduct(dp, ep, du, eu, bonds, pm, true)
 	ex := stereoAdduct(dp, ep, du, eu, bonds, pm, false)
-	es, xs := relativeStereo(en), relativeStereo(ex)
+	es, xs := key, key
+	if hasChiral(en) || hasChiral(ex) {
+		es, xs = relativeStereo(en), relativeStereo(ex)
+	}
 	stereo := []StereoProduct{}
 	switch {
 	case es == xs && es != key:
@@ -174,6 +177,15 @@ func productForms(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Mo
 // a racemate is one compound. Adducts of achiral partners form as racemates, and the two
 // enantiomers of one relative configuration are one product.
 func relativeStereo(m *molecule.Molecule) string {
+	marks := 0
+	for _, at := range m.Atoms {
+		if at.Chiral != 0 {
+			marks++
+		}
+	}
+	if marks < 2 {
+		return smiles.Canonical(m) // nothing to write: skip the two stereo searches
+	}
 	a := smiles.CanonicalStereo(m)
 	mirror := m.Clone()
 	for i := range mirror.Atoms {
@@ -186,4 +198,16 @@ func relativeStereo(m *molecule.Molecule) string {
 		return smiles.Canonical(m) // one stereocentre: a racemate has no relative configuration
 	}
 	return a
+}
+
+// hasChiral reports whether any atom of m carries a configuration (at least two are needed
+// for a relative configuration).
+func hasChiral(m *molecule.Molecule) bool {
+	n := 0
+	for _, a := range m.Atoms {
+		if a.Chiral != 0 {
+			n++
+		}
+	}
+	return n >= 2
 }
