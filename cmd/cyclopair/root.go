@@ -160,6 +160,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newCalibrateCmd(s),
 		newValidateCmd(s),
 		newStarterCmd(s),
+		newServeCmd(s),
 	)
 	return root
 }

@@ -14,12 +14,9 @@ import (
 	"cyclopair/huckel/yamlfile"
 )
 
-// LoadList reads one side of a screen from a CSV file (name,smiles rows, an optional header
-// row "name,smiles") or a plain text file (one SMILES per line, optionally followed by
-// whitespace and a name; blank lines and lines starting with # are skipped). The format is
-// CSV when the first data line contains a comma. Each bad row is returned in bad; the good
-// rows load. err is non-nil only when the text cannot be read at all.
-func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Substrate, bad yamlfile.ErrorList, err error) {
+// loadText reads a SMILES line file, or a CSV or TSV file (FormatOf and Format document
+// the layouts). The format is chosen by the caller, never by sniffing the content.
+func loadText(r io.Reader, name string, format Format, pinMax int, maxBytes int64) (subs []Substrate, bad yamlfile.ErrorList, err error) {
 	data, err := readCapped(r, name, maxBytes)
 	if err != nil {
 		return nil, nil, err
@@ -28,20 +25,10 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		return nil, nil, e
 	}
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
-	isCSV := false
-	sc := bufio.NewScanner(bytes.NewReader(data))
-	sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
-	for sc.Scan() {
-		l := strings.TrimSpace(sc.Text())
-		if l == "" || strings.HasPrefix(l, "#") {
-			continue
-		}
-		isCSV = strings.Contains(l, ",")
-		break
-	}
+	isCSV := format == FormatCSV || format == FormatTSV
 	names := map[string]int{}
-	add := func(line, col int, nm, smi string) {
-		s := Substrate{Name: nm, SMILES: smi, File: name, Line: line, Col: col}
+	add := func(line, col int, nm, smi, notes string) {
+		s := Substrate{Name: nm, SMILES: smi, Notes: notes, File: name, Line: line, Col: col}
 		if s.Name == "" {
 			s.Name = smi
 		}
@@ -80,6 +67,7 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		// cannot swallow the rows after it. Quoted fields therefore cannot span lines
 		// (a name or a SMILES never holds a line break).
 		first := true
+		var cols *csvColumns // from the header row; nil: name,smiles records
 		lineNo := 0
 		sc := bufio.NewScanner(bytes.NewReader(data))
 		sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
@@ -92,6 +80,9 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 			cr := csv.NewReader(strings.NewReader(raw))
 			cr.FieldsPerRecord = -1
 			cr.TrimLeadingSpace = true
+			if format == FormatTSV {
+				cr.Comma = '\t'
+			}
 			rec, err := cr.Read()
 			if err != nil {
 				col := 1
@@ -108,18 +99,33 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 				continue
 			}
 			_, col := cr.FieldPos(0)
-			if first && len(rec) >= 2 && strings.EqualFold(strings.TrimSpace(rec[0]), "name") && strings.EqualFold(strings.TrimSpace(rec[1]), "smiles") {
+			if first {
 				first = false
+				if cols = headerColumns(rec); cols != nil {
+					continue
+				}
+			}
+			if cols != nil {
+				if len(rec) != len(cols.header) {
+					bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want %d (as in the header row)", len(rec), len(cols.header)),
+						Err: ErrBadValue})
+					continue
+				}
+				nm := ""
+				if cols.name >= 0 {
+					nm = strings.TrimSpace(rec[cols.name])
+				}
+				_, scol := cr.FieldPos(cols.smiles)
+				add(lineNo, scol, nm, strings.TrimSpace(rec[cols.smiles]), cols.notes(rec))
 				continue
 			}
-			first = false
 			if len(rec) != 2 {
 				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
-					Err: ErrBadValue})
+					Hint: "or start the file with a header row naming the smiles and name columns", Err: ErrBadValue})
 				continue
 			}
 			_, scol := cr.FieldPos(1)
-			add(lineNo, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]))
+			add(lineNo, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]), "")
 		}
 		if err := sc.Err(); err != nil {
 			return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
@@ -127,7 +133,7 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		return subs, bad, nil
 	}
 	lineNo := 0
-	sc = bufio.NewScanner(bytes.NewReader(data))
+	sc := bufio.NewScanner(bytes.NewReader(data))
 	sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
 	for sc.Scan() {
 		lineNo++
@@ -141,10 +147,70 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		if i := strings.IndexAny(smi, "\t"); i >= 0 {
 			smi, nm = smi[:i], smi[i+1:]+" "+nm
 		}
-		add(lineNo, col, strings.TrimSpace(nm), smi)
+		add(lineNo, col, strings.TrimSpace(nm), smi, "")
 	}
 	if err := sc.Err(); err != nil {
 		return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 	}
 	return subs, bad, nil
+}
+
+// csvColumns is the layout a CSV or TSV header row gives: the SMILES column, the name
+// column (-1 when absent) and the header of every column (the others become notes).
+type csvColumns struct {
+	header       []string
+	smiles, name int
+}
+
+// headerColumns reads rec as a header row: it is one when a field says "smiles" (any case).
+// It returns nil for a data row.
+func headerColumns(rec []string) *csvColumns {
+	c := &csvColumns{smiles: -1, name: -1}
+	for i, h := range rec {
+		h = strings.TrimSpace(h)
+		c.header = append(c.header, h)
+		switch strings.ToLower(h) {
+		case "smiles":
+			if c.smiles < 0 {
+				c.smiles = i
+			}
+		case "name":
+			if c.name < 0 {
+				c.name = i
+			}
+		}
+	}
+	if c.smiles < 0 {
+		return nil
+	}
+	return c
+}
+
+// notes joins the other columns of rec as "column: value; ..." (empty values left out),
+// at most maxNotesBytes long.
+func (c *csvColumns) notes(rec []string) string {
+	var b strings.Builder
+	for i, v := range rec {
+		v = strings.TrimSpace(v)
+		if i == c.smiles || i == c.name || v == "" {
+			continue
+		}
+		if b.Len() > 0 {
+			b.WriteString("; ")
+		}
+		b.WriteString(c.header[i] + ": " + v)
+	}
+	return clipNotes(b.String())
+}
+
+// clipNotes cuts notes to at most maxNotesBytes (at a character boundary, with "…").
+func clipNotes(n string) string {
+	if len(n) > maxNotesBytes {
+		cut := maxNotesBytes
+		for cut > 0 && !utf8.RuneStart(n[cut]) {
+			cut--
+		}
+		n = n[:cut] + "…"
+	}
+	return n
 }

@@ -30,6 +30,11 @@ func newCSV(w io.Writer, rep Report) (*csvWriter, error) {
 }
 
 func (c *csvWriter) WriteRow(r Row) error {
+	return c.w.Write(csvRecord(r))
+}
+
+// csvRecord is the row's fields in csvHeader order (the SD writer uses them too).
+func csvRecord(r Row) []string {
 	p := r.Pair
 	g := Controlling(p)
 	label, product, stab := "", "", ""
@@ -45,10 +50,7 @@ func (c *csvWriter) WriteRow(r Row) error {
 		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
 		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution,
 	}
-	if err := c.w.Write(rec); err != nil {
-		return err
-	}
-	return nil
+	return rec
 }
 
 func (c *csvWriter) Close(Summary) error {
