@@ -8,6 +8,13 @@ import (
 	"cyclopair/huckel/molecule"
 )
 
+// MaxListedOrientations caps the distinct adducts a Pair lists in Orientations (best
+// first); every candidate is still scored and counted in OrientationsChecked, and a warning
+// gives the number left out. Ordinary partners have far fewer (two units each give eight);
+// the cap keeps a long polyene from costing a canonical SMILES and stereo forms for each of
+// its thousands of candidate adducts (issue 14).
+const MaxListedOrientations = 64
+
 // Analyze analyses one 4π partner against one 2π partner over every pair of candidate
 // reacting units, both regio-orientations and both frontier pairings.
 //
@@ -51,6 +58,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
+		product    string // canonical SMILES, filled for the listed rows only
 	}
 	var cands []cand
 	for di, du := range diene.Units {
@@ -68,8 +76,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			for or := 0; or < 2; or++ {
 				s := s01[or]
 				s.endo = k.endoTerm(&dd.fast, &ed.fast, &diene.endo[di], &dienophile.endo[ei], or)
-				pm, bonds := buildProduct(diene, dienophile, di, ei, or)
-				smi := productSMILES(pm)
+				_, bonds := buildProduct(diene, dienophile, di, ei, or)
 				dAtoms := slices.Clone(du.Atoms)
 				eAtoms := []int{bonds[0][1], bonds[1][1]}
 				method := "second-order"
@@ -82,7 +89,6 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 					DieneAtoms:      dAtoms,
 					DienophileAtoms: eAtoms,
 					Bonds:           bonds,
-					Product:         smi,
 					Stabilization:   s.stab,
 					FrontierTerm:    s.frontier,
 					ChargeTerm:      s.charge,
@@ -143,21 +149,54 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	if dienophile.Activation != "none" && dienophile.Active != nil {
 		pair.ActivatedDienophile = productSMILES(dienophile.Active)
 	}
-	for i := range cands {
-		cands[i].o.Preferred = i == 0
-		pair.Orientations = append(pair.Orientations, cands[i].o)
-	}
-
-	// Margins. Canonical keys tell identical adducts apart from different ones; they are
-	// computed only for the candidates the margins look at (best, its other orientation, and
-	// those ahead of the first different adduct), and only where a graph invariant cannot
-	// already tell two adducts apart (productkey.go). Canonicalising every candidate cost
-	// O(n² log n) each for n atoms, O(n⁴ log n) per pair on a long polyene (issue 14).
+	// Canonical keys tell identical adducts apart from different ones. They are computed
+	// lazily, and only where a graph invariant cannot already tell two adducts apart
+	// (productkey.go): canonicalising every candidate costs O(n² log n) each for n atoms,
+	// O(n⁴ log n) per pair on a long polyene (issue 14).
 	keys := newProductKeys(len(cands), func(i int) *molecule.Molecule {
 		c := &cands[i]
 		pm, _ := buildProduct(diene, dienophile, c.di, c.ei, c.or)
 		return pm
 	})
+	// One row per distinct adduct: an orientation giving the same compound as a better one
+	// (the two orientations of a symmetric partner, symmetry-equivalent sites) is not listed
+	// again; margins below still look at every candidate. At most MaxListedOrientations
+	// rows are listed (each needs its canonical SMILES and stereo forms); the count of the
+	// rest is stated in a warning.
+	var listed []int
+	unlisted := 0
+	for i := range cands {
+		cands[i].o.Preferred = i == 0
+		dup := false
+		for _, j := range listed {
+			if keys.same(i, j) {
+				dup = true
+				break
+			}
+		}
+		if dup {
+			continue
+		}
+		if len(listed) == MaxListedOrientations {
+			unlisted++
+			continue
+		}
+		listed = append(listed, i)
+		// canonical product, stereo forms and follow-up steps only for the listed rows
+		c := &cands[i]
+		c.product = keys.canonical(i)
+		c.o.Product = c.product
+		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
+		pm, bonds := buildProduct(diene, dienophile, c.di, c.ei, c.or)
+		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
+		c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, c.product, endoPref)
+		pair.Orientations = append(pair.Orientations, c.o)
+	}
+	if unlisted > 0 {
+		pair.Warnings = append(pair.Warnings, fmt.Sprintf("%d further orientations (lower scores, other adducts) are not listed: only the best %d distinct adducts are", unlisted, MaxListedOrientations))
+	}
+
+	// Margins.
 	for _, c := range cands[1:] {
 		if c.di == best.di && c.ei == best.ei {
 			pair.RegioMargin = best.s.score - c.s.score

@@ -32,7 +32,7 @@ func ExampleAnalyze() {
 	fmt.Printf("gaps %.3f / %.3f |β|\n", pair.GapNormal.Beta, pair.GapInverse.Beta)
 	// Output:
 	// normal I true
-	// para C1C=C(C)CCC1C(=O)OC clear
+	// para COC(=O)C1CC=C(C)CC1 clear
 	// gaps 1.005 / 1.634 |β|
 }
 

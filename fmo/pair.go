@@ -69,7 +69,7 @@ type Orientation struct {
 	DieneAtoms      []int     `json:"diene_atoms"`      // reacting unit of the 4π partner, terminus first (4 atoms, or 3 for a dipole)
 	DienophileAtoms []int     `json:"dienophile_atoms"` // reacting 2π unit (2 atoms), in bond order: DieneAtoms[0] bonds to DienophileAtoms[0]
 	Bonds           [2][2]int `json:"bonds"`            // [[diene atom, dienophile atom], [diene atom, dienophile atom]]
-	Product         string    `json:"product"`          // SMILES of the cycloadduct built from the unactivated partners
+	Product         string    `json:"product"`          // canonical SMILES (smiles.Canonical, no configuration) of the primary cycloadduct built from the unactivated partners
 	Stabilization   float64   `json:"stabilization"`    // total perturbation energy, units of |β|, larger is better
 	FrontierTerm    float64   `json:"frontier_term"`    // orbital (Klopman–Salem second- or first-order) part, |β|
 	ChargeTerm      float64   `json:"charge_term"`      // Coulomb part, |β| (0 when switched off)
@@ -84,6 +84,19 @@ type Orientation struct {
 	InverseTerm float64 `json:"inverse_term"` // orbital term of the LUMO(diene)–HOMO(dienophile) pairing, |β|
 	Kind        string  `json:"kind"`         // "[4+2]" or "[3+2]"
 	RingSize    int     `json:"ring_size"`    // size of the new ring
+
+	// StereoProducts are the endo and exo primary adducts as canonical SMILES with their
+	// relative configuration (one entry "endo=exo" when both give one compound; empty when
+	// the adduct has no stereocentre the input fixes); the endo entry is Preferred when the
+	// secondary-orbital term favours it at this orientation.
+	StereoProducts []StereoProduct `json:"stereo_products"`
+	// FollowUp lists the steps from the primary adduct to the isolated product (loss of N₂,
+	// CO₂, an alcohol or amine), each with its literature basis; empty when none applies.
+	FollowUp []FollowUpStep `json:"follow_up"`
+	// IsolatedProduct is the canonical SMILES of the product after FollowUp (with the
+	// relative configuration where it survives), equal to the primary adduct when there are
+	// no follow-up steps.
+	IsolatedProduct string `json:"isolated_product"`
 	// Fraction is the predicted share of this orientation among the orientations at the
 	// preferred reacting units (0–1), from the fitted ratio model of fmo/rate; 0 at other
 	// units and when no model was applied.
@@ -126,7 +139,7 @@ type ActivationEffect struct {
 
 // Pair is the analysis of one 4π partner ("diene": diene, hetero-diene or 1,3-dipole) with one
 // 2π partner ("dienophile") under one activation. Field names in JSON are a contract that other
-// tools parse (../shared/DESIGN.md): keep them stable.
+// tools parse (DEVELOPERS.md, "Output contracts"): keep them stable.
 type Pair struct {
 	DieneName           string `json:"diene_name,omitempty"`
 	DienophileName      string `json:"dienophile_name,omitempty"`

@@ -1,6 +1,8 @@
 package fmo
 
 import (
+	"strings"
+
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
 )
@@ -51,7 +53,7 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	return m, bonds
 }
 
-// productSMILES writes the adduct for display (Kekulé form, atoms in partner order).
+// productSMILES writes a molecule for display (Kekulé form, atoms in partner order).
 func productSMILES(m *molecule.Molecule) string { return smiles.Write(m) }
 
 // productKey is the canonical SMILES of the adduct: equal for the two orientations of a
@@ -123,4 +125,89 @@ func substituted(m *molecule.Molecule, unit []int) []int {
 		}
 	}
 	return out
+}
+
+// productForms derives, for the adduct pm (canonical SMILES key) of units du and eu joined
+// by bonds, the endo and exo stereo adducts, the follow-up steps and the isolated product.
+// endoPref marks the endo adduct as preferred; the follow-up steps are those of the
+// preferred adduct (of the endo one when neither is preferred: the steps do not depend on
+// the configuration), and the isolated product keeps a configuration only where the two
+// approaches agree on it or one approach is preferred.
+func productForms(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Molecule, key string, endoPref bool) ([]StereoProduct, []FollowUpStep, string) {
+	en := stereoAdduct(dp, ep, du, eu, bonds, pm, true)
+	ex := stereoAdduct(dp, ep, du, eu, bonds, pm, false)
+	es, xs := key, key
+	if hasChiral(en) || hasChiral(ex) {
+		es, xs = relativeStereo(en), relativeStereo(ex)
+	}
+	stereo := []StereoProduct{}
+	switch {
+	case es == xs && es != key:
+		stereo = append(stereo, StereoProduct{Approach: ApproachSame, SMILES: es})
+	case es != xs:
+		stereo = append(stereo, StereoProduct{Approach: ApproachEndo, SMILES: es, Preferred: endoPref},
+			StereoProduct{Approach: ApproachExo, SMILES: xs})
+	}
+	primary := key // the isolated product when nothing follows: the preferred stereo adduct where known
+	for _, sp := range stereo {
+		if sp.Preferred || sp.Approach == ApproachSame {
+			primary = sp.SMILES
+		}
+	}
+	if du.Kind != UnitDiene {
+		return stereo, []FollowUpStep{}, primary
+	}
+	off := len(dp.Mol.Atoms)
+	ring := []int{du.Atoms[0], du.Atoms[1], du.Atoms[2], du.Atoms[3], bonds[1][1] + off, bonds[0][1] + off}
+	steps, endoFinal := followUp(en, ring)
+	if len(steps) == 0 {
+		return stereo, steps, primary
+	}
+	_, exoFinal := followUp(ex, ring)
+	iso := relativeStereo(endoFinal)
+	if xi := relativeStereo(exoFinal); xi != iso && !endoPref {
+		_, plain := followUp(pm, ring)
+		iso = smiles.Canonical(plain)
+	}
+	return stereo, steps, iso
+}
+
+// relativeStereo is the canonical SMILES of m's relative configuration: of the two mirror
+// images (every Atom.Chiral inverted or not) the smaller smiles.CanonicalStereo string, so
+// a racemate is one compound. Adducts of achiral partners form as racemates, and the two
+// enantiomers of one relative configuration are one product.
+func relativeStereo(m *molecule.Molecule) string {
+	marks := 0
+	for _, at := range m.Atoms {
+		if at.Chiral != 0 {
+			marks++
+		}
+	}
+	if marks < 2 {
+		return smiles.Canonical(m) // nothing to write: skip the two stereo searches
+	}
+	a := smiles.CanonicalStereo(m)
+	mirror := m.Clone()
+	for i := range mirror.Atoms {
+		mirror.Atoms[i].Chiral = -mirror.Atoms[i].Chiral
+	}
+	if b := smiles.CanonicalStereo(mirror); b < a {
+		a = b
+	}
+	if strings.Count(a, "@")-strings.Count(a, "@@") < 2 {
+		return smiles.Canonical(m) // one stereocentre: a racemate has no relative configuration
+	}
+	return a
+}
+
+// hasChiral reports whether any atom of m carries a configuration (at least two are needed
+// for a relative configuration).
+func hasChiral(m *molecule.Molecule) bool {
+	n := 0
+	for _, a := range m.Atoms {
+		if a.Chiral != 0 {
+			n++
+		}
+	}
+	return n >= 2
 }

@@ -221,8 +221,13 @@ func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cac
 		add(dimerisation(diene, opts))
 	}
 
-	// The adduct's remaining π bonds with the 4π partner.
-	prodSMILES := pair.Orientations[0].Product
+	// The remaining π bonds of the isolated product (after any loss of N₂, CO₂ or an
+	// alcohol: the bridged N=N of a tetrazine adduct is gone before a second diene could
+	// meet it) with the 4π partner.
+	prodSMILES := pair.Orientations[0].IsolatedProduct
+	if prodSMILES == "" {
+		prodSMILES = pair.Orientations[0].Product
+	}
 	check := func() sideResult {
 		pm, err := smiles.Parse(prodSMILES)
 		if err != nil {

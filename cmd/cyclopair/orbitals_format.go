@@ -35,7 +35,7 @@ func (n num) MarshalJSON() ([]byte, error) {
 
 func fmtNum(v float64) string { return strconv.FormatFloat(round6(v), 'f', -1, 64) }
 
-// JSON Lines record (contract in DESIGN.md: smiles, homo, lumo, levels, centres,
+// JSON Lines record (contract in DEVELOPERS.md: smiles, homo, lumo, levels, centres,
 // pi_energy, electrons; the other keys are additions).
 type orbitalsJSON struct {
 	SMILES      string          `json:"smiles"`

@@ -30,7 +30,7 @@ func TestOrbitalsGolden(t *testing.T) {
 	}
 }
 
-// The JSON Lines contract of DESIGN.md: keys and shapes other tools parse.
+// The JSON Lines contract of DEVELOPERS.md: keys and shapes other tools parse.
 func TestOrbitalsJSONContract(t *testing.T) {
 	out, errOut, code := runCLI(t, "", "orbitals", "C=CC=C", "c1ccccc1", "--format", "json")
 	if code != 0 {

@@ -72,6 +72,23 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 		label = "no ortho/meta/para label"
 	}
 	fmt.Fprintf(w, "preferred: %s %s, %s; product %s\n", best.Kind, best.Site, label, best.Product)
+	for _, sp := range best.StereoProducts {
+		mark := ""
+		if sp.Preferred {
+			mark = " (preferred)"
+		}
+		fmt.Fprintf(w, "  %s adduct%s: %s\n", sp.Approach, mark, sp.SMILES)
+	}
+	for _, st := range best.FollowUp {
+		step := st.Kind
+		if step == fmo.StepRetroDA {
+			step = "retro-Diels–Alder"
+		}
+		fmt.Fprintf(w, "  then %s, losing %s (%s): %s\n", step, st.LostName, st.Lost, st.Product)
+	}
+	if len(best.FollowUp) > 0 {
+		fmt.Fprintf(w, "  isolated product: %s\n", best.IsolatedProduct)
+	}
 	fmt.Fprintf(w, "regioselectivity: %s (margin %.5f |β| = %s of the frontier term; clear ≥ %.0f%%, slight ≥ %.0f%%)\n",
 		p.RegioConfidence, p.RegioMargin, rel(p.RegioMargin), 100*p.RegioThresholds[0], 100*p.RegioThresholds[1])
 	if p.SiteMargin > 0 {

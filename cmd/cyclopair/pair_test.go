@@ -31,7 +31,7 @@ func TestPairGolden(t *testing.T) {
 	}
 }
 
-// TestPairJSONContract checks the keys ../shared/DESIGN.md promises for 'pair --format json'.
+// TestPairJSONContract checks the keys DEVELOPERS.md ("Output contracts") promises for 'pair --format json'.
 func TestPairJSONContract(t *testing.T) {
 	out, errs, code := runCLI(t, "", "pair", "--diene", "C=CC(C)=C", "--dienophile", "C=CC(=O)OC", "--activate", "none,lewis", "--format", "json")
 	if code != exitOK {

@@ -18,10 +18,10 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 )
 
-// Exit codes (../shared/DESIGN.md, README "Limits and exit codes"): 0 success, 1 the analysis
-// ran but some inputs failed, 2 bad usage, unreadable input or output that could not be
-// written, 128+N stopped by signal N (130 SIGINT, 143 SIGTERM) after flushing every complete
-// row.
+// Exit codes (DEVELOPERS.md "Output contracts", README "Limits and exit codes"): 0 success,
+// 1 the analysis ran but some inputs failed, 2 bad usage, unreadable input or output that
+// could not be written, 128+N stopped by signal N (130 SIGINT, 143 SIGTERM) after flushing
+// every complete row.
 const (
 	exitOK      = 0
 	exitPartial = 1
@@ -144,7 +144,9 @@ Energies are given as x in E = α + xβ (β < 0, bonding levels have x > 0) and 
 a stated linear calibration. Results are estimates for planning, not safety assessments.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		Version:       version(),
 	}
+	root.SetVersionTemplate("cyclopair {{.Version}}\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return &usageError{err} })
 	root.AddCommand(
 		// Each command is built by its own constructor in its own file.
@@ -158,6 +160,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newCalibrateCmd(s),
 		newValidateCmd(s),
 		newMergeCmd(s),
+		newStarterCmd(s),
 		newServeCmd(s),
 	)
 	return root

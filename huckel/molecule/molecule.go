@@ -24,6 +24,59 @@ type Atom struct {
 	Bracket  bool   // written in brackets in the input
 	Map      int    // atom class ":n" from a bracket atom, 0 when not given
 	Pos      int    // 0-based byte offset of the atom in Molecule.Source, -1 if built in code
+	// Chiral is the tetrahedral configuration set by code (the SMILES reader does not keep
+	// '@' marks): 0 none, ChiralACW or ChiralCW. It is relative to the atom's StereoOrder:
+	// looking from the first neighbour of that order toward the atom, the other three run
+	// anticlockwise (ChiralACW, SMILES '@') or clockwise (ChiralCW, '@@'). It is meaningful
+	// only on an atom with four neighbours counting at most one implicit hydrogen.
+	Chiral int8
+}
+
+// Tetrahedral configurations for Atom.Chiral.
+const (
+	ChiralACW int8 = 1  // '@'
+	ChiralCW  int8 = -1 // '@@'
+)
+
+// ImplicitH stands for an atom's implicit hydrogen in a StereoOrder.
+const ImplicitH = -1
+
+// StereoOrder is the reference neighbour order of atom v for Atom.Chiral: the implicit
+// hydrogen first (ImplicitH, when HCount is 1), then the neighbours in ascending atom index.
+// It does not depend on the order of Bonds, so only renumbering atoms changes it.
+func (m *Molecule) StereoOrder(v int) []int {
+	var out []int
+	if m.Atoms[v].HCount == 1 {
+		out = append(out, ImplicitH)
+	}
+	start := len(out)
+	for _, e := range m.Neighbors(v) {
+		out = append(out, e.To)
+	}
+	slices.Sort(out[start:])
+	return out
+}
+
+// OddPermutation reports whether list b is an odd permutation of list a (both hold the
+// same distinct values). It panics if they do not (programmer error).
+func OddPermutation(a, b []int) bool {
+	if len(a) != len(b) {
+		panic("molecule.OddPermutation: lists of different length")
+	}
+	p := slices.Clone(b)
+	odd := false
+	for i := range a {
+		if p[i] == a[i] {
+			continue
+		}
+		j := slices.Index(p[i+1:], a[i])
+		if j < 0 {
+			panic("molecule.OddPermutation: lists hold different values")
+		}
+		p[i], p[i+1+j] = p[i+1+j], p[i]
+		odd = !odd
+	}
+	return odd
 }
 
 // Bond joins atoms A and B (A < B is not required).

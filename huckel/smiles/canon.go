@@ -51,17 +51,70 @@ func Canonical(m *molecule.Molecule) string {
 	if len(m.Atoms) == 0 {
 		return ""
 	}
-	s, _ := canonical(m, smallestRings(m))
+	s, _ := canonical(m, smallestRings(m), false)
 	return s
+}
+
+// CanonicalStereo is Canonical with the tetrahedral configurations set in Atom.Chiral
+// written as '@'/'@@': two molecules with the same graph and the same relative
+// configuration give the same string, mirror images and diastereomers different ones.
+// A mark is kept only on a stereocentre: an atom with four neighbours (at most one of them
+// an implicit hydrogen) whose neighbours are pairwise in different symmetry classes of the
+// refinement; marks elsewhere (a CH2, an atom with two equivalent branches) are dropped, so
+// a stray mark never splits one compound into two strings. Pseudo-asymmetric centres
+// (two constitutionally equal branches of opposite configuration) are not recognised and
+// lose their mark. The same search as Canonical runs over the same leaves with the marks
+// included in each leaf's string, so the smallest string is again canonical; directional
+// bond marks (/ \) are still ignored.
+func CanonicalStereo(m *molecule.Molecule) string {
+	if len(m.Atoms) == 0 {
+		return ""
+	}
+	s, _ := canonical(m, smallestRings(m), true)
+	return s
+}
+
+// stereoCentres returns Atom.Chiral per atom, kept only where the atom is a stereocentre by
+// the refined classes rank (see CanonicalStereo), or nil when no atom keeps a mark.
+func stereoCentres(m *molecule.Molecule, rank []int) []int8 {
+	var out []int8
+	for v, a := range m.Atoms {
+		if a.Chiral == 0 || a.HCount > 1 || m.Degree(v)+a.HCount != 4 {
+			continue
+		}
+		seen := map[int]bool{}
+		distinct := true
+		for _, e := range m.Neighbors(v) {
+			if seen[rank[e.To]] {
+				distinct = false
+			}
+			seen[rank[e.To]] = true
+		}
+		if !distinct {
+			continue
+		}
+		if out == nil {
+			out = make([]int8, len(m.Atoms))
+		}
+		out[v] = a.Chiral
+	}
+	return out
 }
 
 // canonical is Canonical with the ring-size invariants given (tests pass zeros to check
 // the search on its own); exact is false when the search gave up.
-func canonical(m *molecule.Molecule, ringSizes []int) (s string, exact bool) {
+func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, exact bool) {
 	btype, inAlt := alternation(m)
 	r := newRanker(m, btype, ringSizes)
 	rank := r.initial()
 	r.refine(rank)
+	var chiral []int8
+	if stereo {
+		chiral = stereoCentres(m, rank)
+	}
+	writeRanked := func(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
+		return writeRankedStereo(m, btype, inAlt, rank, chiral)
+	}
 	if r.classes(rank) == len(rank) {
 		return writeRanked(m, btype, inAlt, rank), true
 	}
@@ -129,9 +182,10 @@ func canonical(m *molecule.Molecule, ringSizes []int) (s string, exact bool) {
 // maxCanonicalLeaves bounds the search of Canonical (see its Limitations).
 const maxCanonicalLeaves = 256
 
-// writeRanked writes m with atoms renumbered by rank (a permutation), re-kekulising the
-// alternation graph in rank order.
-func writeRanked(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
+// writeRankedStereo writes m with atoms renumbered by rank (a permutation), re-kekulising
+// the alternation graph in rank order; chiral (nil for none) gives each atom's Atom.Chiral
+// in m's numbering, carried over to the new numbering.
+func writeRankedStereo(m *molecule.Molecule, btype []int8, inAlt int, rank []int, chiral []int8) string {
 	n := len(m.Atoms)
 	c := &molecule.Molecule{Atoms: make([]molecule.Atom, n), Bonds: make([]molecule.Bond, 0, len(m.Bonds))}
 	for i, a := range m.Atoms {
@@ -173,6 +227,21 @@ func writeRanked(m *molecule.Molecule, btype []int8, inAlt int, rank []int) stri
 		for i := range c.Bonds {
 			c.Bonds[i].Aromatic = false
 		}
+	}
+	for i, x := range chiral {
+		if x == 0 {
+			continue
+		}
+		old := m.StereoOrder(i)
+		for k, nb := range old {
+			if nb != molecule.ImplicitH {
+				old[k] = rank[nb]
+			}
+		}
+		if molecule.OddPermutation(c.StereoOrder(rank[i]), old) {
+			x = -x
+		}
+		c.Atoms[rank[i]].Chiral = x
 	}
 	return Write(c)
 }

@@ -381,13 +381,13 @@ func TestCanonicalSearch(t *testing.T) {
 	}
 	rng := rand.New(rand.NewPCG(5, 5))
 	noRings := make([]int, len(m.Bonds))
-	want, exact := canonical(m, noRings)
+	want, exact := canonical(m, noRings, false)
 	if !exact {
 		t.Fatal("search gave up")
 	}
 	for k := 0; k < 20; k++ {
 		p := permute(m, rng)
-		if got, _ := canonical(p, make([]int, len(p.Bonds))); got != want {
+		if got, _ := canonical(p, make([]int, len(p.Bonds)), false); got != want {
 			t.Fatalf("renumbering %d: %q, want %q", k, got, want)
 		}
 	}
@@ -396,7 +396,7 @@ func TestCanonicalSearch(t *testing.T) {
 		if err != nil {
 			continue
 		}
-		if _, exact := canonical(m, smallestRings(m)); !exact {
+		if _, exact := canonical(m, smallestRings(m), false); !exact {
 			t.Errorf("%s: Canonical search exceeded %d leaves", s, maxCanonicalLeaves)
 		}
 	}

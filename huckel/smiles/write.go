@@ -14,10 +14,11 @@ import (
 // charge, an isotope, an atom map, or a hydrogen count other than the default-valence
 // one). Parse(Write(m)) gives back a graph isomorphic to m with the same elements,
 // charges, isotopes, hydrogen counts, bond orders and atom maps; stereo marks on bonds are
-// written as they are stored (flipped when the bond is written from B to A), chirality is
-// not kept by the reader and so never written. The Kekulé form can be longer than the
-// input (and a built product longer than either partner): read it back with
-// ParseOptions.MaxLength raised when it exceeds MaxLength.
+// written as they are stored (flipped when the bond is written from B to A). A tetrahedral
+// configuration set in code (Atom.Chiral) is written as '@' or '@@' for the neighbour order
+// of the output; the reader accepts these marks but does not keep them. The Kekulé form can
+// be longer than the input (and a built product longer than either partner): read it back
+// with ParseOptions.MaxLength raised when it exceeds MaxLength.
 //
 // The output depends only on the graph and the atom order, not on the order of m.Bonds:
 // each fragment starts at its lowest-numbered atom, a depth-first search visits
@@ -131,7 +132,7 @@ func (w *writer) emit(v, from, inBond int) {
 	if inBond >= 0 {
 		w.bondSymbol(inBond, from)
 	}
-	w.atom(v)
+	w.atom(v, w.chirality(v, from))
 	if w.order != nil {
 		w.order = append(w.order, v)
 	}
@@ -225,10 +226,59 @@ func (w *writer) bondSymbol(bi, from int) {
 	}
 }
 
-// atom writes atom v, in brackets only when needed.
-func (w *writer) atom(v int) {
+// chirality returns the '@'/'@@' mark of atom v reached from atom from (-1 for a root) as
+// the writer will order its neighbours: the atom it came from, its implicit hydrogen, the
+// ring-closure digits in the order emit writes them (closures, then openings), then the
+// branches and the chain continuation. It returns 0 when v carries no configuration or
+// does not have four neighbours counting one implicit hydrogen.
+func (w *writer) chirality(v, from int) int8 {
 	a := w.m.Atoms[v]
-	if !needsBracket(a, w.m.BondOrderSum(v)) {
+	if a.Chiral == 0 || a.HCount > 1 || len(w.adj[v])+a.HCount != 4 {
+		return 0
+	}
+	var buf [4]int
+	got := buf[:0]
+	if from >= 0 {
+		got = append(got, from)
+	}
+	if a.HCount == 1 {
+		got = append(got, molecule.ImplicitH)
+	}
+	for _, e := range w.adj[v] {
+		if w.ring[e.Bond] && w.digit[e.Bond] > 0 {
+			got = append(got, e.To)
+		}
+	}
+	for _, e := range w.adj[v] {
+		if w.ring[e.Bond] && w.digit[e.Bond] == 0 {
+			got = append(got, e.To)
+		}
+	}
+	var kidBuf [4]molecule.Edge
+	kids := kidBuf[:0]
+	for _, e := range w.adj[v] {
+		if !w.ring[e.Bond] && e.To != from && w.parent[e.To] == int32(e.Bond) {
+			kids = append(kids, e)
+		}
+	}
+	slices.SortStableFunc(kids, func(p, q molecule.Edge) int { return int(w.size[p.To] - w.size[q.To]) })
+	for _, e := range kids {
+		got = append(got, e.To)
+	}
+	if len(got) != 4 {
+		return 0
+	}
+	if molecule.OddPermutation(w.m.StereoOrder(v), got) {
+		return -a.Chiral
+	}
+	return a.Chiral
+}
+
+// atom writes atom v with tetrahedral mark chiral (0, molecule.ChiralACW or ChiralCW), in
+// brackets only when needed.
+func (w *writer) atom(v int, chiral int8) {
+	a := w.m.Atoms[v]
+	if chiral == 0 && !needsBracket(a, w.m.BondOrderSum(v)) {
 		w.b.WriteString(a.Element)
 		return
 	}
@@ -237,6 +287,12 @@ func (w *writer) atom(v int) {
 		w.b.WriteString(strconv.Itoa(a.Isotope))
 	}
 	w.b.WriteString(a.Element)
+	switch chiral {
+	case molecule.ChiralACW:
+		w.b.WriteByte('@')
+	case molecule.ChiralCW:
+		w.b.WriteString("@@")
+	}
 	if a.HCount > 0 {
 		w.b.WriteByte('H')
 		if a.HCount > 1 {

@@ -8,7 +8,7 @@ import (
 	"cyclopair/fmo"
 )
 
-// jsonRow is one JSON Lines object: the Pair contract (../../../shared/DESIGN.md, keys
+// jsonRow is one JSON Lines object: the Pair contract (DEVELOPERS.md "Output contracts", keys
 // stable) with the rank in front and the Caution at the end.
 type jsonRow struct {
 	Rank       int   `json:"rank"`

@@ -139,7 +139,7 @@ func TestJSONLinesKeepContract(t *testing.T) {
 		if err := json.Unmarshal([]byte(l), &m); err != nil {
 			t.Fatalf("line %d: %v", i+1, err)
 		}
-		// Keys from the DESIGN.md contract plus the batch additions.
+		// Keys from the DEVELOPERS.md contract plus the batch additions.
 		for _, k := range []string{"demand", "gap_normal", "gap_inverse", "orientations", "allowed",
 			"warnings", "activation", "diene_name", "dienophile_name", "rank", "caution", "params", "calibration"} {
 			if _, ok := m[k]; !ok {
