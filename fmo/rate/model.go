@@ -75,15 +75,20 @@ func (m *Model) Predict(d *Descriptors) Estimate {
 }
 
 // Quick is Predict's central value for a QuickScore result, written out for the screening
-// loop (no interval): Σ_j coef_j·(x_j − ref_j). It is linear in −gap, the frontier term,
-// −localisation (per-partner additive: loc = loc_diene + loc_dienophile), and the diene's
-// s-cis and reach terms (per-partner), so an upper bound over a set of partners follows
-// from bounds on each quantity (see the package doc).
+// loop (no interval): Σ_j coef_j·(x_j − ref_j). Every term is either a diene-only quantity
+// (conjugation loss, s-cis, reach), a dienophile-only one (its localisation, the Lewis-acid
+// indicator) or the pair's controlling gap and frontier term, so an upper bound over a set
+// of partners follows from per-partner bounds: the gap from the diene's HOMO and LUMO and
+// the dienophile's, the rest term by term (see the package doc).
 func (m *Model) Quick(q *fmo.Quick, conf *Conformation) float64 {
 	c := &m.Coef
 	r := &m.RefVector
-	return c[0]*(-min(q.GapNormal, q.GapInverse)-r[0]) + c[1]*(q.Frontier-r[1]) +
-		c[2]*(-q.Localization-r[2]) + c[3]*(conf.SCis-r[3]) + c[4]*(-conf.Reach-r[4])
+	return c[TermGap]*(-min(q.GapNormal, q.GapInverse)-r[TermGap]) +
+		c[TermFrontier]*(q.Frontier-r[TermFrontier]) +
+		c[TermDieneConjugation]*(-q.DieneConjugationLoss-r[TermDieneConjugation]) +
+		c[TermDienophileLocalization]*(-q.DienophileLocalization-r[TermDienophileLocalization]) +
+		c[TermSCis]*(conf.SCis-r[TermSCis]) + c[TermReach]*(-conf.Reach-r[TermReach]) +
+		c[TermLewis]*(lewisIndicator(q.Activation)-r[TermLewis])
 }
 
 // Annotate fills p.Rate, the orientation fractions and p.EndoFraction at temperature tempC
@@ -131,7 +136,7 @@ type fileModel struct {
 }
 
 // FileFormat names the model-file format.
-const FileFormat = "cyclopair-rate-model/1"
+const FileFormat = "cyclopair-rate-model/2"
 
 // Marshal writes the model as YAML, with header the comment lines put first.
 func (m *Model) Marshal(header string) ([]byte, error) {
