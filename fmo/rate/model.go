@@ -2,10 +2,12 @@ package rate
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"math"
 
 	"cyclopair/fmo"
+	"cyclopair/huckel"
 	"cyclopair/presets"
 
 	"go.yaml.in/yaml/v3"
@@ -93,7 +95,14 @@ func (m *Model) Quick(q *fmo.Quick, conf *Conformation) float64 {
 
 // Annotate fills p.Rate, the orientation fractions and p.EndoFraction at temperature tempC
 // (°C). diene is the 4π partner's molecule.
+//
+// Under another π method than Hückel (p.Method "ppp") Annotate leaves p unchanged: the
+// model's coefficients are per Hückel |β| and PPP gaps are about three times larger, so its
+// predictions would be orders of magnitude off (see ErrMethod).
 func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
+	if !AppliesTo(p.Method) {
+		return nil
+	}
 	d, err := FromPair(p, diene.Mol)
 	if err != nil {
 		return err
@@ -104,6 +113,13 @@ func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
 	m.Ratios.annotate(p, tempC)
 	return nil
 }
+
+// ErrMethod says why the rate model is not applied under another π method than Hückel.
+var ErrMethod = errors.New("the rate model is fitted on Hückel descriptors (gaps in Hückel |β|; PPP gaps are about 3× larger) and is not applied under --method ppp (rank by score, normal_gap, gap, stabilization or regio_margin, or use --method huckel)")
+
+// AppliesTo reports whether the model applies to pairs computed with π method method
+// ("huckel" or "" for Hückel).
+func AppliesTo(method string) bool { return method == "" || method == huckel.MethodHuckel }
 
 func round6(x float64) float64 { return math.Round(x*1e6) / 1e6 }
 

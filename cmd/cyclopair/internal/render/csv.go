@@ -13,7 +13,7 @@ var csvHeader = []string{
 	"demand", "sustmann_type", "gap_beta", "gap_ev", "gap_normal_beta", "gap_normal_ev",
 	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
 	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
-	"params", "calibration", "caution",
+	"params", "calibration", "caution", "log10_k_rel", "log10_k_rel_lo", "log10_k_rel_hi",
 }
 
 type csvWriter struct {
@@ -42,7 +42,11 @@ func (c *csvWriter) WriteRow(r Row) error {
 		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
 		label, product, stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
 		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
-		strings.Join(p.Warnings, " | "), p.Params, p.Calibration, Caution,
+		strings.Join(p.Warnings, " | "), p.Params, p.Calibration, Caution, "", "", "",
+	}
+	if p.Rate != nil {
+		n := len(rec)
+		rec[n-3], rec[n-2], rec[n-1] = f3(p.Rate.Log10KRel), f3(p.Rate.Interval[0]), f3(p.Rate.Interval[1])
 	}
 	if err := c.w.Write(rec); err != nil {
 		return err
