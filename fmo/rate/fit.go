@@ -26,7 +26,7 @@ type FitOptions struct {
 // Curtin–Hammett conditions enters the rate one to one), the frontier term and the
 // dienophile's localisation at 0. Why those two are not fitted: the dienophile localisation
 // grows with every cyano or carbonyl group exactly as the LUMO falls (on the cyano-ethylenes
-// of sauer1964-cpd its correlation with −gap is about 0.7), so free it takes the unphysical
+// of sauer1964-cpd its Pearson correlation with −gap is 0.83), so free it takes the unphysical
 // sign (more π energy lost, faster) as a stand-in for acceptor strength; the frontier term
 // changes sign between cross-validation folds. Both are kept as descriptors (reported,
 // available to a user's refit with calibrate) but not weighted.
