@@ -102,6 +102,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 					Kind:            cycloKind(du),
 					RingSize:        du.RingSize(),
 				}
+				c.o.DieneLocalization, c.o.DieneConjugationLoss = dd.loc, dd.conj
 				cands = append(cands, c)
 			}
 		}

@@ -101,6 +101,13 @@ type Orientation struct {
 	// preferred reacting units (0–1), from the fitted ratio model of fmo/rate; 0 at other
 	// units and when no model was applied.
 	Fraction float64 `json:"fraction"`
+
+	// DieneLocalization is the 4π partner's part of Localization (the rest is the
+	// dienophile's), for the rate model (fmo/rate); not in the JSON output.
+	DieneLocalization float64 `json:"-"`
+	// DieneConjugationLoss is the 4π partner's localisation energy without hyperconjugative
+	// alkyl pseudo-atoms (Partner.UnitConjugationLoss), for the rate model; not in the JSON.
+	DieneConjugationLoss float64 `json:"-"`
 }
 
 // RateEstimate is a predicted rate from the fitted model of fmo/rate: log10 of the rate

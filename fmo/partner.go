@@ -61,6 +61,7 @@ type unitData struct {
 	lumo  frontierSet
 	q     [nSlots]float64 // π charges per slot
 	loc   float64         // localisation energy, |β|
+	conj  float64         // conjugation loss (localisation without alkyl pseudo-atoms), |β|
 	ok    bool            // both frontier sets present
 	fast  fastUnit        // the ranking-score part, laid out for the screening loop
 }
@@ -235,6 +236,9 @@ func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
 		return d, err
 	}
 	d.loc = loc
+	if d.conj, err = p.conjugationLoss(u, p.sides[ui]); err != nil {
+		return d, err
+	}
 	tEnd := len(u.Atoms) - 1
 	d.fast = d.fastUnit(tEnd)
 	for li, lv := range p.Orb.Levels {
@@ -335,10 +339,47 @@ func (p *Partner) endoSubstituent(u Unit, x, y int) int {
 // localisation energy is offered. Under PPP both terms come from Hückel solves of the same
 // PiSystem, so L is the same number under either method.
 func (p *Partner) localization(u Unit, sd *side) (float64, error) {
+	return p.localizationOf(p.Pi, p.eHuckel, u, sd)
+}
+
+// conjugationLoss is the localisation energy of the unit with the hyperconjugative alkyl
+// pseudo-atoms (centre type huckel.Alkyl) left out of the π system before and after: the π
+// conjugation (aromaticity, donor and acceptor conjugation) the reaction destroys, without
+// the hyperconjugation the heteroatom model of alkyl groups adds. That model's h and k are
+// chosen to reproduce orbital energies (ionisation potentials, spectra; A. Streitwieser,
+// Molecular Orbital Theory for Organic Chemists, Wiley 1961, ch. 5; from memory), not ground-state
+// stabilisation, which for hyperconjugation is small (M. J. S. Dewar, H. N. Schmeising,
+// Tetrahedron 1959, 5, 166; from memory): with them, cyclopentadiene's two C–CH2 links
+// would cost 0.51 |β| more than butadiene, more than furan's aromaticity (0.45 |β|).
+// Equal to localization when the partner has no alkyl pseudo-atom.
+func (p *Partner) conjugationLoss(u Unit, sd *side) (float64, error) {
+	var alkyl []int
+	for i, c := range p.Pi.Centres {
+		if c.Type == huckel.Alkyl {
+			alkyl = append(alkyl, i)
+		}
+	}
+	if len(alkyl) == 0 {
+		return p.localization(u, sd)
+	}
+	base := p.Pi.Without(alkyl...)
+	e := 0.0
+	if len(base.Centres) > 0 {
+		o, err := huckel.Solve(base)
+		if err != nil {
+			return 0, fmt.Errorf("%s: conjugation loss at %s: %w", p.Name, u.Describe(p.Mol), err)
+		}
+		e = o.PiEnergy
+	}
+	return p.localizationOf(base, e, u, sd)
+}
+
+// localizationOf is localization on the π system pi of π energy ePi (|β|).
+func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *side) (float64, error) {
 	t0, t1 := u.Termini()
-	c0, c1 := p.Pi.CentreOf(t0), p.Pi.CentreOf(t1)
-	removed := p.Pi.Centres[c0].Electrons + p.Pi.Centres[c1].Electrons
-	rest := p.Pi.Without(c0, c1)
+	c0, c1 := pi.CentreOf(t0), pi.CentreOf(t1)
+	removed := pi.Centres[c0].Electrons + pi.Centres[c1].Electrons
+	rest := pi.Without(c0, c1)
 	if extra := removed - 2; extra > 0 {
 		// give the surplus to the inner atom(s) next to the termini
 		for _, a := range u.Atoms[1 : len(u.Atoms)-1] {
@@ -352,7 +393,7 @@ func (p *Partner) localization(u Unit, sd *side) (float64, error) {
 			return 0, fmt.Errorf("%s: unit %s: cannot place %d π electrons of the termini", p.Name, u.Describe(p.Mol), extra)
 		}
 	}
-	localizeBenzenoid(p.Pi, rest, sd, t0, t1)
+	localizeBenzenoid(pi, rest, sd, t0, t1)
 	eRest := 0.0
 	if len(rest.Centres) > 0 {
 		o, err := huckel.Solve(rest)
@@ -377,15 +418,35 @@ func (p *Partner) localization(u Unit, sd *side) (float64, error) {
 	if p.freePi != nil {
 		for _, t := range [2]int{t0, t1} {
 			if fc := p.freePi.CentreOf(t); fc >= 0 {
-				credit += p.Pi.Centres[p.Pi.CentreOf(t)].H - p.freePi.Centres[fc].H
+				credit += pi.Centres[pi.CentreOf(t)].H - p.freePi.Centres[fc].H
 			}
 		}
 	}
-	loc := p.eHuckel - eRest - credit
+	loc := ePi - eRest - credit
 	if math.IsNaN(loc) {
 		return 0, fmt.Errorf("%s: localisation at %s is not a number", p.Name, u.Describe(p.Mol))
 	}
 	return loc, nil
+}
+
+// UnitConjugationLoss returns the conjugation loss of reacting unit i: its localisation
+// energy with the hyperconjugative alkyl pseudo-atoms left out (see conjugationLoss), |β|;
+// what the rate model (fmo/rate) reads as the diene's aromaticity and conjugation cost.
+func (p *Partner) UnitConjugationLoss(i int) float64 {
+	if i < 0 || i >= len(p.data) {
+		return math.NaN()
+	}
+	return p.data[i].conj
+}
+
+// UnitLocalization returns the localisation energy of reacting unit i (index into Units),
+// |β|: the π energy this partner alone loses when the unit's termini become sp3 (see
+// localization). An orientation's Localization is the sum of both partners' values.
+func (p *Partner) UnitLocalization(i int) float64 {
+	if i < 0 || i >= len(p.data) {
+		return math.NaN()
+	}
+	return p.data[i].loc
 }
 
 // NewPartner parses smi (errors from the SMILES reader are returned unchanged, so a caller

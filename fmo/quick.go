@@ -17,6 +17,16 @@ type Quick struct {
 	Orientation           int8    // 0: diene terminus a bonds dienophile atom x; 1: a bonds y
 	FirstOrder            bool    // a pairing of the preferred orientation used the first-order form
 	OK                    bool    // false when no pair of units has both frontier levels
+
+	// DieneLocalization and DienophileLocalization are the two parts of Localization (the
+	// diene's at its preferred unit, the dienophile's at its): the rate model weighs them
+	// separately (fmo/rate).
+	DieneLocalization, DienophileLocalization float64
+	// DieneConjugationLoss is the diene's localisation energy without the hyperconjugative
+	// alkyl pseudo-atoms (Partner.UnitConjugationLoss): its aromaticity and conjugation cost.
+	DieneConjugationLoss float64
+	// Activation is the dienophile's activation mode (Partner.Activation).
+	Activation string
 }
 
 // QuickScore scores the pair from the per-unit frontier data cached on the partners: every
@@ -81,6 +91,9 @@ func quickScore(diene, dienophile *Partner, k *kernel, threshold float64) Quick 
 	r.RegioMargin = best - other
 	r.GapNormal, r.GapInverse = dd.hx-ed.lx, ed.hx-dd.lx
 	r.Localization = dd.loc + ed.loc
+	r.DieneLocalization, r.DienophileLocalization = dd.loc, ed.loc
+	r.DieneConjugationLoss = dd.conj
+	r.Activation = dienophile.Activation
 	r.Stabilization = best + k.locWeight*r.Localization + k.gapWeight*min(r.GapNormal, r.GapInverse)
 	r.Frontier = r.Stabilization
 	// first-order flag of the preferred orientation: g ≤ √S in either pairing

@@ -92,6 +92,7 @@ type fastUnit struct {
 	h, l   [3]float64 // [P(t0,t0), P(t1,t1), P(t0,t1)] of the HOMO and LUMO sets
 	q0, q1 float64    // π charges at the termini
 	loc    float64    // localisation energy, |β|
+	conj   float64    // conjugation loss (loc without alkyl pseudo-atoms), |β|
 	ok     bool       // both frontier sets exist
 	// occ and emp are every occupied and empty level of the unit's π fragment with the
 	// coefficients at the two termini, for Options.AllOrbitals.
@@ -127,8 +128,8 @@ func (d *unitData) fastUnit(tEnd int) fastUnit {
 		h:  [3]float64{d.homo.P[0][0], d.homo.P[tEnd][tEnd], d.homo.P[0][tEnd]},
 		l:  [3]float64{d.lumo.P[0][0], d.lumo.P[tEnd][tEnd], d.lumo.P[0][tEnd]},
 		q0: d.q[0], q1: d.q[tEnd],
-		loc: d.loc,
-		ok:  d.ok,
+		loc: d.loc, conj: d.conj,
+		ok: d.ok,
 	}
 }
 

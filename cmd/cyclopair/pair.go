@@ -186,7 +186,9 @@ func runPair(s *streams, opts *pairOptions) error {
 		return err
 	}
 	var freeRate *float64
-	if base != nil {
+	if !rate.AppliesTo(diene.Orb.Method) {
+		fmt.Fprintf(s.err, "cyclopair: note: no rate or isomer shares: %v\n", rate.ErrMethod)
+	} else if base != nil {
 		if d, err := rate.FromPair(base, diene.Mol); err == nil {
 			v := rm.Predict(&d).Log10KRel
 			freeRate = &v

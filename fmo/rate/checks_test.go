@@ -68,7 +68,7 @@ func TestOrderings(t *testing.T) {
 		{"cyclopentadiene > 1,3-cyclohexadiene (+ maleic anhydride)",
 			"J. Sauer, R. Sustmann, Angew. Chem. Int. Ed. Engl. 1980, 19, 779 (from memory)",
 			[3]string{"C1=CCC=C1", ma, "none"}, [3]string{"C1=CC=CCC1", ma, "none"}, 0,
-			"Hückel with the hyperconjugative CH2 model puts the HOMO of 1,3-cyclohexadiene 0.21 |β| above that of cyclopentadiene (equal to butadiene's), and the reach term (0.55 Å) does not make up for it with the fitted coefficient"},
+			"Hückel with the hyperconjugative CH2 model puts the HOMO of 1,3-cyclohexadiene 0.21 |β| above that of cyclopentadiene (equal to butadiene's: the a2 HOMO has a node through the CH2), worth about 2.3 log units with the fitted gap coefficient; the reach term (0.55 Å closer termini in the five-ring) gives back about 2.0"},
 		{"1,3-cyclohexadiene > 1,3-cycloheptadiene (+ maleic anhydride)",
 			"J. Sauer, R. Sustmann, Angew. Chem. Int. Ed. Engl. 1980, 19, 779 (from memory)",
 			[3]string{"C1=CC=CCC1", ma, "none"}, [3]string{"C1=CC=CCCC1", ma, "none"}, 0, ""},
@@ -84,14 +84,29 @@ func TestOrderings(t *testing.T) {
 		{"Lewis acid accelerates butadiene + methyl acrylate at least 10^2 (measured about 10^5)",
 			"T. Inukai, T. Kojima, J. Org. Chem. 1966, 31, 1121 (from memory)",
 			[3]string{"C=CC=C", "C=CC(=O)OC", "lewis"}, [3]string{"C=CC=C", "C=CC(=O)OC", "none"}, 2,
-			"h(O=LA) = 2.0 lowers the Hückel LUMO by only about 0.12 |β| and the gap coefficient fitted on the cyano-ethylene series (about 11 per |β|) turns that into 10^1.3–10^1.6; the measured factor (10^5 with AlCl3) needs either a stronger O=LA parameter or a steeper gap slope, and neither is tuned to this case"},
+			// IN THE FIT: this pair is one of the two that fix the Lewis-acid mode term
+			// (inukai-kojima-alcl3; the other is otto-engberts-cu), so the hit checks the
+			// term's sign and size, not a prediction. Without the term, h(O=LA) = 2.0 lowers
+			// the Hückel LUMO by only 0.12 |β|: 10^1.3 through the gap alone.
+			""},
 		{"Lewis acid accelerates cyclopentadiene + acrolein at least 10^2",
 			"J. Sauer, J. Kredel, Tetrahedron Lett. 1966, 7, 731 (Lewis-acid catalysis of dienophiles; from memory)",
 			[3]string{"C1=CCC=C1", "C=CC=O", "lewis"}, [3]string{"C1=CCC=C1", "C=CC=O", "none"}, 2,
-			"h(O=LA) = 2.0 lowers the Hückel LUMO by only about 0.12 |β| and the gap coefficient fitted on the cyano-ethylene series (about 11 per |β|) turns that into 10^1.3–10^1.6; the measured factor (10^5 with AlCl3) needs either a stronger O=LA parameter or a steeper gap slope, and neither is tuned to this case"},
+			// not in the fit: an enal and another diene than the two pairs the Lewis-acid
+			// term was fitted on
+			""},
 		{"iminium ion accelerates cyclopentadiene + cinnamaldehyde (the uncatalysed reaction is negligible at room temperature)",
 			"K. A. Ahrendt, C. J. Borths, D. W. C. MacMillan, J. Am. Chem. Soc. 2000, 122, 4243 (imidazolidinone secondary-amine catalyst; from memory)",
 			[3]string{"C1=CCC=C1", "O=C/C=C/c1ccccc1", "iminium"}, [3]string{"C1=CCC=C1", "O=C/C=C/c1ccccc1", "none"}, 0, ""},
+		{"cyclopentadiene > furan (+ maleic anhydride): furan pays its aromaticity",
+			"J. Sauer, R. Sustmann, Angew. Chem. Int. Ed. Engl. 1980, 19, 779 (from memory: furan adds maleic anhydride reversibly and orders of magnitude slower than cyclopentadiene)",
+			[3]string{"C1=CCC=C1", ma, "none"}, [3]string{"c1ccoc1", ma, "none"}, 0, ""},
+		{"cyclopentadiene > anthracene (+ maleic anhydride)",
+			"J. Sauer, Angew. Chem. Int. Ed. Engl. 1967, 6, 16 (from memory: anthracene needs boiling xylene where cyclopentadiene reacts at room temperature)",
+			[3]string{"C1=CCC=C1", ma, "none"}, [3]string{"c1ccc2cc3ccccc3cc2c1", ma, "none"}, 0, ""},
+		{"9,10-dimethylanthracene > anthracene (+ maleic anhydride)",
+			"J. Sauer, Angew. Chem. Int. Ed. Engl. 1967, 6, 16 (from memory)",
+			[3]string{"Cc1c2ccccc2c(C)c2ccccc12", ma, "none"}, [3]string{"c1ccc2cc3ccccc3cc2c1", ma, "none"}, 0, ""},
 	}
 	for _, c := range cases {
 		f := predict(t, m, opts, c.fast[0], c.fast[1], c.fast[2])

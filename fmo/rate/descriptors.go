@@ -19,36 +19,70 @@ type Descriptors struct {
 	// pairings), the orbital stabilisation of the early transition state.
 	Frontier float64
 	// Localization is the π energy both partners lose when the four (or three) termini
-	// become sp3 — the Hückel measure of the aromaticity or conjugation given up (furan,
-	// anthracene) and of the "distortion" a partner must pay (D. H. Ess, K. N. Houk, J. Am.
-	// Chem. Soc. 2007, 129, 10646).
-	Localization float64
+	// become sp3 (fmo.Orientation.Localization), DieneLocalization the 4π partner's part of
+	// it; the rest, Localization − DieneLocalization, is the dienophile's.
+	Localization, DieneLocalization float64
+	// DieneConjugation is the diene's conjugation loss: its localisation energy with the
+	// hyperconjugative alkyl pseudo-atoms left out (fmo.Partner.UnitConjugationLoss), the
+	// Hückel para-localisation energy of Brown and Dewar (butadiene 2.472, furan 2.917,
+	// anthracene at 9,10 3.314, benzene 4.000 |β|; H. C. Brown, J. Chem. Soc. 1950, 691;
+	// M. J. S. Dewar, J. Am. Chem. Soc. 1952, 74, 3357; A. Streitwieser, Molecular Orbital
+	// Theory for Organic Chemists, Wiley 1961, ch. 11; from memory). The π aromaticity and
+	// conjugation a diene gives up in the transition state (furan, anthracene, benzo rings,
+	// 1-donors) — the part of the distortion energy of D. H. Ess, K. N. Houk, J. Am. Chem.
+	// Soc. 2007, 129, 10646 that a graph and a Hückel matrix can compute.
+	DieneConjugation float64
 	// Conformation holds the graph-derived diene terms (SCis, Reach).
 	Conformation Conformation
-	// Activation is the mode of the dienophile: it enters only through the orbitals (a
-	// Lewis acid or an iminium ion lowers the LUMO and polarises it), never as a constant.
+	// Activation is the mode of the dienophile (fmo.ActivateNone, ActivateLewis, ...): it
+	// acts through the orbitals and, for a Lewis acid, through the fitted mode term.
 	Activation string
 }
 
+// DienophileLocalization is the dienophile's part of the localisation energy, |β|.
+func (d *Descriptors) DienophileLocalization() float64 { return d.Localization - d.DieneLocalization }
+
 // Vector returns the descriptors in the order of Names, signed so that each is expected to
-// raise the rate: −gap, frontier, −localisation, s-cis, −reach.
+// raise the rate: −gap, frontier, −diene conjugation loss, −dienophile localisation, s-cis,
+// −reach, Lewis acid (1 or 0).
 func (d *Descriptors) Vector() [NumTerms]float64 {
-	return [NumTerms]float64{-d.Gap, d.Frontier, -d.Localization, d.Conformation.SCis, -d.Conformation.Reach}
+	return [NumTerms]float64{-d.Gap, d.Frontier, -d.DieneConjugation, -d.DienophileLocalization(),
+		d.Conformation.SCis, -d.Conformation.Reach, lewisIndicator(d.Activation)}
+}
+
+func lewisIndicator(mode string) float64 {
+	if mode == fmo.ActivateLewis {
+		return 1
+	}
+	return 0
 }
 
 // NumTerms is the number of descriptors (and model coefficients).
-const NumTerms = 5
+const NumTerms = 7
+
+// Term indices into Vector, Names, Model.Coef.
+const (
+	TermGap = iota
+	TermFrontier
+	TermDieneConjugation
+	TermDienophileLocalization
+	TermSCis
+	TermReach
+	TermLewis
+)
 
 // Names are the descriptor names in the order of Vector, as the model file spells them.
-var Names = [NumTerms]string{"neg_gap", "frontier", "neg_localization", "s_cis", "neg_reach"}
+var Names = [NumTerms]string{"neg_gap", "frontier", "neg_diene_conjugation", "neg_dienophile_localization", "s_cis", "neg_reach", "lewis_acid"}
 
 // Explain describes each descriptor in words, for reports and help texts.
 var Explain = [NumTerms]string{
 	"−min(gap_normal, gap_inverse), |β|: the controlling frontier gap (smaller gap, faster)",
 	"frontier term of the preferred orientation, |β|: Klopman–Salem orbital stabilisation of both pairings",
-	"−localisation, |β|: the π energy both partners give up at the termini (aromaticity, conjugation lost)",
+	"−diene conjugation loss, |β|: the π energy the diene gives up at its termini without alkyl hyperconjugation (para-localisation energy: aromaticity of furan or anthracene, donor conjugation)",
+	"−dienophile localisation, |β|: the π energy the dienophile gives up at its termini",
 	"log10 of the estimated s-cis population of the diene (0 ring-locked, about −1.7 open-chain, lower for (Z)-1-substituents)",
 	"−(d14 − 2.90 Å): how much closer the diene termini are than in planar s-cis butadiene (ring size of locked dienes)",
+	"1 for a Lewis-acid-bound dienophile, else 0: what the O=LA Hückel parameter does not carry of the catalysis (fitted on every catalysed/uncatalysed pair of the set)",
 }
 
 // FromPair computes the descriptors of an analysed pair; diene is the 4π partner's
@@ -59,12 +93,14 @@ func FromPair(p *fmo.Pair, diene *molecule.Molecule) (Descriptors, error) {
 	}
 	o := &p.Orientations[0]
 	d := Descriptors{
-		GapNormal:    p.GapNormal.Beta,
-		GapInverse:   p.GapInverse.Beta,
-		Frontier:     o.FrontierTerm,
-		Localization: o.Localization,
-		Conformation: ConformationOf(diene, o.DieneAtoms),
-		Activation:   p.Activation,
+		GapNormal:         p.GapNormal.Beta,
+		GapInverse:        p.GapInverse.Beta,
+		Frontier:          o.FrontierTerm,
+		Localization:      o.Localization,
+		DieneLocalization: o.DieneLocalization,
+		DieneConjugation:  o.DieneConjugationLoss,
+		Conformation:      ConformationOf(diene, o.DieneAtoms),
+		Activation:        p.Activation,
 	}
 	d.Gap = min(d.GapNormal, d.GapInverse)
 	return d, nil
@@ -75,7 +111,8 @@ func FromPair(p *fmo.Pair, diene *molecule.Molecule) (Descriptors, error) {
 func FromQuick(q *fmo.Quick, conf Conformation, activation string) Descriptors {
 	return Descriptors{
 		GapNormal: q.GapNormal, GapInverse: q.GapInverse, Gap: min(q.GapNormal, q.GapInverse),
-		Frontier: q.Frontier, Localization: q.Localization, Conformation: conf, Activation: activation,
+		Frontier: q.Frontier, Localization: q.Localization, DieneLocalization: q.DieneLocalization,
+		DieneConjugation: q.DieneConjugationLoss, Conformation: conf, Activation: activation,
 	}
 }
 

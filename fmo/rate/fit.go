@@ -20,21 +20,22 @@ type FitOptions struct {
 	ModelError float64
 }
 
-// DefaultFitOptions fits two coefficients, the controlling gap and the reach (1,4-distance),
-// and fixes the rest: the s-cis coefficient at 1 (the descriptor is already log10 of a
-// population, which under Curtin–Hammett conditions enters the rate one to one), the frontier
-// and localisation coefficients at 0. Why only two: 29 within-series differences from four
-// real series, most of them cyano-ethylenes. With localisation free the fit gives it the
-// unphysical sign (more π energy lost, faster: Hückel localisation grows with every cyano
-// group, so it stands in for acceptor strength) and then ranks 1,3-cyclohexadiene above
-// cyclopentadiene; with the frontier term free its coefficient changes sign between folds.
-// Both are kept as descriptors (reported, available to a user's refit) but not weighted.
+// DefaultFitOptions fits four coefficients — the controlling gap, the diene's conjugation
+// loss, the reach (1,4-distance) and the Lewis-acid mode term — and fixes the rest: the
+// s-cis coefficient at 1 (the descriptor is already log10 of a population, which under
+// Curtin–Hammett conditions enters the rate one to one), the frontier term and the
+// dienophile's localisation at 0. Why those two are not fitted: the dienophile localisation
+// grows with every cyano or carbonyl group exactly as the LUMO falls (on the cyano-ethylenes
+// of sauer1964-cpd its Pearson correlation with −gap is 0.83), so free it takes the unphysical
+// sign (more π energy lost, faster) as a stand-in for acceptor strength; the frontier term
+// changes sign between cross-validation folds. Both are kept as descriptors (reported,
+// available to a user's refit with calibrate) but not weighted.
 func DefaultFitOptions() FitOptions {
-	return FitOptions{
-		Fit:        [NumTerms]bool{true, false, false, false, true},
-		Fixed:      [NumTerms]float64{0, 0, 0, 1, 0},
-		ModelError: 0.5,
-	}
+	var fo FitOptions
+	fo.Fit[TermGap], fo.Fit[TermDieneConjugation], fo.Fit[TermReach], fo.Fit[TermLewis] = true, true, true, true
+	fo.Fixed[TermSCis] = 1
+	fo.ModelError = 0.5
+	return fo
 }
 
 // linFit is the result of one weighted least-squares fit.
@@ -85,11 +86,21 @@ func solve(rows []diffRow, fo FitOptions) (linFit, error) {
 			free = append(free, j)
 		}
 	}
-	p := len(free)
 	f := linFit{coef: fo.Fixed, nRows: len(rows)}
+	// a free term whose descriptor does not vary on these rows (no Lewis-acid pair in a
+	// user's data, or in a fold that left it out) cannot be fitted: it stays at 0
+	var varies []int
 	for _, j := range free {
 		f.coef[j] = 0
+		for _, r := range rows {
+			if math.Abs(r.x[j]) > 1e-6 {
+				varies = append(varies, j)
+				break
+			}
+		}
 	}
+	free = varies
+	p := len(free)
 	if len(rows) <= p {
 		return f, fmt.Errorf("rate: %d rows for %d coefficients", len(rows), p)
 	}

@@ -2,10 +2,12 @@ package rate
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"math"
 
 	"cyclopair/fmo"
+	"cyclopair/huckel"
 	"cyclopair/presets"
 
 	"go.yaml.in/yaml/v3"
@@ -75,20 +77,32 @@ func (m *Model) Predict(d *Descriptors) Estimate {
 }
 
 // Quick is Predict's central value for a QuickScore result, written out for the screening
-// loop (no interval): Σ_j coef_j·(x_j − ref_j). It is linear in −gap, the frontier term,
-// −localisation (per-partner additive: loc = loc_diene + loc_dienophile), and the diene's
-// s-cis and reach terms (per-partner), so an upper bound over a set of partners follows
-// from bounds on each quantity (see the package doc).
+// loop (no interval): Σ_j coef_j·(x_j − ref_j). Every term is either a diene-only quantity
+// (conjugation loss, s-cis, reach), a dienophile-only one (its localisation, the Lewis-acid
+// indicator) or the pair's controlling gap and frontier term, so an upper bound over a set
+// of partners follows from per-partner bounds: the gap from the diene's HOMO and LUMO and
+// the dienophile's, the rest term by term (see the package doc).
 func (m *Model) Quick(q *fmo.Quick, conf *Conformation) float64 {
 	c := &m.Coef
 	r := &m.RefVector
-	return c[0]*(-min(q.GapNormal, q.GapInverse)-r[0]) + c[1]*(q.Frontier-r[1]) +
-		c[2]*(-q.Localization-r[2]) + c[3]*(conf.SCis-r[3]) + c[4]*(-conf.Reach-r[4])
+	return c[TermGap]*(-min(q.GapNormal, q.GapInverse)-r[TermGap]) +
+		c[TermFrontier]*(q.Frontier-r[TermFrontier]) +
+		c[TermDieneConjugation]*(-q.DieneConjugationLoss-r[TermDieneConjugation]) +
+		c[TermDienophileLocalization]*(-q.DienophileLocalization-r[TermDienophileLocalization]) +
+		c[TermSCis]*(conf.SCis-r[TermSCis]) + c[TermReach]*(-conf.Reach-r[TermReach]) +
+		c[TermLewis]*(lewisIndicator(q.Activation)-r[TermLewis])
 }
 
 // Annotate fills p.Rate, the orientation fractions and p.EndoFraction at temperature tempC
 // (°C). diene is the 4π partner's molecule.
+//
+// Under another π method than Hückel (p.Method "ppp") Annotate leaves p unchanged: the
+// model's coefficients are per Hückel |β| and PPP gaps are about three times larger, so its
+// predictions would be orders of magnitude off (see ErrMethod).
 func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
+	if !AppliesTo(p.Method) {
+		return nil
+	}
 	d, err := FromPair(p, diene.Mol)
 	if err != nil {
 		return err
@@ -99,6 +113,13 @@ func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
 	m.Ratios.annotate(p, tempC)
 	return nil
 }
+
+// ErrMethod says why the rate model is not applied under another π method than Hückel.
+var ErrMethod = errors.New("the rate model is fitted on Hückel descriptors (gaps in Hückel |β|; PPP gaps are about 3× larger) and is not applied under --method ppp (rank by score, normal_gap, gap, stabilization or regio_margin, or use --method huckel)")
+
+// AppliesTo reports whether the model applies to pairs computed with π method method
+// ("huckel" or "" for Hückel).
+func AppliesTo(method string) bool { return method == "" || method == huckel.MethodHuckel }
 
 func round6(x float64) float64 { return math.Round(x*1e6) / 1e6 }
 
@@ -131,7 +152,7 @@ type fileModel struct {
 }
 
 // FileFormat names the model-file format.
-const FileFormat = "cyclopair-rate-model/1"
+const FileFormat = "cyclopair-rate-model/2"
 
 // Marshal writes the model as YAML, with header the comment lines put first.
 func (m *Model) Marshal(header string) ([]byte, error) {

@@ -55,7 +55,8 @@ func TestModelRoundTrip(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	d := Descriptors{Gap: 0.6, Frontier: 0.1, Localization: 5.5, Conformation: Conformation{SCis: -1.7, Reach: 0}}
+	d := Descriptors{Gap: 0.6, Frontier: 0.1, Localization: 5.5, DieneLocalization: 2.6, DieneConjugation: 2.5,
+		Conformation: Conformation{SCis: -1.7, Reach: 0}, Activation: fmo.ActivateLewis}
 	a, c := m.Predict(&d), back.Predict(&d)
 	if abs(a.Log10KRel-c.Log10KRel) > 1e-4 || abs(a.Hi-c.Hi) > 1e-4 {
 		t.Errorf("round trip: %+v, back %+v", a, c)

@@ -155,6 +155,17 @@ func Resolve(req Request) (*Config, error) {
 	}
 	c.Options = fmo.NewOptions(c.Params, c.Calibration, c.Calibration.Name)
 	c.Options.NewMethod = newMethod
+	if c.Method != huckel.MethodHuckel && c.RankBy == RankRate {
+		// the rate model's gap coefficient is per Hückel |β|; PPP gaps are about three
+		// times larger, so the model would put every PPP pair orders of magnitude off
+		if req.RankBy != nil {
+			return nil, usage("--rank-by rate: %v", rate.ErrMethod)
+		}
+		if c.Library.Set["rank_by"] {
+			return nil, fmt.Errorf("%s: rank_by: rate: %v", c.Library.Where("rank_by"), rate.ErrMethod)
+		}
+		c.RankBy = RankScore // the default key under another method (see DEVELOPERS.md)
+	}
 	switch {
 	case req.Amine != "":
 		am, err := smiles.Parse(req.Amine)

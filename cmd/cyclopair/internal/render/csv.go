@@ -13,7 +13,7 @@ var csvHeader = []string{
 	"demand", "sustmann_type", "gap_beta", "gap_ev", "gap_normal_beta", "gap_normal_ev",
 	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
 	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
-	"params", "calibration", "caution",
+	"params", "calibration", "caution", "log10_k_rel", "log10_k_rel_lo", "log10_k_rel_hi",
 }
 
 type csvWriter struct {
@@ -48,7 +48,11 @@ func csvRecord(r Row) []string {
 		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
 		label, t(product), stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
 		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
-		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution,
+		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution, "", "", "",
+	}
+	if p.Rate != nil {
+		n := len(rec)
+		rec[n-3], rec[n-2], rec[n-1] = f3(p.Rate.Log10KRel), f3(p.Rate.Interval[0]), f3(p.Rate.Interval[1])
 	}
 	return rec
 }

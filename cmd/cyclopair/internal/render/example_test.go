@@ -26,9 +26,9 @@ func ExampleNew() {
 	//
 	// > **Caution.** Estimates for planning only, not a safety assessment: check the SDS, a hazard review and local rules before any lab work.
 	//
-	// | Rank | Diene | Dienophile | Activation | Demand | Sustmann type | Gap (\|β\|) | Gap (eV) | Orientation | Product | Regio margin (\|β\|) | Regio confidence | Endo | Allowed | Warnings |
-	// |---:|---|---|---|---|---|---:|---:|---|---|---:|---|---|---|---:|
-	// | 1 | isoprene | methyl acrylate | none | normal | I | 0.900 | 8.20 | para | `CC1=CCC(CC1)C(=O)OC` | 0.011 | clear | weak | yes | 0 |
+	// | Rank | Diene | Dienophile | Activation | log k_rel | Demand | Sustmann type | Gap (\|β\|) | Gap (eV) | Orientation | Product | Regio margin (\|β\|) | Regio confidence | Endo | Allowed | Warnings |
+	// |---:|---|---|---|---:|---|---|---:|---:|---|---|---:|---|---|---|---:|
+	// | 1 | isoprene | methyl acrylate | none | – | normal | I | 0.900 | 8.20 | para | `CC1=CCC(CC1)C(=O)OC` | 0.011 | clear | weak | yes | 0 |
 	//
 	// 1 pairs scored, 1 passed the filters, 1 shown.
 }

@@ -25,8 +25,8 @@ func newMarkdown(w io.Writer, rep Report) (*markdownWriter, error) {
 		m.printf("- **%s:** %s\n", strings.ToUpper(k[:1])+k[1:], mdEscape(v))
 	}
 	m.printf("\n> **Caution.** %s\n\n", Caution)
-	m.printf("| Rank | Diene | Dienophile | Activation | Demand | Sustmann type | Gap (\\|β\\|) | Gap (eV) | Orientation | Product | Regio margin (\\|β\\|) | Regio confidence | Endo | Allowed | Warnings |\n")
-	m.printf("|---:|---|---|---|---|---|---:|---:|---|---|---:|---|---|---|---:|\n")
+	m.printf("| Rank | Diene | Dienophile | Activation | log k_rel | Demand | Sustmann type | Gap (\\|β\\|) | Gap (eV) | Orientation | Product | Regio margin (\\|β\\|) | Regio confidence | Endo | Allowed | Warnings |\n")
+	m.printf("|---:|---|---|---|---:|---|---|---:|---:|---|---|---:|---|---|---|---:|\n")
 	return m, m.err
 }
 
@@ -52,7 +52,7 @@ func (m *markdownWriter) WriteRow(r Row) error {
 	}
 	cells := []string{
 		strconv.Itoa(r.Rank), mdEscape(mdDash(p.DieneName)), mdEscape(mdDash(p.DienophileName)),
-		mdEscape(mdDash(p.Activation)), mdDash(p.Demand), mdDash(p.SustmannType),
+		mdEscape(mdDash(p.Activation)), rateCell(p.Rate, "–"), mdDash(p.Demand), mdDash(p.SustmannType),
 		f3(g.Beta), f2(g.EV), label, product, margin, mdEscape(mdDash(p.RegioConfidence)),
 		mdDash(p.Endo), yesNo(p.Allowed), strconv.Itoa(len(p.Warnings)),
 	}

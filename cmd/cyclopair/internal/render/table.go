@@ -2,6 +2,8 @@ package render
 
 import (
 	"bufio"
+
+	"cyclopair/fmo"
 	"fmt"
 	"io"
 	"strconv"
@@ -29,6 +31,7 @@ func newTable(w io.Writer, rep Report, lay Layout) (*tableWriter, error) {
 		{"diene", max(lay.DieneWidth, 5), false},
 		{"dienophile", max(lay.DienophileWidth, 10), false},
 		{"activation", max(lay.ActivationWidth, 10), false},
+		{"log k_rel", 9, true},
 		{"demand", 7, false},
 		{"type", 4, false},
 		{"gap/|β|", 7, true},
@@ -99,6 +102,7 @@ func (t *tableWriter) WriteRow(r Row) error {
 		orDash(p.DieneName),
 		orDash(p.DienophileName),
 		orDash(p.Activation),
+		rateCell(p.Rate, "-"),
 		orDash(p.Demand),
 		orDash(p.SustmannType),
 		f3(g.Beta),
@@ -120,4 +124,13 @@ func (t *tableWriter) Close(s Summary) error {
 		t.err = t.w.Flush()
 	}
 	return t.err
+}
+
+// rateCell is the predicted log10 k relative to the rate model's reference reaction, two
+// decimals, or dash when no rate model was applied.
+func rateCell(r *fmo.RateEstimate, dash string) string {
+	if r == nil {
+		return dash
+	}
+	return f2(r.Log10KRel)
 }
