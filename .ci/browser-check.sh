@@ -74,3 +74,8 @@ fi
 CYCLOPAIR_BROWSER_FILES="$files" CYCLOPAIR_SCREENSHOT="$out/report-test.png" \
 	go test -count=1 -tags browser -run Browser -v ./cmd/cyclopair/internal/htmlreport | grep -E '^(---|ok|FAIL|PASS)|non-white' 
 echo "browser-check: passed; report, SVGs and screenshots in $out"
+
+# The web page of 'cyclopair serve' (issue 12), driven in the same chromium over the DevTools
+# protocol: pair form, bad SMILES, screen upload, oversize upload, no console messages.
+go test -count=1 -tags browser -run BrowserServe -v ./cmd/cyclopair | grep -E '^(---|ok|FAIL|PASS)|expected:|console'
+echo "browser-check: cyclopair serve passed in chromium"

@@ -49,7 +49,6 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    string // canonical SMILES, to tell identical adducts apart from different ones
 	}
 	var cands []cand
 	for di, du := range diene.Units {
@@ -75,7 +74,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 				if s.firstOrder {
 					method = "first-order"
 				}
-				c := cand{s: s, di: di, ei: ei, or: or, product: productKey(pm)}
+				c := cand{s: s, di: di, ei: ei, or: or}
 				c.o = Orientation{
 					Site:            siteName(diene, du, dienophile, eAtoms),
 					DieneAtoms:      dAtoms,
@@ -147,7 +146,19 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		pair.Orientations = append(pair.Orientations, cands[i].o)
 	}
 
-	// Margins.
+	// Margins. Canonical keys tell identical adducts apart from different ones; they are
+	// computed only for the candidates the margins look at (best, its other orientation, and
+	// those ahead of the first different adduct). Canonicalising every candidate cost
+	// O(n² log n) each for n atoms, O(n⁴ log n) per pair on a long polyene (issue 14).
+	keys := make([]string, len(cands))
+	key := func(i int) string {
+		if keys[i] == "" {
+			c := &cands[i]
+			pm, _ := buildProduct(diene, dienophile, c.di, c.ei, c.or)
+			keys[i] = productKey(pm)
+		}
+		return keys[i]
+	}
 	for _, c := range cands[1:] {
 		if c.di == best.di && c.ei == best.ei {
 			pair.RegioMargin = best.s.score - c.s.score
@@ -155,14 +166,15 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		}
 	}
 	var regioPartner string
-	for _, c := range cands {
+	for i, c := range cands {
 		if c.di == best.di && c.ei == best.ei && c.or != best.or {
-			regioPartner = c.product
+			regioPartner = key(i)
 		}
 	}
 	otherSite := false
-	for _, c := range cands[1:] {
-		if (c.di != best.di || c.ei != best.ei) && c.product != best.product && c.product != regioPartner {
+	bestKey := key(0)
+	for i, c := range cands[1:] {
+		if (c.di != best.di || c.ei != best.ei) && key(i+1) != bestKey && key(i+1) != regioPartner {
 			pair.SiteMargin = best.s.score - c.s.score
 			otherSite = true
 			break
@@ -180,7 +192,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	default:
 		pair.RegioConfidence = "no preference"
 	}
-	if best.product == regioPartner {
+	if bestKey == regioPartner {
 		pair.RegioConfidence = "no preference" // both orientations give the same adduct
 	}
 
@@ -248,7 +260,7 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 		siteClass = siteClassOf(dienophile.Activation)
 	}
 	addConfidence(pair, regioClassOf(diene, diene.Units[best.di], dienophile, dienophile.Units[best.ei], pair.Demand), siteClass,
-		best.product == regioPartner, warn)
+		bestKey == regioPartner, warn)
 	return pair, nil
 }
 

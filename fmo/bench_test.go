@@ -1,6 +1,7 @@
 package fmo
 
 import (
+	"strings"
 	"testing"
 	"time"
 
@@ -119,4 +120,34 @@ func BenchmarkQuickScoreAllOrbitals(b *testing.B) {
 		n++
 	}
 	reportPairs(b, n, cpu0)
+}
+
+// BenchmarkPolyeneScaling times the whole pair analysis a 'cyclopair pair' run does (analysis,
+// role check, side channels) for a linear polyene of 50 and of 100 π centres against acrolein,
+// and reports the ratio of the two CPU times: 8 for cubic growth in centres, 16 for quartic
+// (issue 14: before canonical product keys were made lazy the ratio was about 10 and the
+// 100-centre pair took 10 s). Measured figures are in DEVELOPERS.md.
+func BenchmarkPolyeneScaling(b *testing.B) {
+	o := testOptions(b)
+	e := mustPartner(b, "C=CC=O", RoleDienophile, o)
+	run := func(centres int) time.Duration {
+		t0 := cpuTime()
+		d := mustPartner(b, strings.Repeat("C=C", centres/2), RoleDiene, o)
+		p, err := Analyze(d, e, o)
+		if err != nil {
+			b.Fatal(err)
+		}
+		RoleCheck(d, e, p, o)
+		SideChannels(d, e, p, o)
+		return cpuTime() - t0
+	}
+	var t50, t100 time.Duration
+	for b.Loop() {
+		t50 += run(50)
+		t100 += run(100)
+	}
+	if t50 > 0 {
+		b.ReportMetric(t100.Seconds()/t50.Seconds(), "cpu100/cpu50")
+	}
+	b.ReportMetric(t100.Seconds()/float64(b.N), "cpu-s/pair100")
 }

@@ -22,7 +22,9 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	du, eu := dp.Units[di], ep.Units[ei]
 	ds, es := dp.sides[di], ep.sides[ei]
 	off := len(dp.Mol.Atoms)
-	m = &molecule.Molecule{Name: "adduct"}
+	m = &molecule.Molecule{Name: "adduct",
+		Atoms: make([]molecule.Atom, 0, len(dp.Mol.Atoms)+len(ep.Mol.Atoms)),
+		Bonds: make([]molecule.Bond, 0, len(dp.Mol.Bonds)+len(ep.Mol.Bonds)+2)}
 	add := func(src *molecule.Molecule, sd *side, offset int) {
 		for i, a := range src.Atoms {
 			a.Charge = sd.charge[i]

@@ -276,8 +276,12 @@ func resolveCalibration(s *streams, spec string, p *huckel.Params) (huckel.Calib
 		}
 		return cal, nil
 	}
-	f, err := os.Open(spec)
+	f, err := openRegular(spec, "calibration")
 	if err != nil {
+		var ie *inputError
+		if errors.As(err, &ie) {
+			return huckel.Calibration{}, err
+		}
 		hint := "check the path and permissions"
 		if errors.Is(err, os.ErrNotExist) {
 			hint = "no such file; write one with 'cyclopair calibrate DATA.yaml --out " + spec + "', or use default"

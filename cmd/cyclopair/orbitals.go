@@ -22,6 +22,8 @@ type orbitalsOptions struct {
 	calibration string // default, or a file from 'cyclopair calibrate --out'
 	methodOptions
 	limits inputLimits
+	// listFormat and nameField: --input-format and --name-field for '-' (orbitals_list.go).
+	listFormat, nameField string
 }
 
 func newOrbitalsCmd(s *streams) *cobra.Command {
@@ -83,6 +85,7 @@ Results are estimates for planning, not safety assessments.`,
 	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
 	addMethodFlags(cmd.Flags(), &opts.methodOptions, defaultMethod)
 	opts.limits.flags(cmd, true)
+	addOrbitalsListFlags(cmd, opts)
 	return cmd
 }
 
@@ -121,7 +124,16 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		}
 		return out.write(res)
 	}
-	if len(args) == 1 && args[0] == "-" {
+	if len(args) == 1 && args[0] == "-" && opts.listFormat != "" {
+		n, bad, err := readOrbitalsList(s, opts, handle)
+		if err != nil {
+			return err
+		}
+		failed, total = failed+bad, total+bad
+		if n+bad == 0 {
+			return &inputError{errors.New("stdin: no molecules read")}
+		}
+	} else if len(args) == 1 && args[0] == "-" {
 		sc := bufio.NewScanner(s.in)
 		sc.Buffer(make([]byte, 64*1024), 1<<20)
 		line := 0

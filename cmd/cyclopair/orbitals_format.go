@@ -1,6 +1,7 @@
 package main
 
 import (
+	"cyclopair/cmd/cyclopair/internal/render"
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
@@ -166,6 +167,9 @@ type orbitalsWriter struct {
 }
 
 func newOrbitalsWriter(w io.Writer, format string, p *huckel.Params, cal huckel.Calibration) *orbitalsWriter {
+	if format != "json" && format != "csv" {
+		w = render.TerminalSafe(w) // the table shows names and SMILES as the user gave them
+	}
 	return &orbitalsWriter{w: w, format: format, p: p, cal: cal}
 }
 
@@ -219,10 +223,11 @@ func csvRecord(r *orbitalsResult, p *huckel.Params, cal huckel.Calibration) []st
 		hl, ll := o.Levels[o.HOMO], o.Levels[o.LUMO]
 		gb, ge = fmtNum(hl.X-ll.X), fmtNum(levelEV(cal, ll)-levelEV(cal, hl))
 	}
-	return []string{r.in.smiles, r.in.name, p.Name, strconv.Itoa(o.Electrons), fmtNum(o.PiEnergy),
+	t := render.SafeCell // text cells only
+	return []string{t(r.in.smiles), t(r.in.name), t(p.Name), strconv.Itoa(o.Electrons), fmtNum(o.PiEnergy),
 		hi, hx, he, hd, li, lx, le, ld, gb, ge, strconv.FormatBool(o.Partial),
-		strconv.Itoa(len(r.ps.Centres)), strconv.Itoa(len(r.ps.Fragments)), strings.Join(o.Warnings, " | "),
-		cal.Name, fmtNum(cal.R2), fmtNum(cal.RMSE)}
+		strconv.Itoa(len(r.ps.Centres)), strconv.Itoa(len(r.ps.Fragments)), t(strings.Join(o.Warnings, " | ")),
+		t(cal.Name), fmtNum(cal.R2), fmtNum(cal.RMSE)}
 }
 
 // table writes the human-readable block of one molecule.

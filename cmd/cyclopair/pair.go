@@ -72,9 +72,9 @@ and local rules before any lab work.`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, args []string) error {
 			switch opts.format {
-			case "table", "json", "html":
+			case "table", "json", "html", "sdf":
 			default:
-				return &usageError{fmt.Errorf("--format %q: want table, json or html", opts.format)}
+				return &usageError{fmt.Errorf("--format %q: want table, json, html or sdf", opts.format)}
 			}
 			if strings.TrimSpace(opts.diene) == "" || strings.TrimSpace(opts.dienophile) == "" {
 				return &usageError{errors.New("both --diene and --dienophile are required")}
@@ -113,7 +113,7 @@ and local rules before any lab work.`,
 	f.Float64Var(&opts.lewisH, "lewis-h", 0, "Lewis-acid strength for --activate lewis: h of the bound carbonyl O (default: the parameter set's O=LA value)")
 	f.StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
 	f.StringVar(&opts.params, "params", presets.DefaultParams, "parameter set: a built-in name (see 'cyclopair params') or a YAML file")
-	f.StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines, one object per activation) or html (one self-contained page with pictures)")
+	f.StringVar(&opts.format, "format", "table", "output format: table, json (JSON Lines, one object per activation), html (one self-contained page with pictures) or sdf (the product of each activation as an SD record with the figures as data items)")
 	f.StringVar(&opts.svg, "svg", "", "also write the energy-level diagram (SVG) to `FILE`")
 	f.BoolVar(&opts.allOrbitals, "all-orbitals", false, "sum the orbital term over every occupied × empty level pair instead of the frontier levels only")
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
@@ -164,6 +164,10 @@ func runPair(s *streams, opts *pairOptions) error {
 	var page *pairHTML // --format html (draw_html.go)
 	if opts.format == "html" {
 		page = newPairHTML(s, diene, dienophile, fo, act, cal)
+	}
+	var sdf *pairSDF // --format sdf (pair_sdf.go)
+	if opts.format == "sdf" {
+		sdf = newPairSDF(s, fo, cal)
 	}
 	// Are the partners in the right roles? Checked once, on the unactivated substrates (the
 	// "none" variant when it was asked for, else analysed here).
@@ -223,6 +227,10 @@ func runPair(s *streams, opts *pairOptions) error {
 			s.out.Write(append(b, '\n'))
 		case "html":
 			if err := page.add(pair); err != nil {
+				return err
+			}
+		case "sdf":
+			if err := sdf.add(pair); err != nil {
 				return err
 			}
 		default:

@@ -28,7 +28,7 @@ func yesNo(b bool) string {
 // writePairTable prints one analysed pair for people. Every number is formatted with a fixed
 // precision and nothing is printed in map order, so the output is deterministic.
 func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
-	w := s.out
+	w := render.TerminalSafe(s.out) // names and SMILES come from the user
 	named := func(name, smi string) string {
 		if name == "" || name == smi {
 			return smi

@@ -32,9 +32,13 @@ func resolveParams(spec string) (*huckel.Params, error) {
 	if slices.Contains(presets.ParamNames(), spec) {
 		return presets.Params(spec)
 	}
-	f, err := os.Open(spec)
+	f, err := openRegular(spec, "parameter file")
 	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
+		var ie *inputError
+		switch {
+		case errors.As(err, &ie):
+			return nil, err
+		case errors.Is(err, os.ErrNotExist):
 			return nil, &inputError{fmt.Errorf("%s: no such parameter set or file (built-in sets: %s)",
 				errtext.Clip(spec), strings.Join(presets.ParamNames(), ", "))}
 		}
@@ -44,6 +48,12 @@ func resolveParams(spec string) (*huckel.Params, error) {
 	data, err := io.ReadAll(io.LimitReader(f, maxParamsFile+1))
 	if err != nil {
 		return nil, &inputError{fmt.Errorf("%s: %v (check the file)", errtext.Clip(spec), unwrapPathError(err))}
+	}
+	if len(data) > maxParamsFile {
+		return nil, &inputError{fmt.Errorf("%s: larger than %d bytes (a parameter file is a few kilobytes)", errtext.Clip(spec), maxParamsFile)}
+	}
+	if err := yamlMappingCheck(data, errtext.Clip(spec), "parameter file"); err != nil {
+		return nil, err
 	}
 	user, err := huckel.ParseParams(data, spec)
 	if err != nil {

@@ -8,27 +8,107 @@ import (
 	"os"
 	"os/signal"
 	"strings"
+	"sync/atomic"
+	"syscall"
 
 	"cyclopair/huckel/errtext"
 
 	"github.com/spf13/cobra"
+
+	"cyclopair/cmd/cyclopair/internal/render"
 )
 
-// Exit codes (../shared/DESIGN.md): 0 success, 1 the analysis ran but some inputs failed,
-// 2 bad usage or unreadable input.
+// Exit codes (../shared/DESIGN.md, README "Limits and exit codes"): 0 success, 1 the analysis
+// ran but some inputs failed, 2 bad usage, unreadable input or output that could not be
+// written, 128+N stopped by signal N (130 SIGINT, 143 SIGTERM) after flushing every complete
+// row.
 const (
 	exitOK      = 0
 	exitPartial = 1
 	exitUsage   = 2
+	exitSignal  = 128 // + the signal number
 )
 
 // streams carries the command's input and outputs so tests can run the whole CLI in-process.
 type streams struct {
 	in  io.Reader
 	out io.Writer // data only: tables, JSON, CSV, SVG, HTML
-	err io.Writer // people: warnings, progress, errors
+	err io.Writer // people: warnings, errors (control characters escaped, render.TerminalSafe)
+	// rawErr is stderr unescaped, for the progress bar's carriage returns.
+	rawErr io.Writer
 	// errIsTerminal reports whether err is an interactive terminal (progress bars draw only then).
 	errIsTerminal bool
+	// cancellable, when set by a command (screen, demo) once it watches its context, makes
+	// SIGINT/SIGTERM cancel that context so the command flushes its complete rows and stops;
+	// before that, and for commands that do not watch it, a signal ends the process at once.
+	cancellable atomic.Bool
+}
+
+// interruptedError is a command stopped by a signal after writing what it had: the exit
+// code is 128 + the signal number.
+type interruptedError struct {
+	sig  syscall.Signal
+	what string // e.g. "128 rows written before the stop"
+}
+
+func (e *interruptedError) Error() string {
+	return fmt.Sprintf("interrupted by %s: %s", signalName(e.sig), e.what)
+}
+
+func signalName(s syscall.Signal) string {
+	switch s {
+	case syscall.SIGINT:
+		return "SIGINT"
+	case syscall.SIGTERM:
+		return "SIGTERM"
+	}
+	return s.String()
+}
+
+// signalCause is the cancellation cause recorded when a signal stops a command.
+type signalCause struct{ sig syscall.Signal }
+
+func (c signalCause) Error() string { return "stopped by " + signalName(c.sig) }
+
+// interrupted builds the error a cancellable command returns once ctx was canceled: the
+// signal comes from the context's cause (SIGINT when the cause is not a signal).
+func interrupted(ctx context.Context, what string) error {
+	sig := syscall.SIGINT
+	var sc signalCause
+	if errors.As(context.Cause(ctx), &sc) {
+		sig = sc.sig
+	}
+	return &interruptedError{sig: sig, what: what}
+}
+
+// watchSignals routes SIGINT and SIGTERM: while s.cancellable is set the first one cancels
+// the returned context (a second one kills the process, the default action); otherwise the
+// process says so on stderr and exits with 128 + the signal number at once.
+func watchSignals(s *streams) (context.Context, func()) {
+	ctx, cancel := context.WithCancelCause(context.Background())
+	ch := make(chan os.Signal, 1)
+	signal.Notify(ch, os.Interrupt, syscall.SIGTERM)
+	done := make(chan struct{})
+	go func() {
+		select {
+		case <-done:
+			return
+		case v := <-ch:
+			sig, _ := v.(syscall.Signal)
+			signal.Stop(ch)
+			if s.cancellable.Load() {
+				cancel(signalCause{sig})
+				return
+			}
+			fmt.Fprintf(s.err, "cyclopair: interrupted by %s\n", signalName(sig))
+			os.Exit(exitSignal + int(sig))
+		}
+	}()
+	return ctx, func() {
+		signal.Stop(ch)
+		close(done)
+		cancel(nil)
+	}
 }
 
 // usageError marks a bad flag or argument: usage is printed and the exit code is 2.
@@ -77,6 +157,7 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 		newPairCmd(s),
 		newCalibrateCmd(s),
 		newValidateCmd(s),
+		newServeCmd(s),
 	)
 	return root
 }
@@ -84,15 +165,23 @@ a stated linear calibration. Results are estimates for planning, not safety asse
 // run is the whole program: it builds a fresh command tree, executes it and maps errors to
 // exit codes. Every error is printed once, to stderr, as "cyclopair: ...".
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	s := &streams{in: stdin, out: stdout, err: stderr, errIsTerminal: isTerminal(stderr)}
+	out := &checkedWriter{w: stdout}
+	s := &streams{in: stdin, out: out, err: render.TerminalSafe(stderr), rawErr: stderr, errIsTerminal: isTerminal(stderr)}
+	stderr = s.err // every message below is escaped too
 	root := newRootCmd(s)
 	root.SetArgs(args)
 	root.SetIn(stdin)
-	root.SetOut(stdout)
+	root.SetOut(out)
 	root.SetErr(stderr)
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := watchSignals(s)
 	defer stop()
 	err := root.ExecuteContext(ctx)
+	if out.err != nil {
+		// One line whatever the command made of the failed write (the write error itself, a
+		// partial batch): what was written is incomplete, so the run did not succeed.
+		fmt.Fprintf(stderr, "cyclopair: standard output: %s (the output is incomplete)\n", writeErrText(out.err))
+		return exitUsage
+	}
 	if err == nil {
 		return exitOK
 	}
@@ -101,12 +190,18 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "cyclopair: %v\n", err)
 		return exitPartial
 	}
+	var ie *interruptedError
+	if errors.As(err, &ie) {
+		fmt.Fprintf(stderr, "cyclopair: %v\n", err)
+		return exitSignal + int(ie.sig)
+	}
 	msg := strings.TrimPrefix(err.Error(), "cyclopair: ")
-	fmt.Fprintf(stderr, "cyclopair: %s\n", escapeLines(msg))
 	var ue *usageError
 	if errors.As(err, &ue) || isCobraUsage(err) {
-		fmt.Fprintf(stderr, "run 'cyclopair %s --help' for usage\n", commandPath(root, args))
+		// one line, the hint in the rule's "(<hint>)" place
+		msg += fmt.Sprintf(" (run '%s --help' for usage)", strings.TrimSpace("cyclopair "+commandPath(root, args)))
 	}
+	fmt.Fprintf(stderr, "cyclopair: %s\n", escapeLines(msg))
 	return exitUsage
 }
 
@@ -135,4 +230,34 @@ func commandPath(root *cobra.Command, args []string) string {
 		return ""
 	}
 	return strings.TrimPrefix(c.CommandPath(), "cyclopair ")
+}
+
+// checkedWriter keeps the first write error on standard output; later writes fail at once
+// with it, so a command stops producing rows nobody receives, and run reports it once.
+type checkedWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (c *checkedWriter) Write(p []byte) (int, error) {
+	if c.err != nil {
+		return 0, c.err
+	}
+	n, err := c.w.Write(p)
+	if err == nil && n < len(p) {
+		err = io.ErrShortWrite
+	}
+	if err != nil {
+		c.err = err
+	}
+	return n, err
+}
+
+// writeErrText is a write error without the file name Go adds ("write /dev/stdout: ...").
+func writeErrText(err error) string {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return "write failed: " + pe.Err.Error()
+	}
+	return "write failed: " + err.Error()
 }

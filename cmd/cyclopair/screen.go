@@ -16,6 +16,7 @@ import (
 	"cyclopair/cmd/cyclopair/internal/render"
 	"cyclopair/fmo"
 	"cyclopair/fmo/screen"
+	"cyclopair/fmo/substrates"
 	"cyclopair/huckel"
 	"cyclopair/presets"
 )
@@ -43,6 +44,10 @@ type screenOptions struct {
 	rateModel   string  // --rate-model FILE
 	temperature float64 // --temperature °C for the isomer shares
 	methodOptions
+	// inputFormat and nameField: --input-format and --name-field (list_format.go);
+	// dienesData and dienophilesData are list contents already read (cyclopair serve).
+	inputFormat, nameField      string
+	dienesData, dienophilesData []byte
 }
 
 func newScreenCmd(s *streams) *cobra.Command {
@@ -62,8 +67,11 @@ to cyclopentadiene + acrylonitrile from the fitted model of 'cyclopair validate'
 first), normal_gap (LUMO(dienophile) − HOMO(diene), smallest first), gap (controlling gap),
 stabilization, regio_margin, score (larger first), none (pair order of the input, streamed).
 
-Instead of (or on top of) a YAML file, --dienes and --dienophiles read CSV (name,smiles) or
-plain files (one SMILES per line, optionally followed by a name). Command-line flags override
+Instead of (or on top of) a YAML file, --dienes and --dienophiles read list files; the format
+comes from the extension or --input-format: .smi/.smiles/.txt (SMILES, whitespace, then the
+rest of the line as the name), .csv/.tsv (a header row naming the smiles and name columns in
+any order; without one, name,smiles rows), .sdf/.mol (MDL molfiles; the title line or
+--name-field PROP as the name). Command-line flags override
 the file's settings. Rows that fail (bad SMILES, unknown preset, nothing to react) are listed
 on stderr at the end and the exit code is 1; the other rows are screened.
 
@@ -84,6 +92,9 @@ Results are estimates for planning, not safety assessments.`,
 				return &usageError{errors.New("give a substrate file, or both --dienes and --dienophiles")}
 			}
 			o.changed = c.Flags().Changed
+			if err := checkListFormat(o); err != nil {
+				return err
+			}
 			return runScreen(c.Context(), s, o, nil)
 		},
 	}
@@ -91,8 +102,7 @@ Results are estimates for planning, not safety assessments.`,
 	cmd.Flags().StringVar(&o.dienes, "dienes", "", "CSV (name,smiles) or one-SMILES-per-line `file` of 4π partners (replaces the file's dienes)")
 	cmd.Flags().StringVar(&o.dienophiles, "dienophiles", "", "CSV or one-SMILES-per-line `file` of 2π partners (replaces the file's dienophiles)")
 	cmd.Flags().Bool("list-presets", false, "list the named common substrates usable as 'preset: NAME' and exit")
-	_ = cmd.MarkFlagFilename("dienes", "csv", "txt", "smi")
-	_ = cmd.MarkFlagFilename("dienophiles", "csv", "txt", "smi")
+	addListFormatFlags(cmd, o)
 	return cmd
 }
 
@@ -110,7 +120,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
 	f.Float64Var(&o.maxGap, "max-gap", 0, "keep only pairs whose controlling gap is at most `X` |β|")
 	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
-	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html")
+	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html, sdf (each row's product as an SD record)")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
 	addMethodFlags(f, &o.methodOptions, "")
@@ -126,6 +136,8 @@ func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 	req := screen.Request{
 		File: o.file, Data: data, Dienes: o.dienes, Dienophiles: o.dienophiles, Stdin: s.in,
 		Params: o.params, Calibration: o.calibration, Amine: o.amine, Workers: o.workers, Shard: o.shard,
+		DienesData: o.dienesData, DienophilesData: o.dienophilesData,
+		InputFormat: substrates.Format(o.inputFormat), NameField: o.nameField,
 		LoadParams: resolveParams,
 		LoadCalibration: func(spec string, p *huckel.Params) (huckel.Calibration, error) {
 			return resolveCalibration(s, spec, p)
@@ -202,15 +214,21 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		return &inputError{err}
 	}
 	lib := cfg.Library
-	prepProg := newProgress(s.err, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	if cfg.RateModel, err = loadRateModel(o.rateModel); err != nil {
 		return err
 	}
 	cfg.TemperatureC = o.temperature
+	// From here on a signal stops the work and the rows already complete are flushed.
+	s.cancellable.Store(true)
+	defer s.cancellable.Store(false)
+	prepProg := newProgress(s.rawErr, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
 	if err != nil {
-		return fmt.Errorf("interrupted while preparing molecules: %w", err)
+		if ctx.Err() != nil {
+			return interrupted(ctx, "stopped while preparing molecules, no rows written")
+		}
+		return fmt.Errorf("preparing molecules: %w", err)
 	}
 	failures := append([]error(nil), cfg.Bad...)
 	for _, f := range prep.Failures {
@@ -263,7 +281,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	if cfg.Top == 0 && hi-lo > 100_000 {
 		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
 	}
-	prog := newProgress(s.err, s.errIsTerminal, "screen", hi-lo)
+	prog := newProgress(s.rawErr, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
 	var pairFailures []error
 	so := cfg.ScreenOptions()
@@ -271,7 +289,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	so.Selected = func(n int64) {
 		prog.Stop()
 		prog = nil
-		rowProg = newProgress(s.err, s.errIsTerminal && n >= 200, "analyse", n)
+		rowProg = newProgress(s.rawErr, s.errIsTerminal && n >= 200, "analyse", n)
 	}
 	st, runErr := prep.Screen(ctx, so, func(r screen.ScreenRow) error {
 		rowProg.Add(1)
@@ -291,7 +309,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	printFailures(s, failures)
 	if runErr != nil {
 		if errors.Is(runErr, context.Canceled) {
-			return fmt.Errorf("interrupted: %d rows written before the stop", st.Shown)
+			return interrupted(ctx, fmt.Sprintf("%d complete rows written before the stop", st.Shown))
 		}
 		return runErr
 	}

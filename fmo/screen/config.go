@@ -1,6 +1,7 @@
 package screen
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
@@ -25,6 +26,13 @@ type Request struct {
 	Dienes      string // CSV or one-SMILES-per-line file replacing the file's dienes ("-": Stdin)
 	Dienophiles string // the same for the dienophiles
 	Stdin       io.Reader
+	// DienesData and DienophilesData, when not nil, are the list files' contents already
+	// read (uploads of the web page); Dienes and Dienophiles then only name them.
+	DienesData, DienophilesData []byte
+	// InputFormat is the format of the list files ("" chooses it from each file's name,
+	// substrates.FormatOf); NameField is the SD property holding the name ("" title line).
+	InputFormat substrates.Format
+	NameField   string
 
 	// Settings given on the command line; nil keeps the file's setting (or the default).
 	Activate       *string // comma-separated activation modes
@@ -192,17 +200,23 @@ func (c *Config) load(req Request) (dir string, err error) {
 	}
 	for _, side := range []struct {
 		file string
+		data []byte
 		dst  *[]substrates.Substrate
 		max  int
-	}{{req.Dienes, &c.Library.Dienes, 4}, {req.Dienophiles, &c.Library.Dienophiles, 2}} {
+	}{{req.Dienes, req.DienesData, &c.Library.Dienes, 4}, {req.Dienophiles, req.DienophilesData, &c.Library.Dienophiles, 2}} {
 		if side.file == "" {
 			continue
 		}
-		r, closeFn, err := openInput(req.Stdin, side.file)
-		if err != nil {
-			return "", err
+		var r io.Reader = bytes.NewReader(side.data)
+		closeFn := func() {}
+		if side.data == nil {
+			r, closeFn, err = openInput(req.Stdin, side.file)
+			if err != nil {
+				return "", err
+			}
 		}
-		subs, bad, err := substrates.LoadList(r, side.file, side.max, substrates.DefaultMaxFileBytes)
+		subs, bad, err := substrates.LoadListAs(r, side.file, substrates.ListOptions{Format: req.InputFormat,
+			NameField: req.NameField, PinMax: side.max, MaxBytes: substrates.DefaultMaxFileBytes})
 		closeFn()
 		if err != nil {
 			return "", err

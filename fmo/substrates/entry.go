@@ -31,11 +31,15 @@ func (w *walker) list(n *yaml.Node, key string, pinMax int) []Substrate {
 		w.fail(n, key, ErrBadValue, fmt.Sprintf("%d entries, the limit is %d", len(n.Content), maxRows), "split the screen")
 		return nil
 	}
-	var out []Substrate
-	names := map[string]int{}
+	out := make([]Substrate, 0, len(n.Content))
+	names := make(map[string]int, len(n.Content))
 	for i, it := range n.Content {
 		path := fmt.Sprintf("%s[%d]", key, i)
 		s, ok := w.entry(it, path, pinMax)
+		// The entry's node subtree is not needed any more (errors keep their positions):
+		// let it go while the rows are built, so the tree and the molecules do not peak
+		// together.
+		n.Content[i] = nil
 		if !ok {
 			continue
 		}

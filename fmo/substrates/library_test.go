@@ -211,19 +211,19 @@ dienophiles:
 
 func TestLoadList(t *testing.T) {
 	cases := []struct {
-		name, src string
-		names     []string
-		bad       []string
+		name, file, src string
+		names           []string
+		bad             []string
 	}{
-		{"plain", "# dienes\nC1=CC=CC1 cyclopentadiene\n\nC=CC=C\tbutadiene\nC=CC(C)=C\nC1=CC(\n", []string{"cyclopentadiene", "butadiene", "C=CC(C)=C"},
+		{"plain", "l.txt", "# dienes\nC1=CC=CC1 cyclopentadiene\n\nC=CC=C\tbutadiene\nC=CC(C)=C\nC1=CC(\n", []string{"cyclopentadiene", "butadiene", "C=CC(C)=C"},
 			[]string{"l.txt: 6:7: \"C1=CC(\": SMILES \"C1=CC(\" column 7"}},
-		{"csv with header", "name,smiles\ncpd,C1=CC=CC1\n\"a, b\",C=CC=C\nbad,C1\nx,y,z\n", []string{"cpd", "a, b"},
-			[]string{"l.txt: 4:6: \"bad\": SMILES \"C1\" column 2", "l.txt: 5:1: 3 fields"}},
-		{"csv without header", "cpd,C1=CC=CC1\ncpd,C=C\n", []string{"cpd"}, []string{"already used on line 1"}},
+		{"csv with header", "l.csv", "name,smiles\ncpd,C1=CC=CC1\n\"a, b\",C=CC=C\nbad,C1\nx,y,z\n", []string{"cpd", "a, b"},
+			[]string{"l.csv: 4:6: \"bad\": SMILES \"C1\" column 2", "l.csv: 5:1: 3 fields"}},
+		{"csv without header", "l.csv", "cpd,C1=CC=CC1\ncpd,C=C\n", []string{"cpd"}, []string{"already used on line 1"}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			subs, bad, err := LoadList(strings.NewReader(c.src), "l.txt", 4, 0)
+			subs, bad, err := LoadList(strings.NewReader(c.src), c.file, 4, 0)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -285,7 +285,9 @@ func FuzzLoadLibrary(f *testing.F) {
 		if err != nil && err.Error() == "" {
 			t.Fatal("empty error message")
 		}
-		_, _, _ = LoadList(strings.NewReader(string(data)), "fuzz.txt", 4, 1<<16)
+		for _, name := range []string{"fuzz.txt", "fuzz.csv", "fuzz.tsv", "fuzz.sdf"} { // every list format
+			_, _, _ = LoadList(strings.NewReader(string(data)), name, 4, 1<<16)
+		}
 	})
 }
 

@@ -14,12 +14,9 @@ import (
 	"cyclopair/huckel/yamlfile"
 )
 
-// LoadList reads one side of a screen from a CSV file (name,smiles rows, an optional header
-// row "name,smiles") or a plain text file (one SMILES per line, optionally followed by
-// whitespace and a name; blank lines and lines starting with # are skipped). The format is
-// CSV when the first data line contains a comma. Each bad row is returned in bad; the good
-// rows load. err is non-nil only when the text cannot be read at all.
-func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Substrate, bad yamlfile.ErrorList, err error) {
+// loadText reads a SMILES line file, or a CSV or TSV file (FormatOf and Format document
+// the layouts). The format is chosen by the caller, never by sniffing the content.
+func loadText(r io.Reader, name string, format Format, pinMax int, maxBytes int64) (subs []Substrate, bad yamlfile.ErrorList, err error) {
 	data, err := readCapped(r, name, maxBytes)
 	if err != nil {
 		return nil, nil, err
@@ -28,20 +25,10 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		return nil, nil, e
 	}
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
-	isCSV := false
-	sc := bufio.NewScanner(bytes.NewReader(data))
-	sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
-	for sc.Scan() {
-		l := strings.TrimSpace(sc.Text())
-		if l == "" || strings.HasPrefix(l, "#") {
-			continue
-		}
-		isCSV = strings.Contains(l, ",")
-		break
-	}
+	isCSV := format == FormatCSV || format == FormatTSV
 	names := map[string]int{}
-	add := func(line, col int, nm, smi string) {
-		s := Substrate{Name: nm, SMILES: smi, File: name, Line: line, Col: col}
+	add := func(line, col int, nm, smi, notes string) {
+		s := Substrate{Name: nm, SMILES: smi, Notes: notes, File: name, Line: line, Col: col}
 		if s.Name == "" {
 			s.Name = smi
 		}
@@ -75,49 +62,78 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		subs = append(subs, s)
 	}
 	if isCSV {
-		cr := csv.NewReader(bytes.NewReader(data))
-		cr.FieldsPerRecord = -1
-		cr.Comment = '#'
-		cr.TrimLeadingSpace = true
+		// One record per line: a malformed line (an unterminated quote, a stray quote) is
+		// listed with its line and the reader goes on at the next line, so one bad quote
+		// cannot swallow the rows after it. Quoted fields therefore cannot span lines
+		// (a name or a SMILES never holds a line break).
 		first := true
-		for {
-			rec, err := cr.Read()
-			if err == io.EOF {
-				break
-			}
-			if err != nil {
-				var pe *csv.ParseError
-				if errors.As(err, &pe) {
-					bad = append(bad, &yamlfile.Error{File: name, Line: pe.Line, Col: pe.Column, Msg: "CSV: " + pe.Err.Error(),
-						Hint: "quote fields that contain commas or quotes", Err: ErrFileSyntax, Cause: err})
-					if len(bad) > 1000 {
-						return subs, bad, nil
-					}
-					continue
-				}
-				return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
-			}
-			line, col := cr.FieldPos(0) // valid only for a record read without error
-			if first && len(rec) >= 2 && strings.EqualFold(strings.TrimSpace(rec[0]), "name") && strings.EqualFold(strings.TrimSpace(rec[1]), "smiles") {
-				first = false
+		var cols *csvColumns // from the header row; nil: name,smiles records
+		lineNo := 0
+		sc := bufio.NewScanner(bytes.NewReader(data))
+		sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
+		for sc.Scan() {
+			lineNo++
+			raw := sc.Text()
+			if t := strings.TrimSpace(raw); t == "" || strings.HasPrefix(t, "#") {
 				continue
 			}
-			first = false
-			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+			cr := csv.NewReader(strings.NewReader(raw))
+			cr.FieldsPerRecord = -1
+			cr.TrimLeadingSpace = true
+			if format == FormatTSV {
+				cr.Comma = '\t'
+			}
+			rec, err := cr.Read()
+			if err != nil {
+				col := 1
+				var pe *csv.ParseError
+				if errors.As(err, &pe) {
+					col = pe.Column
+					err = pe.Err
+				}
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: "CSV: " + err.Error() + "; row skipped",
+					Hint: "quote fields that contain commas or quotes; a quoted field ends on its line", Err: ErrFileSyntax})
+				if len(bad) > 1000 {
+					return subs, bad, nil
+				}
+				continue
+			}
+			_, col := cr.FieldPos(0)
+			if first {
+				first = false
+				if cols = headerColumns(rec); cols != nil {
+					continue
+				}
+			}
+			if cols != nil {
+				if len(rec) != len(cols.header) {
+					bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want %d (as in the header row)", len(rec), len(cols.header)),
+						Err: ErrBadValue})
+					continue
+				}
+				nm := ""
+				if cols.name >= 0 {
+					nm = strings.TrimSpace(rec[cols.name])
+				}
+				_, scol := cr.FieldPos(cols.smiles)
+				add(lineNo, scol, nm, strings.TrimSpace(rec[cols.smiles]), cols.notes(rec))
 				continue
 			}
 			if len(rec) != 2 {
-				bad = append(bad, &yamlfile.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
-					Err: ErrBadValue})
+				bad = append(bad, &yamlfile.Error{File: name, Line: lineNo, Col: col, Msg: fmt.Sprintf("%d fields, want 2 (name,smiles)", len(rec)),
+					Hint: "or start the file with a header row naming the smiles and name columns", Err: ErrBadValue})
 				continue
 			}
 			_, scol := cr.FieldPos(1)
-			add(line, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]))
+			add(lineNo, scol, strings.TrimSpace(rec[0]), strings.TrimSpace(rec[1]), "")
+		}
+		if err := sc.Err(); err != nil {
+			return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 		}
 		return subs, bad, nil
 	}
 	lineNo := 0
-	sc = bufio.NewScanner(bytes.NewReader(data))
+	sc := bufio.NewScanner(bytes.NewReader(data))
 	sc.Buffer(make([]byte, 0, 64<<10), len(data)+1)
 	for sc.Scan() {
 		lineNo++
@@ -131,10 +147,70 @@ func LoadList(r io.Reader, name string, pinMax int, maxBytes int64) (subs []Subs
 		if i := strings.IndexAny(smi, "\t"); i >= 0 {
 			smi, nm = smi[:i], smi[i+1:]+" "+nm
 		}
-		add(lineNo, col, strings.TrimSpace(nm), smi)
+		add(lineNo, col, strings.TrimSpace(nm), smi, "")
 	}
 	if err := sc.Err(); err != nil {
 		return subs, bad, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrFileSyntax, Cause: err}
 	}
 	return subs, bad, nil
+}
+
+// csvColumns is the layout a CSV or TSV header row gives: the SMILES column, the name
+// column (-1 when absent) and the header of every column (the others become notes).
+type csvColumns struct {
+	header       []string
+	smiles, name int
+}
+
+// headerColumns reads rec as a header row: it is one when a field says "smiles" (any case).
+// It returns nil for a data row.
+func headerColumns(rec []string) *csvColumns {
+	c := &csvColumns{smiles: -1, name: -1}
+	for i, h := range rec {
+		h = strings.TrimSpace(h)
+		c.header = append(c.header, h)
+		switch strings.ToLower(h) {
+		case "smiles":
+			if c.smiles < 0 {
+				c.smiles = i
+			}
+		case "name":
+			if c.name < 0 {
+				c.name = i
+			}
+		}
+	}
+	if c.smiles < 0 {
+		return nil
+	}
+	return c
+}
+
+// notes joins the other columns of rec as "column: value; ..." (empty values left out),
+// at most maxNotesBytes long.
+func (c *csvColumns) notes(rec []string) string {
+	var b strings.Builder
+	for i, v := range rec {
+		v = strings.TrimSpace(v)
+		if i == c.smiles || i == c.name || v == "" {
+			continue
+		}
+		if b.Len() > 0 {
+			b.WriteString("; ")
+		}
+		b.WriteString(c.header[i] + ": " + v)
+	}
+	return clipNotes(b.String())
+}
+
+// clipNotes cuts notes to at most maxNotesBytes (at a character boundary, with "…").
+func clipNotes(n string) string {
+	if len(n) > maxNotesBytes {
+		cut := maxNotesBytes
+		for cut > 0 && !utf8.RuneStart(n[cut]) {
+			cut--
+		}
+		n = n[:cut] + "…"
+	}
+	return n
 }

@@ -66,6 +66,7 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad yamlfile.ErrorL
 	if e := yamlfile.CheckUTF8(data, name, ErrNotUTF8); e != nil {
 		return nil, nil, e
 	}
+	strictErr := strictDecode(data) // see below, before the walker
 	var doc, extra yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	if err := dec.Decode(&doc); err != nil && !errors.Is(err, io.EOF) {
@@ -82,21 +83,23 @@ func ParseLibrary(data []byte, o LoadOptions) (lib *Library, bad yamlfile.ErrorL
 	if len(o.Modes) == 0 || len(o.RankKeys) == 0 {
 		panic("substrates: LoadOptions without Modes or RankKeys")
 	}
+	// Second, independent check of the structure with the YAML library's strict decoder:
+	// the walker below should already catch every unknown key; this keeps the two in step
+	// (a schema change that forgets the walker fails here, not silently). Rows the walker
+	// rejects would be reported twice, so its verdict counts only on clean files. It runs
+	// first (above) so that its own parse tree is garbage before the file's tree is built: the
+	// peak memory is one node tree plus the rows, not two trees (issue 14).
 	w := &walker{file: name, modes: o.Modes, rankKeys: o.RankKeys}
 	lib = w.document(&doc)
 	if len(w.fatal) > 0 {
 		return nil, nil, w.fatal.Err()
 	}
-	// Second, independent check of the structure with the YAML library's strict decoder:
-	// the walker above should already have caught every unknown key; this keeps the two in
-	// step (a schema change that forgets the walker fails here, not silently). Rows the
-	// walker already rejected would be reported twice, so the check runs on clean files.
 	if len(w.bad) > 0 {
 		lib.Source = name
 		return lib, w.bad, nil
 	}
-	if err := strictDecode(data); err != nil {
-		return nil, nil, &yamlfile.Error{File: name, Msg: err.Error(), Err: ErrUnknownKey}
+	if strictErr != nil {
+		return nil, nil, &yamlfile.Error{File: name, Msg: strictErr.Error(), Err: ErrUnknownKey}
 	}
 	lib.Source = name
 	return lib, w.bad, nil

@@ -30,24 +30,27 @@ func newCSV(w io.Writer, rep Report) (*csvWriter, error) {
 }
 
 func (c *csvWriter) WriteRow(r Row) error {
+	return c.w.Write(csvRecord(r))
+}
+
+// csvRecord is the row's fields in csvHeader order (the SD writer uses them too).
+func csvRecord(r Row) []string {
 	p := r.Pair
 	g := Controlling(p)
 	label, product, stab := "", "", ""
 	if o := best(p); o != nil {
 		label, product, stab = o.Label, o.Product, f3(o.Stabilization)
 	}
+	t := SafeCell // text cells only: numbers keep their sign
 	rec := []string{
-		strconv.Itoa(r.Rank), pairNumber(r.Number), p.DieneName, p.Diene, p.DienophileName, p.Dienophile,
-		p.Activation, p.Demand, p.SustmannType, f3(g.Beta), f2(g.EV),
+		strconv.Itoa(r.Rank), pairNumber(r.Number), t(p.DieneName), t(p.Diene), t(p.DienophileName), t(p.Dienophile),
+		t(p.Activation), p.Demand, p.SustmannType, f3(g.Beta), f2(g.EV),
 		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
-		label, product, stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
+		label, t(product), stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
 		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
-		strings.Join(p.Warnings, " | "), p.Params, p.Calibration, Caution,
+		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution,
 	}
-	if err := c.w.Write(rec); err != nil {
-		return err
-	}
-	return nil
+	return rec
 }
 
 func (c *csvWriter) Close(Summary) error {
@@ -60,4 +63,22 @@ func pairNumber(n int64) string {
 		return ""
 	}
 	return strconv.FormatInt(n, 10)
+}
+
+// SafeCell neutralises a CSV text cell that a spreadsheet would read as a formula: a cell
+// starting with =, +, -, @, a tab or a carriage return gets a leading apostrophe, which
+// spreadsheets show as text (OWASP, "CSV Injection", owasp.org/www-community/attacks/
+// CSV_Injection). Only text cells (names, SMILES, notes, warnings) go through it; numeric
+// cells are written as they are, so −0.5 stays a number. A consumer that wants the original
+// text strips one leading apostrophe from a text cell that starts with "'" followed by one
+// of those characters.
+func SafeCell(s string) string {
+	if s == "" {
+		return s
+	}
+	switch s[0] {
+	case '=', '+', '-', '@', '\t', '\r':
+		return "'" + s
+	}
+	return s
 }

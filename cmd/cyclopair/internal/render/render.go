@@ -31,6 +31,9 @@ const (
 	CSV      Format = "csv"
 	JSON     Format = "json"
 	Markdown Format = "markdown"
+	// SDF writes each row's product as an SD record with 2D coordinates and the row's
+	// figures as data items (sdf.go).
+	SDF Format = "sdf"
 )
 
 // Formats lists the row formats in the order help texts show them.
@@ -50,8 +53,10 @@ func ParseFormat(s string) (Format, error) {
 		return JSON, nil
 	case "markdown", "md":
 		return Markdown, nil
+	case "sdf", "sd":
+		return SDF, nil
 	}
-	return "", fmt.Errorf("%w %q (choose table, csv, json or markdown)", ErrUnknownFormat, s)
+	return "", fmt.Errorf("%w %q (choose table, csv, json, markdown or sdf)", ErrUnknownFormat, s)
 }
 
 // Report describes the screen a set of rows comes from. It is printed in the header of the
@@ -108,13 +113,15 @@ type Writer interface {
 func New(f Format, w io.Writer, rep Report, lay Layout) (Writer, error) {
 	switch f {
 	case Table:
-		return newTable(w, rep, lay)
+		return newTable(TerminalSafe(w), rep, lay)
 	case CSV:
 		return newCSV(w, rep)
 	case JSON:
 		return newJSON(w, rep), nil
 	case Markdown:
-		return newMarkdown(w, rep)
+		return newMarkdown(TerminalSafe(w), rep)
+	case SDF:
+		return newSDF(w, rep), nil
 	}
 	return nil, fmt.Errorf("%w %q", ErrUnknownFormat, string(f))
 }
