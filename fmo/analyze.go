@@ -210,9 +210,11 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			regioPartner = i
 		}
 	}
+	otherSite := false
 	for i, c := range cands[1:] {
 		if (c.di != best.di || c.ei != best.ei) && !keys.same(i+1, 0) && (regioPartner < 0 || !keys.same(i+1, regioPartner)) {
 			pair.SiteMargin = best.s.score - c.s.score
+			otherSite = true
 			break
 		}
 	}
@@ -284,6 +286,19 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 	if best.s.gapN <= 0 || best.s.gapI <= 0 {
 		warn("a frontier gap is negative (the donor's HOMO lies above the acceptor's LUMO): electron transfer is likely; treat the ranking with caution")
 	}
+
+	// Honest confidence (confidence.go) and reversibility (reversible.go).
+	pair.EVDecimals = opts.evDecimals()
+	if aromaticDieneRing(diene, diene.Units[best.di]) != nil {
+		pair.Reversible = reversibleNote(pair.Endo == "yes" || pair.Endo == "weak")
+		warn("reversible: " + pair.Reversible)
+	}
+	siteClass := ""
+	if otherSite {
+		siteClass = siteClassOf(dienophile.Activation)
+	}
+	addConfidence(pair, regioClassOf(diene, diene.Units[best.di], dienophile, dienophile.Units[best.ei], pair.Demand), siteClass,
+		regioPartner >= 0 && keys.same(0, regioPartner), warn)
 	return pair, nil
 }
 

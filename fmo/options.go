@@ -214,3 +214,12 @@ func (o *Options) calibrationDetail() string {
 	}
 	return ""
 }
+
+// evDecimals is how many decimals the calibration's eV figures deserve: its GapDecimals when
+// it has one (huckel.Calibration), else 2.
+func (o *Options) evDecimals() int {
+	if d, ok := o.Calibration.(interface{ GapDecimals() int }); ok {
+		return d.GapDecimals()
+	}
+	return 2
+}

@@ -209,4 +209,15 @@ type Pair struct {
 	EndoFractionInterval *[2]float64 `json:"endo_fraction_interval,omitempty"`
 	// RatioTemperatureC is the temperature (°C) the fractions are for.
 	RatioTemperatureC float64 `json:"ratio_temperature_C,omitempty"`
+
+	// Confidence gives, per verdict (regio, site, endo, demand), the check-set hit rate of
+	// the verdict's class and of the confidence word printed (confidence.go).
+	Confidence []ConfidenceNote `json:"confidence"`
+	// Reversible is a note when the adduct can revert by retro-Diels–Alder because the 4π
+	// partner regains an aromatic ring (furan, pyrrole, anthracene-type), else empty.
+	Reversible string `json:"reversible,omitempty"`
+	// EVDecimals is how many decimals the eV figures of this pair deserve (human formats
+	// round to it; JSON keeps full precision): from the calibration's branch RMSE
+	// (huckel.Calibration.GapDecimals).
+	EVDecimals int `json:"ev_decimals"`
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/stat"
 )
@@ -58,10 +59,66 @@ func (c Calibration) String() string { return c.Name + ": " + c.Detail() }
 // Detail is String without the name: the two fitted lines and the fit statistics.
 func (c Calibration) Detail() string {
 	if c.Direct {
-		return fmt.Sprintf("%s (ε = %.3f %+.3f·x eV, the method's own x scale)", DirectDetail, c.HOMOIntercept, c.HOMOSlope)
+		return fmt.Sprintf("%s (ε = %.3f %+.3f·x eV, the method's own x scale; eV figures to %s eV)", DirectDetail, c.HOMOIntercept, c.HOMOSlope, decimalStep(c.GapDecimals()))
 	}
-	return fmt.Sprintf("E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV)",
+	s := fmt.Sprintf("E_occ = %.3f %+.3f·x eV, E_virt = %.3f %+.3f·x eV (N = %d, r² = %.3f, RMSE = %.2f eV",
 		c.HOMOIntercept, c.HOMOSlope, c.LUMOIntercept, c.LUMOSlope, c.N, c.R2, c.RMSE)
+	if c.HOMON > 0 && c.LUMON > 0 {
+		s += fmt.Sprintf("; occupied N = %d, r² = %.3f, RMSE = %.2f eV; empty N = %d, r² = %.3f, RMSE = %.2f eV",
+			c.HOMON, c.HOMOR2, c.HOMORMSE, c.LUMON, c.LUMOR2, c.LUMORMSE)
+	}
+	return s + fmt.Sprintf("; eV figures to %s eV)", decimalStep(c.GapDecimals()))
+}
+
+// Rounding of eV figures. A calibrated eV figure is worth no more decimals than the
+// uncertainty of the map that made it: it is rounded to the decimal place of the first
+// significant digit of the branch RMSE (the usual way of quoting a value with its
+// uncertainty; common practice, no source), i.e. decimals = ⌈−log10 RMSE⌉ held to 0–3. A
+// gap, a difference of an occupied and an empty level, takes √(RMSE_occ² + RMSE_empty²)
+// (independent errors). RMSE 0.5–0.8 eV gives 0.1 eV. The exact map of a method that
+// computes eV itself (Direct, PPP-SCF with Koopmans' theorem) has no fit statistics; its
+// π ionisation energies are off by a few tenths of an eV (from memory), so it also gets
+// 0.1 eV. A calibration without statistics (RMSE 0) keeps 2 decimals. JSON output keeps
+// full precision; human formats round.
+
+// EVDecimals is how many decimals an eV level of the occupied (occupied = true) or empty
+// branch deserves.
+func (c Calibration) EVDecimals(occupied bool) int {
+	r := c.LUMORMSE
+	if occupied {
+		r = c.HOMORMSE
+	}
+	if c.HOMON == 0 && c.LUMON == 0 {
+		r = c.RMSE // a calibration that records only the pooled figures
+	}
+	return c.decimalsFor(r)
+}
+
+// GapDecimals is how many decimals an eV gap (empty minus occupied level) deserves.
+func (c Calibration) GapDecimals() int {
+	r := math.Hypot(c.HOMORMSE, c.LUMORMSE)
+	if c.HOMON == 0 && c.LUMON == 0 {
+		r = math.Sqrt2 * c.RMSE
+	}
+	return c.decimalsFor(r)
+}
+
+func (c Calibration) decimalsFor(rmse float64) int {
+	switch {
+	case c.Direct:
+		return 1
+	case !(rmse > 0) || math.IsInf(rmse, 0):
+		return 2
+	}
+	d := int(math.Ceil(-math.Log10(rmse) - 1e-9))
+	return max(0, min(3, d))
+}
+
+func decimalStep(d int) string {
+	if d <= 0 {
+		return "1"
+	}
+	return "0." + strings.Repeat("0", d-1) + "1"
 }
 
 // CalibrationPoint is one reference molecule: the Hückel x of its HOMO (Occupied) or LUMO

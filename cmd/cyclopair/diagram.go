@@ -130,7 +130,7 @@ func runDiagram(s *streams, o *diagramOptions) error {
 // pairDiagram builds the diagram of one 4π partner with one or more 2π variants; pairs[i]
 // is the analysis of diene with variants[i] and supplies the frontier levels the gaps use.
 func pairDiagram(diene *fmo.Partner, variants []*fmo.Partner, pairs []*fmo.Pair, params string, cal huckel.Calibration) *render.Diagram {
-	dg := &render.Diagram{Params: params, Calibration: cal.Name}
+	dg := &render.Diagram{Params: params, Calibration: cal.Name, EVDecimals: cal.GapDecimals()}
 	names := []string{}
 	col := func(p *fmo.Partner, sub string, homo, lumo fmo.Frontier) render.DiagramColumn {
 		c := render.DiagramColumn{Title: p.Name, Subtitle: sub, HOMO: homo.Index, LUMO: lumo.Index, HOMOEV: homo.EV, LUMOEV: lumo.EV}

@@ -40,8 +40,8 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 		fmt.Fprintf(w, "activated dienophile: %s\n", p.ActivatedDienophile)
 	}
 	if e := p.Activated; e != nil {
-		fmt.Fprintf(w, "activation effect (vs the free dienophile): LUMO lowered by %.3f |β| (%.2f eV); c²(Cβ) − c²(Cα) of the LUMO %.3f → %.3f; c² at the carbonyl carbon %.3f → %.3f; endo term %+.5f |β|\n",
-			e.LUMOLowering.Beta, e.LUMOLowering.EV, e.BetaAsymmetryFree, e.BetaAsymmetry, e.CarbonylLUMOFree, e.CarbonylLUMO, e.EndoChange)
+		fmt.Fprintf(w, "activation effect (vs the free dienophile): LUMO lowered by %.3f |β| (%s eV); c²(Cβ) − c²(Cα) of the LUMO %.3f → %.3f; c² at the carbonyl carbon %.3f → %.3f; endo term %+.5f |β|\n",
+			e.LUMOLowering.Beta, evText(p, e.LUMOLowering.EV), e.BetaAsymmetryFree, e.BetaAsymmetry, e.CarbonylLUMOFree, e.CarbonylLUMO, e.EndoChange)
 	}
 	if p.Method != "" && p.Method != huckel.MethodHuckel {
 		fmt.Fprintf(w, "parameters: %s (perception and k), π method %s\n", p.Params, p.Method)
@@ -52,8 +52,8 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 		calDetail = p.Calibration
 	}
 	fmt.Fprintf(w, "calibration: %s\n", calDetail)
-	fmt.Fprintf(w, "gap normal  LUMO(dienophile) − HOMO(diene): %.3f |β|  %.2f eV\n", p.GapNormal.Beta, p.GapNormal.EV)
-	fmt.Fprintf(w, "gap inverse LUMO(diene) − HOMO(dienophile): %.3f |β|  %.2f eV\n", p.GapInverse.Beta, p.GapInverse.EV)
+	fmt.Fprintf(w, "gap normal  LUMO(dienophile) − HOMO(diene): %.3f |β|  %s eV\n", p.GapNormal.Beta, evText(p, p.GapNormal.EV))
+	fmt.Fprintf(w, "gap inverse LUMO(diene) − HOMO(dienophile): %.3f |β|  %s eV\n", p.GapInverse.Beta, evText(p, p.GapInverse.EV))
 	fmt.Fprintf(w, "demand: %s (Sustmann type %s; neutral/type II when the gaps differ by less than %.3f |β|)\n",
 		p.Demand, p.SustmannType, p.DemandThreshold)
 	fmt.Fprintf(w, "allowed (supra–supra, thermal): %s: %s\n", yesNo(p.Allowed), p.AllowedReason)
@@ -104,6 +104,12 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	if p.ChargeTermOn {
 		charge = "on"
 	}
+	if len(p.Confidence) > 0 {
+		fmt.Fprintln(w, "check set (bundled literature cases, default options):")
+		for _, n := range p.Confidence {
+			fmt.Fprintf(w, "  - %s\n", n.Text)
+		}
+	}
 	fmt.Fprintf(w, "score: frontier + charge (%s) − %.2f·localization − %.2f·controlling gap; forming bonds γ = %.2f β\n", charge, p.LocalizationWeight, p.GapWeight, p.FormingBeta)
 
 	fmt.Fprintln(w)
@@ -128,7 +134,7 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	if n := len(p.Orientations) - pairTableRows; n > 0 {
 		fmt.Fprintf(w, "... %d more orientations (--format json lists all)\n", n)
 	}
-	writeSideChannels(w, p.SideChannels)
+	writeSideChannels(w, p, p.SideChannels)
 	if len(p.Warnings) > 0 {
 		fmt.Fprintln(w, "warnings:")
 		for _, x := range p.Warnings {
@@ -139,7 +145,13 @@ func writePairTable(s *streams, p *fmo.Pair, calDetail string) {
 	fmt.Fprintln(w)
 }
 
-func writeSideChannels(w io.Writer, sc []fmo.SideChannel) {
+// evText formats an eV figure of p with the decimals its calibration supports
+// (Pair.EVDecimals; huckel.Calibration.GapDecimals gives the rule).
+func evText(p *fmo.Pair, ev float64) string {
+	return fmt.Sprintf("%.*f", p.EVDecimals, ev)
+}
+
+func writeSideChannels(w io.Writer, p *fmo.Pair, sc []fmo.SideChannel) {
 	if len(sc) == 0 {
 		return
 	}
@@ -153,6 +165,6 @@ func writeSideChannels(w io.Writer, sc []fmo.SideChannel) {
 			fmt.Fprintf(w, "  - %s: %s\n", c.Kind, note)
 			continue
 		}
-		fmt.Fprintf(w, "  - %s: gap %.3f |β| (%.2f eV), margin %+.3f |β|: %s\n", c.Kind, c.Gap.Beta, c.Gap.EV, c.Margin, verdict)
+		fmt.Fprintf(w, "  - %s: gap %.3f |β| (%s eV), margin %+.3f |β|: %s\n", c.Kind, c.Gap.Beta, evText(p, c.Gap.EV), c.Margin, verdict)
 	}
 }

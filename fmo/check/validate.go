@@ -173,15 +173,22 @@ func Validate(set *CheckSet, opts *fmo.Options) *ValidationReport {
 }
 
 func runCase(c Case, opts *fmo.Options) CaseResult {
+	r, _ := runCasePair(c, opts)
+	return r
+}
+
+// runCasePair runs one case and also returns the engine's pair (nil when the case could
+// not be analysed).
+func runCasePair(c Case, opts *fmo.Options) (CaseResult, *fmo.Pair) {
 	r := CaseResult{ID: c.ID, Category: c.Category, Diene: c.Diene.Name, Dienophile: c.Dienophile.Name,
 		Activation: c.Activation, Source: c.Source, Confidence: c.Confidence, KnownMiss: c.KnownMiss}
 	if r.Activation == "" {
 		r.Activation = fmo.ActivateNone
 	}
 	r.Expected = describeExpect(c)
-	errOut := func(err error) CaseResult {
+	errOut := func(err error) (CaseResult, *fmo.Pair) {
 		r.Status, r.Error = StatusError, err.Error()
-		return r
+		return r, nil
 	}
 	dm, dmap, err := unmapped(c.Diene)
 	if err != nil {
@@ -273,7 +280,7 @@ func runCase(c Case, opts *fmo.Options) CaseResult {
 	default:
 		r.Status = StatusMiss
 	}
-	return r
+	return r, pair
 }
 
 func describeExpect(c Case) string {

@@ -251,7 +251,7 @@ func (w *Writer) table(b *page) {
 		b.el("td", "", p.Activation)
 		b.el("td", "", p.Demand+" ("+p.SustmannType+")")
 		b.el("td", `class="num"`, f(g.Beta, 3))
-		b.el("td", `class="num"`, f(g.EV, 2))
+		b.el("td", `class="num"`, f(g.EV, p.EVDecimals))
 		b.el("td", `class="smiles"`, site)
 		b.el("td", "", orDash(label)+" · "+orDash(p.RegioConfidence))
 		b.el("td", `class="num"`, stab)
@@ -323,6 +323,14 @@ func (w *Writer) figures(b *page) {
 			b.raw("<figure class=\"" + fg.class + "\" aria-label=\"")
 			b.t(fg.caption)
 			b.raw("\">\n" + string(fg.svg) + "</figure>\n")
+		}
+		if len(p.Confidence) > 0 {
+			b.raw("<ul class=\"confidence\">\n")
+			for _, n := range p.Confidence {
+				b.el("li", "", "check set: "+n.Text)
+				b.raw("\n")
+			}
+			b.raw("</ul>\n")
 		}
 		if len(p.Warnings) > 0 {
 			b.raw("<ul class=\"warnings\">\n")
@@ -461,6 +469,7 @@ func levelDiagram(d, e *fmo.Partner, q *fmo.Pair, id string) ([]byte, error) {
 		Title:       "π levels: " + nameOr(d.Name, d.SMILES) + " + " + nameOr(e.Name, e.SMILES),
 		Params:      q.Params,
 		Calibration: q.Calibration,
+		EVDecimals:  q.EVDecimals,
 		Columns:     []render.DiagramColumn{col(d, d.SMILES, q.DieneHOMO, q.DieneLUMO), col(e, sub, q.DienophileHOMO, q.DienophileLUMO)},
 		Gaps: []render.DiagramGap{{Column: 1,
 			Normal:      render.Energy{Beta: q.GapNormal.Beta, EV: q.GapNormal.EV},
@@ -556,6 +565,8 @@ func (w *Writer) calibration(b *page) {
 	b.el("p", "", fmt.Sprintf("%s. Occupied levels: E = %s %s·x eV (fitted to ionisation energies, N = %d, r² = %s, RMSE %s eV); empty levels: E = %s %s·x eV (fitted to electron affinities, N = %d, r² = %s, RMSE %s eV).",
 		orDash(c.Name), f(c.HOMOIntercept, 3), signedF(c.HOMOSlope), c.HOMON, f(c.HOMOR2, 3), f(c.HOMORMSE, 2),
 		f(c.LUMOIntercept, 3), signedF(c.LUMOSlope), c.LUMON, f(c.LUMOR2, 3), f(c.LUMORMSE, 2)))
+	b.raw("\n")
+	b.el("p", "", fmt.Sprintf("Gaps in eV are rounded to %d decimal(s): the decimal place of the first significant digit of the gap's uncertainty √(RMSE_occ² + RMSE_empty²); the |β| figures are the computed values.", c.GapDecimals()))
 	b.raw("\n")
 	if c.Source != "" {
 		b.el("p", `class="small"`, "Reference data: "+c.Source)

@@ -60,6 +60,9 @@ type Diagram struct {
 	Gaps        []DiagramGap
 	Params      string
 	Calibration string
+	// EVDecimals is how many decimals the eV labels get: what the calibration supports
+	// (fmo.Pair.EVDecimals, huckel.Calibration.GapDecimals).
+	EVDecimals int
 }
 
 // layout constants (px). The 4π column is [frontier labels | levels]; each 2π column is
@@ -200,7 +203,7 @@ func WriteDiagram(w io.Writer, d *Diagram) error {
 			} else if f.name == "LUMO" && c.HOMO >= 0 && math.Abs(y(c.Levels[c.HOMO].X)-y(l.X)) < 26 {
 				dy = -6
 			}
-			b.text(lx, y(l.X)+dy, anchor, `font-size="10"`, fmt.Sprintf("%s x = %s (%s eV)", f.name, fmtSigned(l.X, 3), fmtSigned(f.ev, 2)))
+			b.text(lx, y(l.X)+dy, anchor, `font-size="10"`, fmt.Sprintf("%s x = %s (%s eV)", f.name, fmtSigned(l.X, 3), fmtSigned(f.ev, d.EVDecimals)))
 		}
 		b.raw("</g>\n")
 	}
@@ -220,7 +223,7 @@ func WriteDiagram(w io.Writer, d *Diagram) error {
 			b.raw(fmt.Sprintf(`<line class="gap gap-normal" x1="%s" y1="%s" x2="%s" y2="%s" stroke="#000" stroke-width="1.2" marker-start="url(#dg-arrow)" marker-end="url(#dg-arrow)"/>`+"\n",
 				n1(ax), n1(y1), n1(ax), n1(y2)))
 			normalMid = (y1 + y2) / 2
-			b.gapLabel(bx-6, normalMid, "normal", g.Normal, g.Controlling == "normal" || g.Controlling == "neutral" && g.Normal.Beta <= g.Inverse.Beta)
+			b.gapLabel(bx-6, normalMid, "normal", g.Normal, g.Controlling == "normal" || g.Controlling == "neutral" && g.Normal.Beta <= g.Inverse.Beta, d.EVDecimals)
 		}
 		if d0.LUMO >= 0 && c.HOMO >= 0 {
 			y1, y2 := y(c.Levels[c.HOMO].X), y(d0.Levels[d0.LUMO].X)
@@ -230,7 +233,7 @@ func WriteDiagram(w io.Writer, d *Diagram) error {
 			if !math.IsNaN(normalMid) && math.Abs(mid-normalMid) < 30 {
 				mid = normalMid + 30 // keep the two labels apart
 			}
-			b.gapLabel(bx-6, mid, "inverse", g.Inverse, g.Controlling == "inverse" || g.Controlling == "neutral" && g.Inverse.Beta < g.Normal.Beta)
+			b.gapLabel(bx-6, mid, "inverse", g.Inverse, g.Controlling == "inverse" || g.Controlling == "neutral" && g.Inverse.Beta < g.Normal.Beta, d.EVDecimals)
 		}
 		b.raw("</g>\n")
 	}
@@ -276,13 +279,13 @@ func electrons(b *svgBuf, x, y, occ float64) {
 }
 
 // gapLabel writes the value of a gap, right-aligned at x, centred on my.
-func (b *svgBuf) gapLabel(x, my float64, kind string, e Energy, controlling bool) {
+func (b *svgBuf) gapLabel(x, my float64, kind string, e Energy, controlling bool, evDecimals int) {
 	attrs := `font-size="10"`
 	if controlling {
 		attrs = `font-size="10" font-weight="bold"`
 	}
 	b.text(x, my-2, "end", attrs, fmt.Sprintf("%s %s |β|", kind, strconv.FormatFloat(e.Beta, 'f', 3, 64)))
-	ev := strconv.FormatFloat(e.EV, 'f', 2, 64) + " eV"
+	ev := strconv.FormatFloat(e.EV, 'f', evDecimals, 64) + " eV"
 	if controlling {
 		ev += " (controls)"
 	}

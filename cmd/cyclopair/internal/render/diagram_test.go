@@ -15,6 +15,7 @@ func sampleDiagram() *Diagram {
 		Title:       "π levels: <script>alert('x')</script> & co",
 		Params:      "test-params",
 		Calibration: "test-cal",
+		EVDecimals:  2,
 		Columns: []DiagramColumn{
 			{Title: "butadiene <b>", Subtitle: "C=CC=C", HOMO: 1, LUMO: 2, HOMOEV: -9.1, LUMOEV: 0.6,
 				Levels: []DiagramLevel{{1.618, 2, 1}, {0.618, 2, 1}, {-0.618, 0, 1}, {-1.618, 0, 1}}},

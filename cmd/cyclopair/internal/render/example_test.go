@@ -14,7 +14,7 @@ func ExampleNew() {
 		DieneName: "isoprene", DienophileName: "methyl acrylate", Activation: "none",
 		Demand: "normal", SustmannType: "I", GapNormal: fmo.Energy{Beta: 0.9, EV: 8.2}, GapInverse: fmo.Energy{Beta: 1.7, EV: 10.4},
 		Orientations: []fmo.Orientation{{Label: "para", Product: "CC1=CCC(CC1)C(=O)OC"}},
-		RegioMargin:  0.011, RegioConfidence: "clear", Endo: "weak", Allowed: true,
+		RegioMargin:  0.011, RegioConfidence: "clear", Endo: "weak", Allowed: true, EVDecimals: 1,
 	}})
 	_ = w.Close(render.Summary{Pairs: 1, Passed: 1, Shown: 1})
 	// Output:
@@ -28,7 +28,7 @@ func ExampleNew() {
 	//
 	// | Rank | Diene | Dienophile | Activation | log k_rel | Demand | Sustmann type | Gap (\|β\|) | Gap (eV) | Orientation | Product | Regio margin (\|β\|) | Regio confidence | Endo | Allowed | Warnings |
 	// |---:|---|---|---|---:|---|---|---:|---:|---|---|---:|---|---|---|---:|
-	// | 1 | isoprene | methyl acrylate | none | – | normal | I | 0.900 | 8.20 | para | `CC1=CCC(CC1)C(=O)OC` | 0.011 | clear | weak | yes | 0 |
+	// | 1 | isoprene | methyl acrylate | none | – | normal | I | 0.900 | 8.2 | para | `CC1=CCC(CC1)C(=O)OC` | 0.011 | clear | weak | yes | 0 |
 	//
 	// 1 pairs scored, 1 passed the filters, 1 shown.
 }

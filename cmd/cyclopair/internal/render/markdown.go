@@ -53,7 +53,7 @@ func (m *markdownWriter) WriteRow(r Row) error {
 	cells := []string{
 		strconv.Itoa(r.Rank), mdEscape(mdDash(p.DieneName)), mdEscape(mdDash(p.DienophileName)),
 		mdEscape(mdDash(p.Activation)), rateCell(p.Rate, "–"), mdDash(p.Demand), mdDash(p.SustmannType),
-		f3(g.Beta), f2(g.EV), label, product, margin, mdEscape(mdDash(p.RegioConfidence)),
+		f3(g.Beta), fixed(g.EV, p.EVDecimals), label, product, margin, mdEscape(mdDash(p.RegioConfidence)),
 		mdDash(p.Endo), yesNo(p.Allowed), strconv.Itoa(len(p.Warnings)),
 	}
 	m.printf("| %s |\n", strings.Join(cells, " | "))

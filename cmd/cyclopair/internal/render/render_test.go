@@ -32,7 +32,7 @@ func samplePairs() []Row {
 			Label: "", Product: "O=CC1CC2C=CC1C2", Stabilization: 0.1234, Preferred: true,
 		}},
 		RegioMargin: 0, RegioConfidence: "no preference", Endo: "yes", Allowed: true,
-		Params: "demo-params", Calibration: "demo-cal",
+		Params: "demo-params", Calibration: "demo-cal", EVDecimals: 1,
 	}
 	p2 := &fmo.Pair{
 		DieneName: `1,2,4-triazine <script>alert(1)</script>`, DienophileName: "enamine | pipe",
@@ -44,7 +44,7 @@ func samplePairs() []Row {
 			Label: "ortho", Product: "C1CCN(C1)C1CC=NN=NC1", Stabilization: 0.05,
 		}, {Label: "meta", Product: "x", Stabilization: 0.01}},
 		RegioMargin: 0.04, RegioConfidence: "clear", Endo: "weak", Allowed: true,
-		Params: "demo-params", Calibration: "demo-cal",
+		Params: "demo-params", Calibration: "demo-cal", EVDecimals: 2,
 		Warnings: []string{"first, with comma", `second "quoted"`},
 	}
 	p3 := &fmo.Pair{
@@ -53,7 +53,7 @@ func samplePairs() []Row {
 		Demand: "neutral", SustmannType: "II",
 		GapNormal:  fmo.Energy{Beta: -0.0000001, EV: -0.0001},
 		GapInverse: fmo.Energy{Beta: 1, EV: 2},
-		Allowed:    false, Params: "", Calibration: "",
+		Allowed:    false, Params: "", Calibration: "", EVDecimals: 1,
 		Warnings: []string{"no orientation"},
 	}
 	return []Row{{Rank: 1, Number: 7, Pair: p1}, {Rank: 2, Number: 3, Pair: p2}, {Rank: 10, Pair: p3}}
@@ -215,7 +215,7 @@ func TestTableAligned(t *testing.T) {
 	end := func(s, sub string) int { return len([]rune(s[:strings.Index(s, sub)+len(sub)])) }
 	want := end(header, "gap/eV")
 	for _, r := range rows[:1] {
-		if got := end(r, " 7.10"); got != want {
+		if got := end(r, " 7.1"); got != want {
 			t.Errorf("gap/eV column ends at %d, header at %d:\n%s\n%s", got, want, header, r)
 		}
 	}

@@ -106,7 +106,7 @@ func (t *tableWriter) WriteRow(r Row) error {
 		orDash(p.Demand),
 		orDash(p.SustmannType),
 		f3(g.Beta),
-		f2(g.EV),
+		fixed(g.EV, p.EVDecimals),
 		label,
 		margin,
 		conf,
