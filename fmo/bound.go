@@ -61,6 +61,10 @@ func (p *Partner) Box() FrontierBox {
 	return b
 }
 
+// UnitHasFrontier reports whether reacting unit i has both frontier levels: only such units
+// enter a FrontierBox, and only they can be QuickScore's preferred unit.
+func (p *Partner) UnitHasFrontier(i int) bool { return i >= 0 && i < len(p.fast) && p.fast[i].ok }
+
 // Union widens b to cover o.
 func (b *FrontierBox) Union(o *FrontierBox) {
 	if o.Units == 0 {
@@ -88,6 +92,9 @@ type QuickBound struct {
 	BestMax    float64    // upper bound of Quick.Best
 	StabMax    float64    // upper bound of Quick.Stabilization
 	MarginMax  float64    // upper bound of Quick.RegioMargin
+	// FrontierMax is an upper bound of Quick.Frontier: the stabilisation's bound plus the
+	// largest charge term |c|·(|q0 qx| + |q1 qy|) (for the rate model's frontier term).
+	FrontierMax float64
 }
 
 // Bound returns the ranges of QuickScore's numbers over every diene unit of d with every
@@ -151,7 +158,8 @@ func (q *QuickKernel) Bound(d, e *FrontierBox) QuickBound {
 	// RegioMargin = s0 − s1 (or s1 − s0): the pairing terms are each in [0, tN] and [0, tI],
 	// the penalty cancels, the charge terms differ by at most 2·ch.
 	r.MarginMax = safe(tN + tI + 2*ch)
-	if math.IsNaN(r.BestMax) || math.IsNaN(r.StabMax) || math.IsNaN(r.MarginMax) || math.IsNaN(r.Gap[0]) || math.IsNaN(r.DemandDiff[0]) {
+	r.FrontierMax = safe(r.StabMax + ch)
+	if math.IsNaN(r.BestMax) || math.IsNaN(r.FrontierMax) || math.IsNaN(r.StabMax) || math.IsNaN(r.MarginMax) || math.IsNaN(r.Gap[0]) || math.IsNaN(r.DemandDiff[0]) {
 		return QuickBound{}
 	}
 	return r

@@ -221,3 +221,79 @@ func ParseModel(data []byte, name string) (*Model, error) {
 func Default() (*Model, error) {
 	return ParseModel(presets.RateModelYAML(), presets.RateModelName)
 }
+
+// ----------------------------------------------------------------------------- screen bounds
+
+// Upper bounds of Quick over sets of partners, for exact top-K screening (fmo/screen). Quick
+// is a sum of terms c_j·(x_j − ref_j), each monotone in its descriptor (falling where c_j < 0),
+// so the sum is at most the sum of each term's maximum over the set: the diene's terms
+// (conjugation loss, s-cis, reach) at the best of its units with both frontier levels (the
+// only units QuickScore can prefer), the dienophile's (localisation, Lewis-acid indicator) at
+// the best of its units, the gap term at the box's smallest (c ≥ 0) or largest controlling
+// gap, the frontier term at the box's largest frontier value. Each bound also returns the
+// sum of the absolute terms, from which the caller takes a rounding margin (Quick adds the
+// same terms in another order).
+
+// Bounded reports whether the pair terms can be bounded: the frontier term needs c ≥ 0
+// (QuickBound gives the frontier value only an upper bound).
+func (m *Model) Bounded() bool { return m.Coef[TermFrontier] >= 0 }
+
+// DieneTermsMax returns the largest diene part of Quick over the units of diene with both
+// frontier levels (conf parallel to diene.Units, as PartnerConformations gives it) and the
+// largest sum of that part's absolute terms; −Inf, 0 when no unit qualifies.
+func (m *Model) DieneTermsMax(diene *fmo.Partner, conf []Conformation) (v, abs float64) {
+	c, r := &m.Coef, &m.RefVector
+	v = math.Inf(-1)
+	for i := range diene.Units {
+		if !diene.UnitHasFrontier(i) || i >= len(conf) {
+			continue
+		}
+		t0 := c[TermDieneConjugation] * (-diene.UnitConjugationLoss(i) - r[TermDieneConjugation])
+		t1 := c[TermSCis] * (conf[i].SCis - r[TermSCis])
+		t2 := c[TermReach] * (-conf[i].Reach - r[TermReach])
+		v = max(v, t0+t1+t2)
+		abs = max(abs, math.Abs(t0)+math.Abs(t1)+math.Abs(t2))
+	}
+	return v, abs
+}
+
+// DienophileTermsMax returns the largest dienophile part of Quick over the units of
+// dienophile (one activated variant) with both frontier levels, and the largest sum of that
+// part's absolute terms; −Inf, 0 when no unit qualifies.
+func (m *Model) DienophileTermsMax(dienophile *fmo.Partner) (v, abs float64) {
+	c, r := &m.Coef, &m.RefVector
+	v = math.Inf(-1)
+	t1 := c[TermLewis] * (lewisIndicator(dienophile.Activation) - r[TermLewis])
+	for i := range dienophile.Units {
+		if !dienophile.UnitHasFrontier(i) {
+			continue
+		}
+		t0 := c[TermDienophileLocalization] * (-dienophile.UnitLocalization(i) - r[TermDienophileLocalization])
+		v = max(v, t0+t1)
+		abs = max(abs, math.Abs(t0)+math.Abs(t1))
+	}
+	return v, abs
+}
+
+// PairTermsMax returns the largest gap and frontier part of Quick over every pair the
+// bound b holds, and the sum of those terms' largest absolute values.
+func (m *Model) PairTermsMax(b *fmo.QuickBound) (v, abs float64) {
+	c, r := &m.Coef, &m.RefVector
+	g := b.Gap[0] // −gap is largest at the smallest gap
+	if c[TermGap] < 0 {
+		g = b.Gap[1]
+	}
+	tg := c[TermGap] * (-g - r[TermGap])
+	tgAbs := max(math.Abs(c[TermGap]*(-b.Gap[0]-r[TermGap])), math.Abs(c[TermGap]*(-b.Gap[1]-r[TermGap])))
+	tf, tfAbs := 0.0, 0.0
+	if c[TermFrontier] != 0 {
+		if c[TermFrontier] < 0 {
+			return math.NaN(), math.NaN()
+		}
+		tf = c[TermFrontier] * (b.FrontierMax - r[TermFrontier])
+		// |Frontier| is not bounded by the box; a frontier term makes the margin relative
+		// to its upper value only, which the caller's absolute floor covers at these sizes.
+		tfAbs = math.Abs(tf)
+	}
+	return tg + tf, tgAbs + tfAbs
+}

@@ -273,7 +273,7 @@ func BenchmarkAnalyzeRows(b *testing.B) {
 // search put through the kernel. The rows are the same (TestBoundedEqualsExhaustive).
 func BenchmarkBoundedTopK(b *testing.B) {
 	p := prepared2000(b)
-	for _, key := range []RankKey{RankNormalGap, RankScore} {
+	for _, key := range []RankKey{RankRate, RankNormalGap, RankScore} {
 		b.Run(string(key), func(b *testing.B) {
 			var tb, te float64
 			var kernel, scored int64

@@ -30,7 +30,8 @@ import (
 // frontier levels never pass (QuickScore gives OK = false) and are only counted.
 
 // keyBounds gives, for each rank key with a bound, an admissible lower bound of rankValue
-// over every pair of a block pair. A new key (a rate estimate, say) supplies its own entry:
+// over every pair of a block pair. A new key supplies its own entry (the rate key, which also
+// needs per-partner terms, is in preparedJob.keyBound):
 // any function of the QuickBound ranges that no pair of the block can beat. Keys without an
 // entry are ranked exhaustively.
 var keyBounds = map[RankKey]func(b *fmo.QuickBound) float64{
@@ -83,28 +84,93 @@ func filterRange(f *substrates.Filter, b *fmo.QuickBound, thr float64) (all, non
 
 // boundedBlock is a run of molecules in bound order with the box over their units.
 type boundedBlock struct {
-	idx []int32 // molecule indices (dienes, or dienophiles with all their variants)
-	box fmo.FrontierBox
+	idx  []int32 // molecule indices (dienes, or dienophiles with all their variants)
+	box  fmo.FrontierBox
+	side sideTerm // the key's one-partner part over the block (keyBound)
 }
 
 // blockSize is the number of molecules per block: small enough for tight bounds, large enough
 // that a block pair (blockSize² × activations pairs) is a worthwhile work unit.
 const blockSize = 32
 
+// blockBound gives an admissible lower bound of the ranking key over every pair of a block
+// pair from the QuickBound of the two boxes and each side's own term (dx for the dienes, ex
+// for the dienophiles; see sideTerms).
+type blockBound func(b *fmo.QuickBound, dx, ex sideTerm) float64
+
+// sideTerm is the largest value over a set of molecules of the part of the ranking key that
+// depends on one partner alone, and the largest sum of its absolute terms (for the rounding
+// margin). Keys without such a part use the zero value.
+type sideTerm struct{ v, abs float64 }
+
+func (a *sideTerm) widen(o sideTerm) { a.v, a.abs = max(a.v, o.v), max(a.abs, o.abs) }
+
+var noSide = sideTerm{v: math.Inf(-1)}
+
+// keyBound returns the block bound of j's key, with the per-diene and per-dienophile terms
+// (a dienophile's over all its activated variants), or nil when the key has no bound.
+//
+// The rate key (−rate.Model.Quick, lower is better) is bounded term by term: Quick is at most
+// the gap and frontier terms' maximum over the boxes (rate.Model.PairTermsMax) plus the
+// largest diene part over the block's dienes plus the largest dienophile part over the
+// block's dienophiles; the bound subtracts a rounding margin of 1e-9 (Σ|terms| + 1).
+func (j *preparedJob) keyBound() (kb blockBound, dTerm func(d int) sideTerm, eTerm func(e int) sideTerm) {
+	none := func(int) sideTerm { return noSide }
+	if j.rank == RankRate {
+		m := j.p.rate
+		if m == nil || !m.Bounded() {
+			return nil, nil, nil
+		}
+		kb = func(b *fmo.QuickBound, dx, ex sideTerm) float64 {
+			pv, pa := m.PairTermsMax(b)
+			v := pv + dx.v + ex.v
+			return -(v + 1e-9*(pa+dx.abs+ex.abs+1))
+		}
+		dTerm = func(d int) sideTerm {
+			v, a := m.DieneTermsMax(j.p.Dienes[d], j.p.dieneConf[d])
+			return sideTerm{v, a}
+		}
+		eTerm = func(e int) sideTerm {
+			t := noSide
+			for _, v := range j.p.Variants[e] {
+				if v != nil {
+					x, a := m.DienophileTermsMax(v)
+					t.widen(sideTerm{x, a})
+				}
+			}
+			return t
+		}
+		return kb, dTerm, eTerm
+	}
+	f := keyBounds[j.rank]
+	if f == nil {
+		return nil, nil, nil
+	}
+	return func(b *fmo.QuickBound, _, _ sideTerm) float64 { return f(b) }, none, none
+}
+
+// keyOf is the ranking key of a scored pair of diene d, as the exhaustive path computes it.
+func (j *preparedJob) keyOf(d int32, q *fmo.Quick) float64 {
+	if j.rank == RankRate {
+		return -j.p.rate.Quick(q, &j.p.dieneConf[d][q.DieneUnit])
+	}
+	return rankValue(j.rank, q)
+}
+
 // boundedSelect is the bounded phase 1 for preparedJob (engineConfig.Select), or nil when the
 // key has no bound, K is 0 or the kernel cannot be bounded (all-orbital scoring).
 func (j *preparedJob) boundedSelect(top int, lo, hi int64, progress func(int64)) func(context.Context, int) ([]scored, engineStats, error) {
-	kb := keyBounds[j.rank]
+	kb, dTerm, eTerm := j.keyBound()
 	if kb == nil || top <= 0 || j.p.Opts.AllOrbitals {
 		return nil
 	}
 	return func(ctx context.Context, workers int) ([]scored, engineStats, error) {
-		return j.bounded(ctx, workers, top, lo, hi, kb, progress)
+		return j.bounded(ctx, workers, top, lo, hi, kb, dTerm, eTerm, progress)
 	}
 }
 
-func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int64, kb func(*fmo.QuickBound) float64,
-	progress func(int64)) ([]scored, engineStats, error) {
+func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int64, kb blockBound,
+	dTerm, eTerm func(int) sideTerm, progress func(int64)) ([]scored, engineStats, error) {
 	p := j.p
 	quick := p.quick
 	thr := quick.DemandThreshold()
@@ -141,19 +207,25 @@ func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int6
 	st.Missing = hi - lo - st.Scored
 
 	dBox := make([]fmo.FrontierBox, nd)
+	dSide, eSide := make([]sideTerm, nd), make([]sideTerm, ne)
 	var allD, allE fmo.FrontierBox
+	allDS, allES := noSide, noSide
 	var dIdx, eIdx []int32
 	for d := range nd {
 		dBox[d] = p.Dienes[d].Box()
 		if dBox[d].Units > 0 {
 			allD.Union(&dBox[d])
 			dIdx = append(dIdx, int32(d))
+			dSide[d] = dTerm(d)
+			allDS.widen(dSide[d])
 		}
 	}
 	for e := range ne {
 		if okVar[e] > 0 {
 			allE.Union(&eBox[e])
 			eIdx = append(eIdx, int32(e))
+			eSide[e] = eTerm(e)
+			allES.widen(eSide[e])
 		}
 	}
 	// Bound order: each molecule against everything on the other side.
@@ -169,20 +241,21 @@ func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int6
 		}
 		slices.SortStableFunc(idx, func(a, b int32) int { return cmp.Compare(keys[pos[a]], keys[pos[b]]) })
 	}
-	order(dIdx, func(d int32) float64 { b := quick.Bound(&dBox[d], &allE); return kb(&b) })
-	order(eIdx, func(e int32) float64 { b := quick.Bound(&allD, &eBox[e]); return kb(&b) })
-	blocks := func(idx []int32, box []fmo.FrontierBox) []boundedBlock {
+	order(dIdx, func(d int32) float64 { b := quick.Bound(&dBox[d], &allE); return kb(&b, dSide[d], allES) })
+	order(eIdx, func(e int32) float64 { b := quick.Bound(&allD, &eBox[e]); return kb(&b, allDS, eSide[e]) })
+	blocks := func(idx []int32, box []fmo.FrontierBox, side []sideTerm) []boundedBlock {
 		var out []boundedBlock
 		for s := 0; s < len(idx); s += blockSize {
-			blk := boundedBlock{idx: idx[s:min(s+blockSize, len(idx))]}
+			blk := boundedBlock{idx: idx[s:min(s+blockSize, len(idx))], side: noSide}
 			for _, i := range blk.idx {
 				blk.box.Union(&box[i])
+				blk.side.widen(side[i])
 			}
 			out = append(out, blk)
 		}
 		return out
 	}
-	dBlocks, eBlocks := blocks(dIdx, dBox), blocks(eIdx, eBox)
+	dBlocks, eBlocks := blocks(dIdx, dBox, dSide), blocks(eIdx, eBox, eSide)
 
 	type blockPair struct {
 		d, e      int32
@@ -196,7 +269,7 @@ func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int6
 			b := quick.Bound(&dBlocks[di].box, &eBlocks[ei].box)
 			bp := blockPair{d: int32(di), e: int32(ei), lower: math.Inf(-1)}
 			if b.OK {
-				bp.lower = kb(&b)
+				bp.lower = kb(&b, dBlocks[di].side, eBlocks[ei].side)
 				bp.bounded = !math.IsNaN(bp.lower)
 				bp.all, bp.none = filterRange(&j.flt, &b, thr)
 			}
@@ -280,7 +353,7 @@ func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int6
 							if skip {
 								continue
 							}
-							s := scored{rankValue(j.rank, &q), k}
+							s := scored{j.keyOf(d, &q), k}
 							if len(loc.heap.h) < loc.heap.k || better(s, loc.heap.h[0]) {
 								loc.heap.offer(s)
 							}

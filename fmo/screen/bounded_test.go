@@ -57,6 +57,7 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 		{Demand: "normal", MaxGap: 1.2, MinRegioMargin: 0.002},
 	}
 	pruned, total := int64(0), int64(0)
+	ratePruned, rateTotal := int64(0), int64(0)
 	for _, seed := range []uint64{3, 17} {
 		lib := testsupport.SyntheticLibrary(70, 90, seed)
 		lib.Activations = []string{fmo.ActivateNone, fmo.ActivateLewis, fmo.ActivateIminium}
@@ -64,7 +65,11 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		keys := []RankKey{RankRate}
 		for key := range keyBounds {
+			keys = append(keys, key)
+		}
+		for _, key := range keys {
 			for fi, flt := range filters {
 				for _, c := range []struct {
 					top, workers int
@@ -87,6 +92,10 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 						pruned += gst.Scored - gst.Kernel
 						total += gst.Scored
 					}
+					if fi == 0 && c.top == 1 && key == RankRate {
+						ratePruned += gst.Scored - gst.Kernel
+						rateTotal += gst.Scored
+					}
 				}
 			}
 		}
@@ -98,10 +107,12 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 	if pruned*2 < total {
 		t.Errorf("top 1 without filters: only %d of %d pairs skipped", pruned, total)
 	}
+	t.Logf("rate, top 1 without filters: %d of %d pairs skipped", ratePruned, rateTotal)
 }
 
 // Bound admissibility, directly: for random pairs, every QuickScore number lies in the ranges
-// QuickKernel.Bound gives for the two molecules' boxes.
+// QuickKernel.Bound gives for the two molecules' boxes, and the rate key is never below the
+// rate bound of the two molecules (all variants of the dienophile).
 func TestQuickBoundAdmissible(t *testing.T) {
 	lib := testsupport.SyntheticLibrary(40, 40, 29)
 	lib.Activations = []string{fmo.ActivateNone, fmo.ActivateLewis}
@@ -110,9 +121,14 @@ func TestQuickBoundAdmissible(t *testing.T) {
 		t.Fatal(err)
 	}
 	n := 0
-	for _, d := range p.Dienes {
+	job := &preparedJob{p: p, space: p.Space(), rank: RankRate}
+	kb, dTerm, eTerm := job.keyBound()
+	if kb == nil {
+		t.Fatal("rate: no bound")
+	}
+	for di, d := range p.Dienes {
 		db := d.Box()
-		for _, vs := range p.Variants {
+		for ei, vs := range p.Variants {
 			for _, v := range vs {
 				if v == nil {
 					continue
@@ -125,6 +141,9 @@ func TestQuickBoundAdmissible(t *testing.T) {
 				}
 				n++
 				g := min(q.GapNormal, q.GapInverse)
+				if rv := -p.rate.Quick(&q, &p.dieneConf[di][q.DieneUnit]); rv < kb(&b, dTerm(di), eTerm(ei)) {
+					t.Errorf("%s + %s: rate key %v below its bound %v", d.SMILES, v.SMILES, rv, kb(&b, dTerm(di), eTerm(ei)))
+				}
 				if q.GapNormal < b.GapNormal[0] || q.GapNormal > b.GapNormal[1] || g < b.Gap[0] || g > b.Gap[1] ||
 					q.GapInverse-q.GapNormal < b.DemandDiff[0] || q.GapInverse-q.GapNormal > b.DemandDiff[1] ||
 					q.Best > b.BestMax || q.Stabilization > b.StabMax || q.RegioMargin > b.MarginMax {
