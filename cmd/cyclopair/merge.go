@@ -15,7 +15,7 @@ import (
 
 // newMergeCmd builds 'cyclopair merge': the global top K from ranked shard outputs.
 func newMergeCmd(s *streams) *cobra.Command {
-	var rankBy, params, calibration, amine string
+	var rankBy, params, calibration, amine, rateModel string
 	var top int
 	cmd := &cobra.Command{
 		Use:   "merge SHARD... ",
@@ -24,7 +24,8 @@ func newMergeCmd(s *streams) *cobra.Command {
 '-' reads stdin) and writes the global top K exactly as the unsharded screen would: the same
 rows in the same order, ranks renumbered, in the shards' format. The rows are ordered by the
 screen's ranking (key, then pair number); the key of each row is recomputed from its SMILES
-and activation, so give merge the --rank-by, --params and --amine the shards ran with.
+and activation, so give merge the --rank-by, --params, --amine and --rate-model the shards
+ran with.
 
 Not exact with --allowed-only, which the screen applies after the cut to K.`,
 		Example: `  # one shard per task of a batch-scheduler job array, then one merge
@@ -56,6 +57,10 @@ Not exact with --allowed-only, which the screen applies after the cut to K.`,
 				}
 				act = &fmo.ActivateOptions{Amine: am}
 			}
+			rm, err := loadRateModel(rateModel)
+			if err != nil {
+				return err
+			}
 			var format screen.MergeFormat
 			var header []string
 			var rows []screen.MergeRow
@@ -85,7 +90,7 @@ Not exact with --allowed-only, which the screen applies after the cut to K.`,
 			if format == 0 {
 				return nil
 			}
-			if err := screen.MergeShards(s.out, format, header, rows, key, top, opts, act); err != nil {
+			if err := screen.MergeShardsModel(s.out, format, header, rows, key, top, opts, act, rm); err != nil {
 				return &inputError{err}
 			}
 			return nil
@@ -96,6 +101,7 @@ Not exact with --allowed-only, which the screen applies after the cut to K.`,
 	f.IntVar(&top, "top", 0, "keep the best `K` rows (0: all)")
 	f.StringVar(&params, "params", "", "parameter set `name` or YAML file the shards used (default "+presets.DefaultParams+")")
 	f.StringVar(&calibration, "calibration", "", "x → eV calibration the shards used (`file`; ranks do not depend on it)")
+	f.StringVar(&rateModel, "rate-model", "", "rate model `FILE` the shards ranked by with --rank-by rate (default: the bundled fit)")
 	f.StringVar(&amine, "amine", "", "`SMILES` of the amine the shards used for iminium activation (default pyrrolidine)")
 	return cmd
 }

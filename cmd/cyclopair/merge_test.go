@@ -10,11 +10,11 @@ import (
 
 // Shard outputs merged equal the unsharded run, byte for byte, for JSON Lines and CSV and for
 // keys whose printed numbers are rounded (CSV) or differ from the kernel's in the last bit
-// (stabilization): merge recomputes the keys.
+// (stabilization), and for the rate key (the default): merge recomputes the keys.
 func TestMergeEqualsUnsharded(t *testing.T) {
 	dir := t.TempDir()
 	for _, format := range []string{"json", "csv"} {
-		for _, key := range []string{"normal_gap", "stabilization", "score"} {
+		for _, key := range []string{"rate", "normal_gap", "stabilization", "score"} {
 			base := []string{"screen", "../../presets/demo.yaml", "--activate", "none,lewis,iminium", "--rank-by", key,
 				"--top", "12", "--format", format, "--workers", "2"}
 			whole, _, code := runCLI(t, "", base...)
@@ -54,6 +54,7 @@ func TestMergeErrors(t *testing.T) {
 		{[]string{"merge", table}, exitUsage, "neither JSON Lines nor the screen's CSV"},
 		{[]string{"merge", filepath.Join(dir, "missing.jsonl")}, exitUsage, "cannot open"},
 		{[]string{"merge", table, "--rank-by", "speed"}, exitUsage, "--rank-by"},
+		{[]string{"merge", table, "--rate-model", filepath.Join(dir, "missing.yaml")}, exitUsage, "cannot read the rate model"},
 	} {
 		_, errOut, code := runCLI(t, "", c.args...)
 		if code != c.code || !strings.Contains(errOut, c.want) || !strings.HasPrefix(errOut, "cyclopair: ") {

@@ -12,6 +12,7 @@ import (
 	"strconv"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 )
 
 // Merging ranked shard outputs. `screen --shard i/n --top K` ranks the pairs of one slice of
@@ -133,15 +134,30 @@ func jsonRow(b []byte) (MergeRow, error) {
 
 // MergeShards orders rows by key and writes the first top (0: all) in format f to w.
 // Partners are built once per distinct SMILES with opts (and act for activations).
+// The rate key is recomputed with the bundled rate model (MergeShardsModel takes another).
 func MergeShards(w io.Writer, f MergeFormat, header []string, rows []MergeRow, key RankKey, top int,
 	opts *fmo.Options, act *fmo.ActivateOptions) error {
+	return MergeShardsModel(w, f, header, rows, key, top, opts, act, nil)
+}
+
+// MergeShardsModel is MergeShards with the rate model the shards ranked by (nil: the bundled
+// fit, rate.Default). The rate key does not depend on the temperature (only the isomer
+// shares do), so merge needs no temperature.
+func MergeShardsModel(w io.Writer, f MergeFormat, header []string, rows []MergeRow, key RankKey, top int,
+	opts *fmo.Options, act *fmo.ActivateOptions, model *rate.Model) error {
 	if key == RankNone || key == "" {
 		return fmt.Errorf("%w: rank key none: unranked shard outputs concatenate (cat part*.csv)", ErrMerge)
 	}
+	var confs map[*fmo.Partner][]rate.Conformation
 	if key == RankRate {
-		// The rate key needs the diene's conformation terms and the fitted model; merge does
-		// not rebuild them yet.
-		return fmt.Errorf("%w: rank key rate is not supported by merge yet (rank the shards by normal_gap, gap, stabilization, regio_margin or score)", ErrMerge)
+		if model == nil {
+			m, err := rate.Default()
+			if err != nil {
+				return err
+			}
+			model = m
+		}
+		confs = map[*fmo.Partner][]rate.Conformation{}
 	}
 	dienes := map[string]*fmo.Partner{}
 	variants := map[[2]string]*fmo.Partner{}
@@ -174,7 +190,19 @@ func MergeShards(w io.Writer, f MergeFormat, header []string, rows []MergeRow, k
 			v, variants[vk] = p, p
 		}
 		q := quick.Score(d, v)
-		r.key = rankValue(key, &q)
+		switch {
+		case key != RankRate:
+			r.key = rankValue(key, &q)
+		case q.OK: // as preparedJob.scoreChunk: −log10 k_rel at the preferred diene unit
+			c, ok := confs[d]
+			if !ok {
+				c = rate.PartnerConformations(d)
+				confs[d] = c
+			}
+			r.key = -model.Quick(&q, &c[q.DieneUnit])
+		default:
+			r.key = 0
+		}
 	}
 	slices.SortFunc(rows, func(a, b MergeRow) int {
 		return compareScored(scored{a.key, a.Number}, scored{b.key, b.Number})
