@@ -1,6 +1,7 @@
 package fmo
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -83,8 +84,12 @@ func NewPartnerFromMolecule(name string, m *molecule.Molecule, role Role, opts *
 
 // prepare perceives and solves p.Active and fills units and per-unit data.
 func (p *Partner) prepare(opts *Options) error {
-	pi, err := huckel.Perceive(p.Active, opts.Params)
+	limit := opts.maxCentres()
+	pi, err := huckel.PerceiveOptions{MaxCentres: limit}.Perceive(p.Active, opts.Params)
 	if err != nil {
+		if errors.Is(err, huckel.ErrTooManyCentres) {
+			return fmt.Errorf("%s: %w (the pair analysis takes at most %d π centres per partner by default: its cost grows about as n^3.3, some 4 s of CPU at 200 centres; cyclopair pair --max-centres raises it)", p.Name, err, limit)
+		}
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	orb := new(huckel.Orbitals)

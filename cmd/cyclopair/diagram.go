@@ -59,7 +59,7 @@ stdout, or to FILE with -o. Line styles and labels carry the meaning, so it prin
 	f.StringVarP(&o.out, "output", "o", "", "write the SVG to `FILE` instead of stdout")
 	_ = cmd.MarkFlagFilename("output", "svg")
 	addMethodFlags(f, &o.methodOptions, defaultMethod)
-	o.limits.flags(cmd, false)
+	o.limits.flags(cmd, 0)
 	return cmd
 }
 

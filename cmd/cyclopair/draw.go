@@ -103,7 +103,7 @@ and local rules before any lab work.`,
 	f.IntVar(&opts.rank, "orientation", 1, "pair picture: which orientation to draw, 1 = preferred, 2 = runner-up, … (as listed by 'cyclopair pair')")
 	f.BoolVar(&opts.numbers, "numbers", false, "print 1-based atom positions next to the atoms (C1, C2 … as in site names)")
 	addMethodFlags(f, &opts.methodOptions, defaultMethod)
-	opts.limits.flags(cmd, true)
+	opts.limits.flags(cmd, huckel.DefaultMaxCentres)
 	f.Lookup("max-centres").Usage += "; orbital pictures only (pair pictures keep the default)"
 	return cmd
 }

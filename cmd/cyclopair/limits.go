@@ -13,7 +13,8 @@ import (
 
 // inputLimits are the size limits of a command that reads SMILES (DEVELOPERS.md, Limits):
 // --max-smiles-length always, --max-centres where the command solves the molecule itself
-// (the pair analysis perceives inside package fmo, which keeps huckel.DefaultMaxCentres).
+// (default huckel.DefaultMaxCentres) or analyses a pair (default fmo.DefaultMaxPairCentres,
+// passed on through fmo.Options.MaxCentres).
 type inputLimits struct {
 	maxLength  int  // --max-smiles-length
 	maxCentres int  // --max-centres; 0 (huckel's default) where the command has no such flag
@@ -28,11 +29,12 @@ const (
 	maxCentresCeiling      = 10000
 )
 
-func (l *inputLimits) flags(cmd *cobra.Command, centres bool) {
+// flags adds the limit flags; centres is the default of --max-centres, 0 for none.
+func (l *inputLimits) flags(cmd *cobra.Command, centres int) {
 	cmd.Flags().IntVar(&l.maxLength, "max-smiles-length", smiles.MaxLength, fmt.Sprintf("longest SMILES accepted, in bytes (at most %d)", maxSMILESLengthCeiling))
-	l.centres = centres
-	if centres {
-		cmd.Flags().IntVar(&l.maxCentres, "max-centres", huckel.DefaultMaxCentres, fmt.Sprintf("largest π system solved, in centres (at most %d; time grows as n³, memory as n²)", maxCentresCeiling))
+	l.centres = centres > 0
+	if l.centres {
+		cmd.Flags().IntVar(&l.maxCentres, "max-centres", centres, fmt.Sprintf("largest π system solved, in centres (at most %d; time grows as n³, memory as n²)", maxCentresCeiling))
 	}
 }
 

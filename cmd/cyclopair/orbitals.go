@@ -87,7 +87,7 @@ Results are estimates for planning, not safety assessments.`,
 	cmd.Flags().Float64Var(&opts.omega, "omega", 0, "ω-technique constant (e.g. 1.4; 0 = off; default: the parameter set's)")
 	cmd.Flags().StringVar(&opts.calibration, "calibration", "default", "x → eV calibration: default, or a file from 'cyclopair calibrate --out'")
 	addMethodFlags(cmd.Flags(), &opts.methodOptions, defaultMethod)
-	opts.limits.flags(cmd, true)
+	opts.limits.flags(cmd, huckel.DefaultMaxCentres)
 	addOrbitalsListFlags(cmd, opts)
 	return cmd
 }

@@ -119,7 +119,7 @@ and local rules before any lab work.`,
 	f.BoolVar(&opts.chargeTerm, "charge-term", false, "include the Coulomb term −Σ q_r q_s/(εR) of the Klopman–Salem equation (off by default)")
 	addRateFlags(f, &opts.rateModel, &opts.temperature)
 	addMethodFlags(f, &opts.methodOptions, defaultMethod)
-	opts.limits.flags(cmd, false)
+	opts.limits.flags(cmd, fmo.DefaultMaxPairCentres)
 	return cmd
 }
 
@@ -133,6 +133,7 @@ func runPair(s *streams, opts *pairOptions) error {
 	fo := mod.options()
 	fo.ChargeTerm = opts.chargeTerm
 	fo.AllOrbitals = opts.allOrbitals
+	fo.MaxCentres = opts.limits.maxCentres
 	diene, err := pairPartner(opts.diene, fmo.RoleDiene, fo, &opts.limits)
 	if err != nil {
 		return err
