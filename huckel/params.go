@@ -217,45 +217,45 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 	if fp.Omega != nil {
 		p.Omega, p.omegaSet = *fp.Omega, true
 		if !finite(p.Omega) || p.Omega < 0 || p.Omega > 5 {
-			n := valueNode(top, "omega")
+			n := yamlfile.Value(top, "omega")
 			return nil, perr(filename, n, "omega must be between 0 and 5 (typical 1.4), got %g", p.Omega)
 		}
 	}
 	if fp.Auxiliary != nil {
 		p.Auxiliary, p.auxSet = *fp.Auxiliary, true
 		if !finite(p.Auxiliary) || p.Auxiliary < 0 || p.Auxiliary > 1 {
-			return nil, perr(filename, valueNode(top, "auxiliary"), "auxiliary must be between 0 and 1 (typical 0.1), got %g", p.Auxiliary)
+			return nil, perr(filename, yamlfile.Value(top, "auxiliary"), "auxiliary must be between 0 and 1 (typical 0.1), got %g", p.Auxiliary)
 		}
 	}
 	if p.KFallback != "" && p.KFallback != KFallbackGeometricMean {
-		return nil, perr(filename, valueNode(top, "k_fallback"), "unknown k_fallback %s (the only rule is %q)", errtext.Quote(p.KFallback), KFallbackGeometricMean)
+		return nil, perr(filename, yamlfile.Value(top, "k_fallback"), "unknown k_fallback %s (the only rule is %q)", errtext.Quote(p.KFallback), KFallbackGeometricMean)
 	}
 	if len(fp.KLike) > 0 {
 		p.KLike = make(map[CentreType]CentreType, len(fp.KLike))
-		kl := valueNode(top, "k_like")
+		kl := yamlfile.Value(top, "k_like")
 		for from, to := range fp.KLike {
 			if typeIndex(CentreType(from)) < 0 {
-				return nil, perr(filename, keyNode(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(from), typeHint())
+				return nil, perr(filename, yamlfile.Key(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(from), typeHint())
 			}
 			if typeIndex(CentreType(to)) < 0 {
-				return nil, perr(filename, valueNode(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(to), typeHint())
+				return nil, perr(filename, yamlfile.Value(kl, from), "k_like: unknown centre type %s (%s)", errtext.Quote(to), typeHint())
 			}
 			p.KLike[CentreType(from)] = CentreType(to)
 		}
 	}
-	hseq := valueNode(top, "h")
+	hseq := yamlfile.Value(top, "h")
 	seenH := map[CentreType]bool{}
 	for i, e := range fp.H {
-		n := seqItem(hseq, i)
+		n := yamlfile.Item(hseq, i)
 		t := CentreType(e.Type)
 		if typeIndex(t) < 0 {
-			return nil, perr(filename, valueNode(n, "type"), "h entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(e.Type), typeHint())
+			return nil, perr(filename, yamlfile.Value(n, "type"), "h entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(e.Type), typeHint())
 		}
 		if e.H == nil {
 			return nil, perr(filename, n, "h entry %d (%s): missing value h", i+1, t)
 		}
 		if !finite(*e.H) || math.Abs(*e.H) > MaxAbsH {
-			return nil, perr(filename, valueNode(n, "h"), "h entry %d (%s): h = %g is outside -%g…%g (the preset sets use -1 to 3)", i+1, t, *e.H, MaxAbsH, MaxAbsH)
+			return nil, perr(filename, yamlfile.Value(n, "h"), "h entry %d (%s): h = %g is outside -%g…%g (the preset sets use -1 to 3)", i+1, t, *e.H, MaxAbsH, MaxAbsH)
 		}
 		if strings.TrimSpace(e.Source) == "" {
 			return nil, perr(filename, n, "h entry %d (%s): missing source (say where the value comes from, or \"assumed: <rule>\")", i+1, t)
@@ -266,31 +266,31 @@ func ParseParams(data []byte, filename string) (*Params, error) {
 		seenH[t] = true
 		p.HEntries = append(p.HEntries, HEntry{Type: t, H: *e.H, Source: e.Source, Line: lineOf(n)})
 	}
-	kseq := valueNode(top, "k")
+	kseq := yamlfile.Value(top, "k")
 	type kkey struct {
 		a, b  CentreType
 		order int
 	}
 	seenK := map[kkey]bool{}
 	for i, e := range fp.K {
-		n := seqItem(kseq, i)
+		n := yamlfile.Item(kseq, i)
 		if len(e.Types) != 2 {
 			return nil, perr(filename, n, "k entry %d: types must list exactly two centre types, got %d", i+1, len(e.Types))
 		}
 		a, b := CentreType(e.Types[0]), CentreType(e.Types[1])
 		for _, t := range []CentreType{a, b} {
 			if typeIndex(t) < 0 {
-				return nil, perr(filename, valueNode(n, "types"), "k entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(string(t)), typeHint())
+				return nil, perr(filename, yamlfile.Value(n, "types"), "k entry %d: unknown centre type %s (%s)", i+1, errtext.Quote(string(t)), typeHint())
 			}
 		}
 		if e.Order < 0 || e.Order > 3 {
-			return nil, perr(filename, valueNode(n, "order"), "k entry %d: order must be 1, 2 or 3 (or omitted for any order), got %d", i+1, e.Order)
+			return nil, perr(filename, yamlfile.Value(n, "order"), "k entry %d: order must be 1, 2 or 3 (or omitted for any order), got %d", i+1, e.Order)
 		}
 		if e.K == nil {
 			return nil, perr(filename, n, "k entry %d (%s–%s): missing value k", i+1, a, b)
 		}
 		if !finite(*e.K) || *e.K <= 0 || *e.K > MaxK {
-			return nil, perr(filename, valueNode(n, "k"), "k entry %d (%s–%s): k = %g must be in (0, %g] (the preset sets use 0.2 to 1.1)", i+1, a, b, *e.K, MaxK)
+			return nil, perr(filename, yamlfile.Value(n, "k"), "k entry %d (%s–%s): k = %g must be in (0, %g] (the preset sets use 0.2 to 1.1)", i+1, a, b, *e.K, MaxK)
 		}
 		if strings.TrimSpace(e.Source) == "" {
 			return nil, perr(filename, n, "k entry %d (%s–%s): missing source", i+1, a, b)
@@ -367,20 +367,20 @@ func checkParamsText(fp *fileParams, top *yaml.Node, file string) error {
 		{"k_fallback_source", fp.KFallbackSource, true},
 	} {
 		if bad, ok := controlChar(f.v, f.multiline); ok {
-			return perr(file, valueNode(top, f.key), "%s contains the control character %s (write plain text)", f.key, errtext.Quote(string(bad)))
+			return perr(file, yamlfile.Value(top, f.key), "%s contains the control character %s (write plain text)", f.key, errtext.Quote(string(bad)))
 		}
 	}
 	if n := utf8.RuneCountInString(fp.Name); n > maxNameRunes {
-		return perr(file, valueNode(top, "name"), "name is %d characters long; at most %d (it heads every output)", n, maxNameRunes)
+		return perr(file, yamlfile.Value(top, "name"), "name is %d characters long; at most %d (it heads every output)", n, maxNameRunes)
 	}
 	for i, e := range fp.H {
 		if bad, ok := controlChar(e.Source, true); ok {
-			return perr(file, valueNode(seqItem(valueNode(top, "h"), i), "source"), "h entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
+			return perr(file, yamlfile.Value(yamlfile.Item(yamlfile.Value(top, "h"), i), "source"), "h entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
 		}
 	}
 	for i, e := range fp.K {
 		if bad, ok := controlChar(e.Source, true); ok {
-			return perr(file, valueNode(seqItem(valueNode(top, "k"), i), "source"), "k entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
+			return perr(file, yamlfile.Value(yamlfile.Item(yamlfile.Value(top, "k"), i), "source"), "k entry %d: source contains the control character %s", i+1, errtext.Quote(string(bad)))
 		}
 	}
 	return nil
@@ -426,38 +426,6 @@ func rejectAliases(n *yaml.Node, file string) error {
 		return perr(file, a, "YAML aliases are not allowed in parameter files (write the value out)")
 	}
 	return nil
-}
-
-// keyNode and valueNode find a key / its value in a mapping node (nil if absent).
-func keyNode(m *yaml.Node, key string) *yaml.Node {
-	if m == nil || m.Kind != yaml.MappingNode {
-		return m
-	}
-	for i := 0; i+1 < len(m.Content); i += 2 {
-		if m.Content[i].Value == key {
-			return m.Content[i]
-		}
-	}
-	return m
-}
-
-func valueNode(m *yaml.Node, key string) *yaml.Node {
-	if m == nil || m.Kind != yaml.MappingNode {
-		return m
-	}
-	for i := 0; i+1 < len(m.Content); i += 2 {
-		if m.Content[i].Value == key {
-			return m.Content[i+1]
-		}
-	}
-	return m
-}
-
-func seqItem(s *yaml.Node, i int) *yaml.Node {
-	if s == nil || s.Kind != yaml.SequenceNode || i >= len(s.Content) {
-		return s
-	}
-	return s.Content[i]
 }
 
 // compile precomputes the lookup arrays (K resolves KLike and the fallback once, so a

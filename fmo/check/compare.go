@@ -2,12 +2,10 @@ package check
 
 import (
 	"fmt"
-	"math"
 	"slices"
 	"strings"
 
-	"gonum.org/v1/gonum/stat"
-
+	"cyclopair/fmo/internal/stats"
 	"cyclopair/huckel/smiles"
 )
 
@@ -99,38 +97,9 @@ func Spearman(x, y []float64) float64 {
 	if len(x) != len(y) {
 		panic("check.Spearman: length mismatch")
 	}
-	return stat.Correlation(ranks(x), ranks(y), nil)
+	return stats.Spearman(x, y, rankTol)
 }
 
 // rankTol: values closer than this share a rank (Hückel figures of molecules that differ
 // only in stereochemistry are equal up to rounding).
 const rankTol = 1e-9
-
-func ranks(v []float64) []float64 {
-	idx := make([]int, len(v))
-	for i := range idx {
-		idx[i] = i
-	}
-	slices.SortStableFunc(idx, func(a, b int) int {
-		switch {
-		case v[a] < v[b]:
-			return -1
-		case v[a] > v[b]:
-			return 1
-		}
-		return 0
-	})
-	r := make([]float64, len(v))
-	for i := 0; i < len(idx); {
-		j := i
-		for j+1 < len(idx) && v[idx[j+1]]-v[idx[i]] <= rankTol*math.Max(1, math.Abs(v[idx[i]])) {
-			j++
-		}
-		mid := float64(i+j)/2 + 1
-		for k := i; k <= j; k++ {
-			r[idx[k]] = mid
-		}
-		i = j + 1
-	}
-	return r
-}

@@ -4,10 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"cyclopair/fmo/internal/stats"
 )
 
 // FitOptions choose which coefficients are fitted. A term that is not fitted keeps its
@@ -233,52 +234,9 @@ const IntervalLevel = 0.90
 // Spearman is the Spearman rank correlation of x and y (average ranks for ties); 0 when
 // either has no spread.
 func Spearman(x, y []float64) float64 {
-	rx, ry := ranks(x), ranks(y)
-	n := float64(len(x))
-	var mx, my float64
-	for i := range rx {
-		mx += rx[i]
-		my += ry[i]
-	}
-	mx /= n
-	my /= n
-	var sxy, sxx, syy float64
-	for i := range rx {
-		sxy += (rx[i] - mx) * (ry[i] - my)
-		sxx += (rx[i] - mx) * (rx[i] - mx)
-		syy += (ry[i] - my) * (ry[i] - my)
-	}
-	if sxx == 0 || syy == 0 {
+	rho := stats.Spearman(x, y, 0)
+	if math.IsNaN(rho) { // ranks are finite, so NaN means no spread (or no rows)
 		return 0
 	}
-	return sxy / math.Sqrt(sxx*syy)
-}
-
-func ranks(v []float64) []float64 {
-	idx := make([]int, len(v))
-	for i := range idx {
-		idx[i] = i
-	}
-	slices.SortStableFunc(idx, func(a, b int) int {
-		switch {
-		case v[a] < v[b]:
-			return -1
-		case v[a] > v[b]:
-			return 1
-		}
-		return 0
-	})
-	r := make([]float64, len(v))
-	for i := 0; i < len(idx); {
-		j := i
-		for j+1 < len(idx) && v[idx[j+1]] == v[idx[i]] {
-			j++
-		}
-		avg := float64(i+j)/2 + 1
-		for k := i; k <= j; k++ {
-			r[idx[k]] = avg
-		}
-		i = j + 1
-	}
-	return r
+	return rho
 }

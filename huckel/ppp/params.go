@@ -240,13 +240,13 @@ func Parse(data []byte, filename string) (*Params, error) {
 	switch p.Gamma {
 	case "", GammaMatagaNishimoto, GammaOhno:
 	default:
-		return nil, at(filename, value(top, "gamma"), "unknown gamma formula %q (use %s or %s)", p.Gamma, GammaMatagaNishimoto, GammaOhno)
+		return nil, at(filename, yamlfile.Value(top, "gamma"), "unknown gamma formula %q (use %s or %s)", p.Gamma, GammaMatagaNishimoto, GammaOhno)
 	}
 	if p.Gamma != "" && strings.TrimSpace(p.GammaSource) == "" {
-		return nil, at(filename, value(top, "gamma"), "gamma: missing gamma_source (say why this formula)")
+		return nil, at(filename, yamlfile.Value(top, "gamma"), "gamma: missing gamma_source (say why this formula)")
 	}
 	if b := fp.Beta; b != nil {
-		n := value(top, "beta")
+		n := yamlfile.Value(top, "beta")
 		if b.Value == nil || b.R0 == nil || b.Zeta == nil {
 			return nil, at(filename, n, "beta needs value, r0 and zeta")
 		}
@@ -259,7 +259,7 @@ func Parse(data []byte, filename string) (*Params, error) {
 		}
 	}
 	if g := fp.Geometry; g != nil {
-		n := value(top, "geometry")
+		n := yamlfile.Value(top, "geometry")
 		if g.BondLength == nil || !(*g.BondLength > 0.8 && *g.BondLength < 2.5) {
 			return nil, at(filename, n, "geometry: bond_length must be given, in (0.8, 2.5) Å")
 		}
@@ -268,22 +268,22 @@ func Parse(data []byte, filename string) (*Params, error) {
 		}
 		p.BondLength, p.GeometrySource = *g.BondLength, g.Source
 	}
-	seq := value(top, "centres")
+	seq := yamlfile.Value(top, "centres")
 	seen := map[huckel.CentreType]bool{}
 	for i, e := range fp.Centres {
-		n := item(seq, i)
+		n := yamlfile.Item(seq, i)
 		t := huckel.CentreType(e.Type)
 		switch {
 		case typeIndex(t) < 0:
-			return nil, at(filename, value(n, "type"), "centres entry %d: unknown centre type %q", i+1, e.Type)
+			return nil, at(filename, yamlfile.Value(n, "type"), "centres entry %d: unknown centre type %q", i+1, e.Type)
 		case e.IP == nil || e.Gamma == nil || e.Z == nil:
 			return nil, at(filename, n, "centres entry %d (%s): needs ip, gamma and z", i+1, t)
 		case !(*e.IP > 0 && *e.IP < 60):
-			return nil, at(filename, value(n, "ip"), "centres entry %d (%s): ip = %g eV is outside (0, 60)", i+1, t, *e.IP)
+			return nil, at(filename, yamlfile.Value(n, "ip"), "centres entry %d (%s): ip = %g eV is outside (0, 60)", i+1, t, *e.IP)
 		case !(*e.Gamma > 1 && *e.Gamma < 40):
-			return nil, at(filename, value(n, "gamma"), "centres entry %d (%s): gamma = %g eV is outside (1, 40)", i+1, t, *e.Gamma)
+			return nil, at(filename, yamlfile.Value(n, "gamma"), "centres entry %d (%s): gamma = %g eV is outside (1, 40)", i+1, t, *e.Gamma)
 		case !(*e.Z >= 0 && *e.Z <= 3):
-			return nil, at(filename, value(n, "z"), "centres entry %d (%s): z = %g is outside [0, 3]", i+1, t, *e.Z)
+			return nil, at(filename, yamlfile.Value(n, "z"), "centres entry %d (%s): z = %g is outside [0, 3]", i+1, t, *e.Z)
 		case strings.TrimSpace(e.Source) == "":
 			return nil, at(filename, n, "centres entry %d (%s): missing source (say where the values come from, or \"assumed: <rule>\")", i+1, t)
 		case seen[t]:
@@ -390,25 +390,6 @@ func noAliases(n *yaml.Node, file string) error {
 		return at(file, a, "YAML aliases are not allowed in parameter files (write the value out)")
 	}
 	return nil
-}
-
-func value(m *yaml.Node, key string) *yaml.Node {
-	if m == nil || m.Kind != yaml.MappingNode {
-		return m
-	}
-	for i := 0; i+1 < len(m.Content); i += 2 {
-		if m.Content[i].Value == key {
-			return m.Content[i+1]
-		}
-	}
-	return m
-}
-
-func item(s *yaml.Node, i int) *yaml.Node {
-	if s == nil || s.Kind != yaml.SequenceNode || i >= len(s.Content) {
-		return s
-	}
-	return s.Content[i]
 }
 
 func init() {

@@ -61,35 +61,11 @@ func (e *Error) Excerpt() string { return errtext.Excerpt(e.Input, e.Pos) }
 // either case, and errors.Is works with the sentinels.
 type ErrorList []*Error
 
-func (l ErrorList) Error() string {
-	switch len(l) {
-	case 0:
-		return "no errors"
-	case 1:
-		return l[0].Error()
-	case 2:
-		return fmt.Sprintf("%s (and 1 more error)", l[0])
-	}
-	return fmt.Sprintf("%s (and %d more errors)", l[0], len(l)-1)
-}
+func (l ErrorList) Error() string { return errtext.ListText(l) }
 
 // Err returns nil for an empty list, the single *Error for a list of one, and the list
 // itself otherwise.
-func (l ErrorList) Err() error {
-	switch len(l) {
-	case 0:
-		return nil
-	case 1:
-		return l[0]
-	}
-	return l
-}
+func (l ErrorList) Err() error { return errtext.ListErr(l) }
 
 // Unwrap lets errors.Is and errors.As look at every error of the list.
-func (l ErrorList) Unwrap() []error {
-	out := make([]error, len(l))
-	for i, e := range l {
-		out[i] = e
-	}
-	return out
-}
+func (l ErrorList) Unwrap() []error { return errtext.ListUnwrap(l) }

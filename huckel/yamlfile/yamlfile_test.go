@@ -108,3 +108,32 @@ func TestNodeChecks(t *testing.T) {
 		t.Errorf("FieldPos(nil) = %d:%d", l, c)
 	}
 }
+
+func TestLookups(t *testing.T) {
+	var root yaml.Node
+	src := "h:\n  - type: C\n    h: 0.5\nname: x\n"
+	if err := yaml.Unmarshal([]byte(src), &root); err != nil {
+		t.Fatal(err)
+	}
+	top := root.Content[0]
+	pos := func(n *yaml.Node) [2]int { return [2]int{n.Line, n.Column} }
+	for _, c := range []struct {
+		what string
+		n    *yaml.Node
+		want [2]int
+	}{
+		{"Key(name)", Key(top, "name"), [2]int{4, 1}},
+		{"Value(name)", Value(top, "name"), [2]int{4, 7}},
+		{"Value(Item(h, 0), h)", Value(Item(Value(top, "h"), 0), "h"), [2]int{3, 8}},
+		{"missing key falls back to the mapping", Value(top, "k"), [2]int{1, 1}},
+		{"missing item falls back to the sequence", Item(Value(top, "h"), 5), [2]int{2, 3}},
+		{"a scalar is its own value", Value(Value(top, "name"), "x"), [2]int{4, 7}},
+	} {
+		if got := pos(c.n); got != c.want {
+			t.Errorf("%s at %v, want %v", c.what, got, c.want)
+		}
+	}
+	if Value(nil, "x") != nil || Item(nil, 0) != nil || Key(nil, "x") != nil {
+		t.Error("nil node must stay nil")
+	}
+}
