@@ -148,8 +148,12 @@ type ActivationEffect struct {
 // 2π partner ("dienophile") under one activation. Field names in JSON are a contract that other
 // tools parse (DEVELOPERS.md, "Output contracts"): keep them stable.
 type Pair struct {
-	DieneName           string `json:"diene_name,omitempty"`
-	DienophileName      string `json:"dienophile_name,omitempty"`
+	DieneName      string `json:"diene_name,omitempty"`
+	DienophileName string `json:"dienophile_name,omitempty"`
+	// DieneNotes and DienophileNotes are the partners' notes from the substrate list (extra
+	// CSV/TSV columns, SD data items, a YAML row's notes), set by the screen; empty otherwise.
+	DieneNotes          string `json:"diene_notes,omitempty"`
+	DienophileNotes     string `json:"dienophile_notes,omitempty"`
 	Diene               string `json:"diene"`      // SMILES as given
 	Dienophile          string `json:"dienophile"` // SMILES as given (unactivated)
 	Activation          string `json:"activation"` // "none" | "proton" | "lewis" | "iminium"

@@ -261,6 +261,8 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
 	pair.AttachSideChannels(p.sides.SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
 	pair.DieneName = p.DieneRows[d].Name
 	pair.DienophileName = p.DphRows[e].Name
+	pair.DieneNotes = p.DieneRows[d].Notes
+	pair.DienophileNotes = p.DphRows[e].Notes
 	return pair, nil
 }
 

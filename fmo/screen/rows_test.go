@@ -51,6 +51,8 @@ func analyzeAtPlain(p *Prepared, d, e, a int) (*fmo.Pair, error) {
 	pair.AttachSideChannels(fmo.SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
 	pair.DieneName = p.DieneRows[d].Name
 	pair.DienophileName = p.DphRows[e].Name
+	pair.DieneNotes = p.DieneRows[d].Notes
+	pair.DienophileNotes = p.DphRows[e].Notes
 	return pair, nil
 }
 

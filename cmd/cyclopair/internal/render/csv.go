@@ -14,6 +14,7 @@ var csvHeader = []string{
 	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
 	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
 	"params", "calibration", "caution", "log10_k_rel", "log10_k_rel_lo", "log10_k_rel_hi",
+	"diene_notes", "dienophile_notes", // the partners' notes from the substrate list (extra columns, SD data items)
 }
 
 type csvWriter struct {
@@ -54,7 +55,7 @@ func csvRecord(r Row) []string {
 		n := len(rec)
 		rec[n-3], rec[n-2], rec[n-1] = f3(p.Rate.Log10KRel), f3(p.Rate.Interval[0]), f3(p.Rate.Interval[1])
 	}
-	return rec
+	return append(rec, t(p.DieneNotes), t(p.DienophileNotes))
 }
 
 func (c *csvWriter) Close(Summary) error {
