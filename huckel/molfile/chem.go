@@ -219,7 +219,7 @@ func (p *recParser) kekulize(ct *ctab, m *molecule.Molecule) bool {
 	}
 	if u := smiles.Kekulize(m, need); u >= 0 {
 		a := m.Atoms[u]
-		system := aromaticSystem(m, need, u)
+		system := smiles.AromaticSystem(m, need, u)
 		why := ""
 		if len(system)%2 == 1 {
 			why = fmt.Sprintf("; %d atoms of this ring system need one, an odd number", len(system))
@@ -237,30 +237,6 @@ func (p *recParser) kekulize(ct *ctab, m *molecule.Molecule) bool {
 		return false
 	}
 	return true
-}
-
-// aromaticSystem returns, in index order, the atoms with need set that are joined to
-// start through aromatic bonds between such atoms.
-func aromaticSystem(m *molecule.Molecule, need []bool, start int) []int {
-	seen := map[int]bool{start: true}
-	stack := []int{start}
-	for len(stack) > 0 {
-		v := stack[len(stack)-1]
-		stack = stack[:len(stack)-1]
-		for _, e := range m.Neighbors(v) {
-			if m.Bonds[e.Bond].Aromatic && need[e.To] && !seen[e.To] {
-				seen[e.To] = true
-				stack = append(stack, e.To)
-			}
-		}
-	}
-	out := make([]int, 0, len(seen))
-	for i := range m.Atoms {
-		if seen[i] {
-			out = append(out, i)
-		}
-	}
-	return out
 }
 
 // bondLine finds the file line of a bond (by its atoms) for messages.

@@ -169,7 +169,7 @@ func (p *parser) kekuliseAll() bool {
 	if unmatched >= 0 {
 		a := m.Atoms[unmatched]
 		why := ""
-		if k := systemSize(m, need, unmatched); k%2 == 1 {
+		if k := len(aromaticSystem(m, need, unmatched)); k%2 == 1 {
 			why = fmt.Sprintf("; %d atoms of this ring system need one, an odd number", k)
 		}
 		p.errorf(a.Pos, ErrKekulize, kekuleHint(a),
@@ -179,9 +179,9 @@ func (p *parser) kekuliseAll() bool {
 	return true
 }
 
-// systemSize counts the atoms with need set that are joined to start through aromatic
-// bonds between such atoms.
-func systemSize(m *molecule.Molecule, need []bool, start int) int {
+// aromaticSystem returns, in index order, the atoms with need set that are joined to start
+// through aromatic bonds between such atoms.
+func aromaticSystem(m *molecule.Molecule, need []bool, start int) []int {
 	seen := map[int]bool{start: true}
 	stack := []int{start}
 	for len(stack) > 0 {
@@ -194,7 +194,13 @@ func systemSize(m *molecule.Molecule, need []bool, start int) int {
 			}
 		}
 	}
-	return len(seen)
+	out := make([]int, 0, len(seen))
+	for i := range m.Atoms {
+		if seen[i] {
+			out = append(out, i)
+		}
+	}
+	return out
 }
 
 func kekuleHint(a molecule.Atom) string {

@@ -41,3 +41,10 @@ func Kekulize(m *molecule.Molecule, need []bool) int {
 	}
 	return kekulise(m, need, nil)
 }
+
+// AromaticSystem returns, in index order, the atoms with need set that are joined to start
+// through aromatic bonds between such atoms: the conjugated system a failed kekulisation
+// names in its message.
+func AromaticSystem(m *molecule.Molecule, need []bool, start int) []int {
+	return aromaticSystem(m, need, start)
+}
