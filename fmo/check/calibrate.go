@@ -20,8 +20,8 @@ import (
 // This file refits the x → eV calibration from a user's data and reads and writes the
 // calibration files other commands load with --calibration.
 //
-// Data files have the shape of the project's reference list
-// (shared/reference-data/ionisation-and-affinity.yaml):
+// Data files have the shape of the reference list the bundled calibration points were taken
+// from (see presets/calibration/points.yaml and fmo/check/testdata/calibration/):
 //
 //	entries:
 //	- id: IE08                        # optional; the row number is used when absent
