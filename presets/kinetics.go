@@ -354,29 +354,34 @@ func ParseKinetics(rates, selectivity []byte) (*KineticsData, error) {
 			return nil, c.err
 		}
 	}
-	for i, s := range rr.SubstituentEffects {
-		c.at(KineticsRatesName, rLines["substituent_effects"], i, s.ID)
-		out.SubstituentEffects = append(out.SubstituentEffects, c.substituent(s))
-		if c.err != nil {
-			return nil, c.err
-		}
+	if out.SubstituentEffects, err = checkEach(c, KineticsRatesName, rLines["substituent_effects"], rr.SubstituentEffects,
+		func(s rawSubstituent) string { return s.ID }, c.substituent); err != nil {
+		return nil, err
 	}
-	for i, r := range rs.Regio {
-		c.at(KineticsSelectivityName, sLines["regio"], i, r.ID)
-		out.Regio = append(out.Regio, c.regio(r))
-		if c.err != nil {
-			return nil, c.err
-		}
+	if out.Regio, err = checkEach(c, KineticsSelectivityName, sLines["regio"], rs.Regio,
+		func(r rawRegio) string { return r.ID }, c.regio); err != nil {
+		return nil, err
 	}
-	for i, e := range rs.Endo {
-		c.at(KineticsSelectivityName, sLines["endo"], i, e.ID)
-		out.Endo = append(out.Endo, c.endo(e))
-		if c.err != nil {
-			return nil, c.err
-		}
+	if out.Endo, err = checkEach(c, KineticsSelectivityName, sLines["endo"], rs.Endo,
+		func(e rawEndo) string { return e.ID }, c.endo); err != nil {
+		return nil, err
 	}
 	if err := c.duplicates(out); err != nil {
 		return nil, err
+	}
+	return out, nil
+}
+
+// checkEach checks the entries of one list of file in order with check, positioning c at
+// each entry's line and id first, and stops at the first error.
+func checkEach[R, T any](c *kinChecker, file string, lines []int, raw []R, id func(R) string, check func(R) T) ([]T, error) {
+	var out []T
+	for i, r := range raw {
+		c.at(file, lines, i, id(r))
+		out = append(out, check(r))
+		if c.err != nil {
+			return nil, c.err
+		}
 	}
 	return out, nil
 }
