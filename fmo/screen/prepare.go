@@ -250,12 +250,13 @@ func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
 		return nil, err
 	}
 	if mode := p.Activations[a]; mode != fmo.ActivateNone && pair.Rate != nil {
-		if free, err := fmo.Analyze(diene, p.Dienophiles[e], p.Opts); err == nil {
-			if d, err := rate.FromPair(free, diene.Mol); err == nil {
-				v := pair.Rate.Log10KRel - p.rate.Predict(&d).Log10KRel
-				v = math.Round(v*1e6) / 1e6
-				pair.Rate.Log10VsFree = &v
-			}
+		// The free pair's rate from QuickScore: the same descriptors as a full analysis of
+		// the free pair (checked on every prediction of rate's TestOrderings), without its adducts.
+		if q := p.quick.Score(diene, p.Dienophiles[e]); q.OK {
+			fd := rate.FromQuick(&q, p.dieneConf[d][q.DieneUnit], fmo.ActivateNone)
+			v := pair.Rate.Log10KRel - p.rate.Predict(&fd).Log10KRel
+			v = math.Round(v*1e6) / 1e6
+			pair.Rate.Log10VsFree = &v
 		}
 	}
 	pair.AttachSideChannels(p.sides.SideChannels(diene, p.Dienophiles[e], pair, p.Opts))
