@@ -46,6 +46,28 @@ const MaxListedOrientations = 64
 // Analyze panics on misuse (nil partners, wrong roles, nil Options); it returns an error only
 // if no orientation can be built.
 func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
+	return AnalyzeDetail(diene, dienophile, opts, DetailAll)
+}
+
+// Detail says how much of a Pair AnalyzeDetail fills in beyond the ranking numbers.
+type Detail uint8
+
+const (
+	// DetailAll fills every listed orientation: canonical product, endo/exo stereo
+	// products, follow-up steps and isolated product (what Analyze does).
+	DetailAll Detail = iota
+	// DetailBest fills those only for the preferred orientation (Orientations[0]); the
+	// other listed orientations keep everything else (bonds, sites, labels, every energy
+	// term, fractions) but carry no Product, StereoProducts, FollowUp or IsolatedProduct.
+	// Which orientations are listed, the margins, verdicts and warnings are the same as
+	// with DetailAll: adducts are still told apart exactly. For outputs that show only the
+	// preferred orientation's product (the screen's table, CSV, Markdown and SD formats),
+	// where the stereo forms of the other orientations were most of a row's cost.
+	DetailBest
+)
+
+// AnalyzeDetail is Analyze computing the per-orientation extras the detail level asks for.
+func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*Pair, error) {
 	opts.check()
 	if diene == nil || dienophile == nil {
 		panic("fmo.Analyze: nil partner")
@@ -183,8 +205,12 @@ func Analyze(diene, dienophile *Partner, opts *Options) (*Pair, error) {
 			continue
 		}
 		listed = append(listed, i)
-		// canonical product, stereo forms and follow-up steps only for the listed rows
 		c := &cands[i]
+		if detail == DetailBest && i != 0 {
+			pair.Orientations = append(pair.Orientations, c.o)
+			continue
+		}
+		// canonical product, stereo forms and follow-up steps only for the listed rows
 		c.product = keys.canonical(i)
 		c.o.Product = c.product
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]

@@ -288,6 +288,9 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	var pairFailures []error
 	so := cfg.ScreenOptions()
 	so.Exhaustive = o.exhaustive
+	if format != "html" && render.Format(format).BestOnly() {
+		so.Detail = fmo.DetailBest // the rows print only the preferred orientation
+	}
 	so.Progress = prog.Add
 	so.Selected = func(n int64) {
 		prog.Stop()

@@ -229,12 +229,17 @@ func parallelFor(ctx context.Context, workers, n int, f func(i int)) error {
 // carries the activation effect against the free dienophile and the diene cautions of the
 // mode, and the side channels (diene dimerisation, product as dienophile) are checked.
 func (p *Prepared) AnalyzeAt(d, e, a int) (*fmo.Pair, error) {
+	return p.AnalyzeAtDetail(d, e, a, fmo.DetailAll)
+}
+
+// AnalyzeAtDetail is AnalyzeAt with the pair analysed at the given detail (fmo.AnalyzeDetail).
+func (p *Prepared) AnalyzeAtDetail(d, e, a int, detail fmo.Detail) (*fmo.Pair, error) {
 	v := p.Variants[e][a]
 	if v == nil {
 		return nil, fmt.Errorf("activation %s does not apply to %s", p.Activations[a], p.Dienophiles[e].Name)
 	}
 	diene := p.Dienes[d]
-	pair, err := fmo.Analyze(diene, v, p.Opts)
+	pair, err := fmo.AnalyzeDetail(diene, v, p.Opts, detail)
 	if err != nil {
 		return nil, err
 	}

@@ -92,6 +92,7 @@ func TestAnalyzeAtActivatedMatchesFullFree(t *testing.T) {
 							t.Fatalf("%s + %s (%s): row differs from the plain analysis\n got %s\nwant %s",
 								p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, p.Activations[a], g, w)
 						}
+						checkDetailBest(t, p, d, e, a, want)
 						rows++
 					}
 				}
@@ -100,5 +101,35 @@ func TestAnalyzeAtActivatedMatchesFullFree(t *testing.T) {
 		if rows < 100 {
 			t.Errorf("only %d rows compared", rows)
 		}
+	}
+}
+
+// checkDetailBest: a row analysed at fmo.DetailBest equals the full row want except that the
+// orientations after the preferred one carry no product, stereo forms, follow-up steps or
+// isolated product; in particular every CSV/table column (margins, warnings with the side
+// channels, the preferred product, the rate) is the same.
+func checkDetailBest(t *testing.T, p *Prepared, d, e, a int, want *fmo.Pair) {
+	t.Helper()
+	got, err := p.AnalyzeAtDetail(d, e, a, fmo.DetailBest)
+	if err != nil {
+		t.Fatalf("%d/%d/%d: DetailBest failed: %v", d, e, a, err)
+	}
+	for i := 1; i < len(got.Orientations); i++ {
+		o := &got.Orientations[i]
+		if o.Product != "" || o.StereoProducts != nil || o.FollowUp != nil || o.IsolatedProduct != "" {
+			t.Fatalf("%d/%d/%d: orientation %d has extras at DetailBest: %+v", d, e, a, i, o)
+		}
+	}
+	blank := *want
+	blank.Orientations = slices.Clone(want.Orientations)
+	for i := 1; i < len(blank.Orientations); i++ {
+		o := &blank.Orientations[i]
+		o.Product, o.StereoProducts, o.FollowUp, o.IsolatedProduct = "", nil, nil, ""
+	}
+	g, _ := json.Marshal(got)
+	w, _ := json.Marshal(&blank)
+	if string(g) != string(w) {
+		t.Fatalf("%s + %s (%s): DetailBest row differs from the full row\n got %s\nwant %s",
+			p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, p.Activations[a], g, w)
 	}
 }

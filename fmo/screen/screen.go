@@ -20,6 +20,10 @@ type ScreenOptions struct {
 	// same rows.
 	Exhaustive bool
 	Activate   *fmo.ActivateOptions // nil: defaults (pyrrolidine for iminium, the set's O=LA for Lewis)
+	// Detail is how much of each row's Pair the full analysis fills (fmo.DetailAll, the
+	// zero value, or fmo.DetailBest for outputs that show only the preferred orientation's
+	// product); the rows and their order do not depend on it.
+	Detail fmo.Detail
 	// Progress, if not nil, is called concurrently from workers with the number of pairs
 	// just scored.
 	Progress func(n int64)
@@ -65,10 +69,11 @@ type ScreenStats struct {
 
 // preparedJob adapts a Prepared library to the engine.
 type preparedJob struct {
-	p     *Prepared
-	space PairSpace
-	rank  RankKey
-	flt   substrates.Filter
+	p      *Prepared
+	space  PairSpace
+	rank   RankKey
+	flt    substrates.Filter
+	detail fmo.Detail
 }
 
 func (j *preparedJob) scoreChunk(_ int, lo, hi int64, out []chunkScore) {
@@ -104,7 +109,7 @@ func (j *preparedJob) scoreChunk(_ int, lo, hi int64, out []chunkScore) {
 
 func (j *preparedJob) analyze(_ int, k int64) (*fmo.Pair, error) {
 	d, e, a := j.space.Split(k)
-	return j.p.AnalyzeAt(d, e, a)
+	return j.p.AnalyzeAtDetail(d, e, a, j.detail)
 }
 
 // Screen scores the prepared pairs and calls emit, from the calling goroutine and in output
@@ -119,7 +124,7 @@ func (j *preparedJob) analyze(_ int, k int64) (*fmo.Pair, error) {
 func (p *Prepared) Screen(ctx context.Context, so ScreenOptions, emit func(ScreenRow) error, fail func(ScreenFailure)) (ScreenStats, error) {
 	space := p.Space()
 	lo, hi := so.Shard.Range(space.Len())
-	job := &preparedJob{p: p, space: space, rank: so.RankBy, flt: so.Filter}
+	job := &preparedJob{p: p, space: space, rank: so.RankBy, flt: so.Filter, detail: so.Detail}
 	cfg := engineConfig{Workers: so.Workers, Ranked: so.RankBy != RankNone && so.RankBy != "", Top: so.Top,
 		Lo: lo, Hi: hi, Progress: so.Progress, Selected: so.Selected}
 	if cfg.Ranked && !so.Exhaustive {

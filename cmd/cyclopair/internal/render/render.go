@@ -36,6 +36,18 @@ const (
 	SDF Format = "sdf"
 )
 
+// BestOnly reports whether the format shows no orientation of a row but the preferred one
+// (its product SMILES, label and figures): such rows can be analysed at fmo.DetailBest,
+// which skips the stereo forms and follow-up steps of the other orientations. JSON (and
+// the HTML report, which is not a Format) print every orientation.
+func (f Format) BestOnly() bool {
+	switch f {
+	case Table, CSV, Markdown, SDF:
+		return true
+	}
+	return false
+}
+
 // Formats lists the row formats in the order help texts show them.
 var Formats = []Format{Table, CSV, JSON, Markdown}
 
