@@ -186,12 +186,8 @@ func relativeStereo(m *molecule.Molecule) string {
 	if marks < 2 {
 		return smiles.Canonical(m) // nothing to write: skip the two stereo searches
 	}
-	a := smiles.CanonicalStereo(m)
-	mirror := m.Clone()
-	for i := range mirror.Atoms {
-		mirror.Atoms[i].Chiral = -mirror.Atoms[i].Chiral
-	}
-	if b := smiles.CanonicalStereo(mirror); b < a {
+	a, b := smiles.CanonicalStereoMirror(m) // m and its mirror image, one search
+	if b < a {
 		a = b
 	}
 	if strings.Count(a, "@")-strings.Count(a, "@@") < 2 {

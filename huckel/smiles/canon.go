@@ -3,6 +3,7 @@ package smiles
 import (
 	"cmp"
 	"slices"
+	"strings"
 
 	"cyclopair/huckel/molecule"
 )
@@ -74,6 +75,42 @@ func CanonicalStereo(m *molecule.Molecule) string {
 	return s
 }
 
+// CanonicalStereoMirror returns CanonicalStereo(m) and CanonicalStereo of m's mirror image
+// (every Atom.Chiral negated) from one search: the refinement ignores configurations, so
+// both run over the same leaves, and a leaf's string for the mirror image is its string for
+// m with every '@' and '@@' exchanged (the writer's mark is the configuration times the
+// parity of the output neighbour order, and '@' appears nowhere else in a SMILES).
+func CanonicalStereoMirror(m *molecule.Molecule) (s, mirror string) {
+	if len(m.Atoms) == 0 {
+		return "", ""
+	}
+	s, mirror, _ = canonicalSearch(m, smallestRings(m), true, true)
+	return s, mirror
+}
+
+// swapChirality exchanges '@' and '@@' in a SMILES written by Write.
+func swapChirality(s string) string {
+	at := strings.IndexByte(s, '@')
+	if at < 0 {
+		return s
+	}
+	b := make([]byte, 0, len(s)+4)
+	b = append(b, s[:at]...)
+	for i := at; i < len(s); i++ {
+		if s[i] != '@' {
+			b = append(b, s[i])
+			continue
+		}
+		if i+1 < len(s) && s[i+1] == '@' {
+			b = append(b, '@')
+			i++
+		} else {
+			b = append(b, '@', '@')
+		}
+	}
+	return string(b)
+}
+
 // stereoCentres returns Atom.Chiral per atom, kept only where the atom is a stereocentre by
 // the refined classes rank (see CanonicalStereo), or nil when no atom keeps a mark.
 func stereoCentres(m *molecule.Molecule, rank []int) []int8 {
@@ -104,6 +141,13 @@ func stereoCentres(m *molecule.Molecule, rank []int) []int8 {
 // canonical is Canonical with the ring-size invariants given (tests pass zeros to check
 // the search on its own); exact is false when the search gave up.
 func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, exact bool) {
+	s, _, exact = canonicalSearch(m, ringSizes, stereo, false)
+	return s, exact
+}
+
+// canonicalSearch is canonical that also returns, when mirror is set, the smallest leaf
+// string of m's mirror image (see CanonicalStereoMirror).
+func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool) (s, ms string, exact bool) {
 	btype, inAlt := alternation(m)
 	r := newRanker(m, btype, ringSizes)
 	rank := r.initial()
@@ -115,15 +159,22 @@ func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, ex
 	writeRanked := func(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
 		return writeRankedStereo(m, btype, inAlt, rank, chiral)
 	}
+	swap := func(s string) string {
+		if !mirror {
+			return ""
+		}
+		return swapChirality(s)
+	}
 	if r.classes(rank) == len(rank) {
-		return writeRanked(m, btype, inAlt, rank), true
+		s := writeRanked(m, btype, inAlt, rank)
+		return s, swap(s), true
 	}
 	// Depth-first search over individualisations. A leaf whose string equals an earlier
 	// leaf's reveals an automorphism mapping the earlier path onto this one, so the
 	// subtree below their deepest common node is a copy of one already searched and is
 	// skipped (the automorphism pruning of B. D. McKay, "Practical graph isomorphism",
 	// Congressus Numerantium 30, 45–87, 1981, in its simplest form).
-	best, leaves := "", 0
+	best, bestMirror, leaves := "", "", 0
 	seen := map[string][]int{} // leaf string → path that produced it
 	var path []int
 	const abort = -2
@@ -146,6 +197,11 @@ func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, ex
 			if best == "" || s < best {
 				best = s
 			}
+			if mirror {
+				if sm := swapChirality(s); bestMirror == "" || sm < bestMirror {
+					bestMirror = sm
+				}
+			}
 			if leaves > maxCanonicalLeaves {
 				return abort
 			}
@@ -166,13 +222,14 @@ func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, ex
 		return -1
 	}
 	if search(rank) != abort {
-		return best, true
+		return best, bestMirror, true
 	}
 	// too symmetric to search: promote the lowest-index atom of each first tied class
 	for {
 		cell := r.firstTiedCell(rank)
 		if cell == nil {
-			return writeRanked(m, btype, inAlt, rank), false
+			s := writeRanked(m, btype, inAlt, rank)
+			return s, swap(s), false
 		}
 		r.individualise(rank, cell[0])
 		r.refine(rank)

@@ -128,3 +128,44 @@ func TestCanonicalStereo(t *testing.T) {
 		t.Errorf("marks on non-stereocentres kept: %s, want %s", got, want)
 	}
 }
+
+// TestCanonicalStereoMirror: the one-search pair equals CanonicalStereo of the molecule and
+// of its mirror image computed separately, on every parsable fixture input with random
+// configurations on its four-connected atoms (and on two renumberings of each).
+func TestCanonicalStereoMirror(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 13))
+	n := 0
+	// saturated and symmetric ring systems (many four-connected atoms, tied classes)
+	extra := []string{"OC1C(O)C(O)C(O)C(O)C1O", "CC1CCC(C)CC1", "C1CC2CCC1C2", "OCC(O)C(O)C(O)C(O)C=O",
+		"C12C3C4C1C5C2C3C45", "CC1CCC2CCCCC2C1", "OC1C2CC3CC1CC(C2)C3", "CC(N)C(O)C(C)C(=O)O",
+		"C1CC2C3CCC4CC3C2CC14", "ClC1C(Cl)C(Br)C(Br)C1", "CC1(C)C2CCC1(C)C(=O)C2", "O=C1OC(=O)C2C3CC(C=C3)C12"}
+	for _, smi := range append(extra, readInputs(t)...) {
+		m, err := Parse(smi)
+		if err != nil || len(m.Atoms) > 60 {
+			continue
+		}
+		marks := 0
+		for v := range m.Atoms {
+			if m.Degree(v)+m.Atoms[v].HCount == 4 && m.Atoms[v].HCount <= 1 && rng.IntN(3) > 0 {
+				m.Atoms[v].Chiral = []int8{molecule.ChiralACW, molecule.ChiralCW}[rng.IntN(2)]
+				marks++
+			}
+		}
+		for _, x := range []*molecule.Molecule{m, permuteStereo(m, rng), permuteStereo(m, rng)} {
+			mirror := x.Clone()
+			for i := range mirror.Atoms {
+				mirror.Atoms[i].Chiral = -mirror.Atoms[i].Chiral
+			}
+			a, b := CanonicalStereoMirror(x)
+			if wa, wb := CanonicalStereo(x), CanonicalStereo(mirror); a != wa || b != wb {
+				t.Fatalf("%s: CanonicalStereoMirror = %s, %s; separately %s, %s", smi, a, b, wa, wb)
+			}
+		}
+		if marks >= 2 {
+			n++
+		}
+	}
+	if n < 20 {
+		t.Errorf("only %d inputs with two or more marks", n)
+	}
+}
