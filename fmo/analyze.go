@@ -98,7 +98,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			for or := 0; or < 2; or++ {
 				s := s01[or]
 				s.endo = k.endoTerm(&dd.fast, &ed.fast, &diene.endo[di], &dienophile.endo[ei], or)
-				_, bonds := buildProduct(diene, dienophile, di, ei, or)
+				bonds := productBonds(du, eu, or)
 				dAtoms := slices.Clone(du.Atoms)
 				eAtoms := []int{bonds[0][1], bonds[1][1]}
 				method := "second-order"
@@ -214,7 +214,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		c.product = keys.canonical(i)
 		c.o.Product = c.product
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
-		pm, bonds := buildProduct(diene, dienophile, c.di, c.ei, c.or)
+		pm, bonds := keys.mol(i), c.o.Bonds // the adduct canonical() was computed from
 		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
 		c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, c.product, endoPref)
 		pair.Orientations = append(pair.Orientations, c.o)

@@ -21,7 +21,6 @@ import (
 //
 // bonds are the new σ bonds as [diene atom, dienophile atom] in each partner's own numbering.
 func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [2][2]int) {
-	du, eu := dp.Units[di], ep.Units[ei]
 	ds, es := dp.sides[di], ep.sides[ei]
 	off := len(dp.Mol.Atoms)
 	m = &molecule.Molecule{Name: "adduct",
@@ -42,15 +41,21 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	add(dp.Mol, ds, 0)
 	add(ep.Mol, es, off)
 	m.Reindex()
+	bonds = productBonds(dp.Units[di], ep.Units[ei], o)
+	m.AddBond(bonds[0][0], bonds[0][1]+off, 1)
+	m.AddBond(bonds[1][0], bonds[1][1]+off, 1)
+	return m, bonds
+}
+
+// productBonds are the two new σ bonds of buildProduct, [diene atom, dienophile atom] in
+// each partner's own numbering, without building the adduct.
+func productBonds(du, eu Unit, o int) [2][2]int {
 	a, d := du.Termini()
 	x, y := eu.Atoms[0], eu.Atoms[1]
 	if o == 1 {
 		x, y = y, x
 	}
-	m.AddBond(a, x+off, 1)
-	m.AddBond(d, y+off, 1)
-	bonds = [2][2]int{{a, x}, {d, y}}
-	return m, bonds
+	return [2][2]int{{a, x}, {d, y}}
 }
 
 // productSMILES writes a molecule for display (Kekulé form, atoms in partner order).
