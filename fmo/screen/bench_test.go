@@ -267,6 +267,48 @@ func BenchmarkAnalyzeRows(b *testing.B) {
 	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
 }
 
+// BenchmarkRowDetail measures the per-row path of `screen --top 0` for the formats that
+// print only the preferred orientation (table, CSV, Markdown, SD: fmo.DetailBest) against
+// the full rows JSON prints (fmo.DetailAll, the same-run baseline): each op analyses every
+// pair of a 30 × 30 synthetic library (one activation, as `screen` without --activate) at
+// both levels, interleaved, one goroutine. "best-rows/cpu-s" is the CSV path's rate,
+// "x-vs-all" its speed-up over the full rows.
+func BenchmarkRowDetail(b *testing.B) {
+	lib := testsupport.SyntheticLibrary(30, 30, 5)
+	p, err := Prepare(context.Background(), lib, screenOpts(b), PrepareOptions{Workers: 1})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	var tAll, tBest float64
+	rows := 0
+	for b.Loop() {
+		for _, detail := range []fmo.Detail{fmo.DetailAll, fmo.DetailBest} {
+			cpu0 := testsupport.CPUTime()
+			for d := range p.Dienes {
+				for e := range p.Dienophiles {
+					if _, err := p.AnalyzeAtDetail(d, e, 0, detail); err != nil {
+						b.Fatal(err)
+					}
+					if detail == fmo.DetailBest {
+						rows++
+					}
+				}
+			}
+			dt := (testsupport.CPUTime() - cpu0).Seconds()
+			if detail == fmo.DetailBest {
+				tBest += dt
+			} else {
+				tAll += dt
+			}
+		}
+	}
+	if tBest > 0 {
+		b.ReportMetric(float64(rows)/tBest, "best-rows/cpu-s")
+		b.ReportMetric(tAll/tBest, "x-vs-all")
+	}
+}
+
 // BenchmarkBoundedTopK runs the 2000 × 2000 synthetic screen ranked with top 50 twice per op,
 // by bounds and exhaustively (the same-run baseline), for the default key and the score, and
 // reports the ratio of their times ("x-vs-exhaustive") and the share of pairs the bounded
