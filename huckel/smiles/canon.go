@@ -156,8 +156,9 @@ func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool)
 	if stereo {
 		chiral = stereoCentres(m, rank)
 	}
+	var lw leafWriter
 	writeRanked := func(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
-		return writeRankedStereo(m, btype, inAlt, rank, chiral)
+		return lw.write(m, btype, inAlt, rank, chiral)
 	}
 	swap := func(s string) string {
 		if !mirror {
@@ -239,42 +240,66 @@ func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool)
 // maxCanonicalLeaves bounds the search of Canonical (see its Limitations).
 const maxCanonicalLeaves = 256
 
-// writeRankedStereo writes m with atoms renumbered by rank (a permutation), re-kekulising
-// the alternation graph in rank order; chiral (nil for none) gives each atom's Atom.Chiral
-// in m's numbering, carried over to the new numbering.
-func writeRankedStereo(m *molecule.Molecule, btype []int8, inAlt int, rank []int, chiral []int8) string {
+// rankedBond is a bond of the renumbered molecule: ends a < b, ranking type t, order.
+type rankedBond struct{ a, b, t, order int }
+
+// leafWriter writes m with atoms renumbered by rank (a permutation), re-kekulising the
+// alternation graph in rank order; chiral (nil for none) gives each atom's Atom.Chiral in
+// m's numbering, carried over to the new numbering. Its buffers are kept from one leaf of
+// the canonical search to the next (up to maxCanonicalLeaves strings per molecule).
+type leafWriter struct {
+	atoms []molecule.Atom
+	bonds []rankedBond
+	out   []molecule.Bond
+	need  []bool
+	sc    scratch
+	w     writer
+	old   [][]int // per atom of m with a kept configuration: m.StereoOrder, computed once
+}
+
+func (lw *leafWriter) write(m *molecule.Molecule, btype []int8, inAlt int, rank []int, chiral []int8) string {
 	n := len(m.Atoms)
-	c := &molecule.Molecule{Atoms: make([]molecule.Atom, n), Bonds: make([]molecule.Bond, 0, len(m.Bonds))}
+	if cap(lw.atoms) < n {
+		lw.atoms = make([]molecule.Atom, n)
+	}
+	// a new header each time: the molecule's own adjacency is never built (the writer
+	// takes its adjacency from the sorted bonds), so none can go stale between leaves
+	c := &molecule.Molecule{Atoms: lw.atoms[:n]}
 	for i, a := range m.Atoms {
 		c.Atoms[rank[i]] = molecule.Atom{Element: a.Element, Isotope: a.Isotope, Charge: a.Charge, HCount: a.HCount, Map: a.Map, Pos: -1}
 	}
-	type cb struct{ a, b, t, order int }
-	bonds := make([]cb, len(m.Bonds))
+	bonds := lw.bonds[:0]
 	for i, b := range m.Bonds {
 		x, y := rank[b.A], rank[b.B]
 		if x > y {
 			x, y = y, x
 		}
-		bonds[i] = cb{x, y, int(btype[i]), b.Order}
+		bonds = append(bonds, rankedBond{x, y, int(btype[i]), b.Order})
 	}
-	slices.SortFunc(bonds, func(p, q cb) int {
+	lw.bonds = bonds
+	slices.SortFunc(bonds, func(p, q rankedBond) int {
 		if p.a != q.a {
 			return p.a - q.a
 		}
 		return p.b - q.b
 	})
+	c.Bonds = lw.out[:0]
 	for _, b := range bonds {
 		c.Bonds = append(c.Bonds, molecule.Bond{A: b.a, B: b.b, Order: b.order, Aromatic: b.t == bondAlt})
 	}
-	c.Reindex()
+	lw.out = c.Bonds
 	if inAlt > 0 {
-		need := make([]bool, n)
+		if cap(lw.need) < n {
+			lw.need = make([]bool, n)
+		}
+		need := lw.need[:n]
+		clear(need)
 		for _, b := range c.Bonds {
 			if b.Aromatic {
 				need[b.A], need[b.B] = true, true
 			}
 		}
-		if kekulise(c, need, nil) >= 0 {
+		if kekulise(c, need, &lw.sc) >= 0 {
 			// Cannot happen (m's own double bonds are a perfect matching of this graph);
 			// keep m's orders rather than write a broken structure.
 			for i := range c.Bonds {
@@ -285,22 +310,32 @@ func writeRankedStereo(m *molecule.Molecule, btype []int8, inAlt int, rank []int
 			c.Bonds[i].Aromatic = false
 		}
 	}
+	lw.w.reset(c, true)
+	if chiral != nil && lw.old == nil {
+		lw.old = make([][]int, n)
+		for i, x := range chiral {
+			if x != 0 {
+				lw.old[i] = m.StereoOrder(i)
+			}
+		}
+	}
 	for i, x := range chiral {
 		if x == 0 {
 			continue
 		}
-		old := m.StereoOrder(i)
+		var oldBuf, newBuf [4]int
+		old := append(oldBuf[:0], lw.old[i]...)
 		for k, nb := range old {
 			if nb != molecule.ImplicitH {
 				old[k] = rank[nb]
 			}
 		}
-		if molecule.OddPermutation(c.StereoOrder(rank[i]), old) {
+		if oddPermutation4(lw.w.stereoOrder(rank[i], newBuf[:0]), old) {
 			x = -x
 		}
 		c.Atoms[rank[i]].Chiral = x
 	}
-	return Write(c)
+	return lw.w.write()
 }
 
 // alternation returns each bond's ranking type (its order, or bondAlt for a bond of the

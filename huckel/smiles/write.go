@@ -53,33 +53,90 @@ type writer struct {
 	inUse   []bool            // ring numbers in use (index = number)
 	order   []int             // atoms in output order, when asked for
 	inUseBf [16]bool
+	// buffers kept across reset calls (the canonical search writes many leaves)
+	edges []molecule.Edge
+	state []int32
+	seen  []bool
+	deg   []int
 }
 
 func newWriter(m *molecule.Molecule) *writer {
+	w := &writer{}
+	w.reset(m, false)
+	return w
+}
+
+// reset prepares w to write m, reusing its buffers. With sortedBonds, m.Bonds are sorted by
+// (A, B) with A < B and no bond twice, so the adjacency is filled in index order straight
+// from the bonds and m's own adjacency lists are never built.
+func (w *writer) reset(m *molecule.Molecule, sortedBonds bool) {
 	n, nb := len(m.Atoms), len(m.Bonds)
-	w := &writer{m: m}
-	// one allocation each for the edge copy, the per-atom headers and the int32 state
-	edges := make([]molecule.Edge, 0, 2*nb)
-	w.adj = make([][]molecule.Edge, n)
-	for v := range n {
-		start := len(edges)
-		edges = append(edges, m.Neighbors(v)...)
-		seg := edges[start:len(edges):len(edges)]
-		if len(seg) > 1 {
-			slices.SortFunc(seg, func(a, b molecule.Edge) int { return a.To - b.To })
-		}
-		w.adj[v] = seg
+	w.m = m
+	w.b.Reset()
+	w.order = nil
+	if cap(w.edges) < 2*nb {
+		w.edges = make([]molecule.Edge, 0, 2*nb)
 	}
-	state := make([]int32, 2*n+nb)
+	if cap(w.adj) < n {
+		w.adj = make([][]molecule.Edge, n)
+	}
+	w.adj = w.adj[:n]
+	edges := w.edges[:0]
+	if sortedBonds {
+		if cap(w.deg) < n+1 {
+			w.deg = make([]int, n+1)
+		}
+		deg := w.deg[:n+1]
+		clear(deg)
+		for _, b := range m.Bonds {
+			deg[b.A+1]++
+			deg[b.B+1]++
+		}
+		for i := 1; i <= n; i++ {
+			deg[i] += deg[i-1]
+		}
+		edges = edges[:2*nb]
+		for v := range n {
+			w.adj[v] = edges[deg[v]:deg[v]:deg[v+1]]
+		}
+		for bi, b := range m.Bonds {
+			w.adj[b.A] = append(w.adj[b.A], molecule.Edge{To: b.B, Bond: bi})
+			w.adj[b.B] = append(w.adj[b.B], molecule.Edge{To: b.A, Bond: bi})
+		}
+	} else {
+		for v := range n {
+			start := len(edges)
+			edges = append(edges, m.Neighbors(v)...)
+			seg := edges[start:len(edges):len(edges)]
+			if len(seg) > 1 {
+				slices.SortFunc(seg, func(a, b molecule.Edge) int { return a.To - b.To })
+			}
+			w.adj[v] = seg
+		}
+	}
+	if cap(w.state) < 2*n+nb {
+		w.state = make([]int32, 2*n+nb)
+	}
+	state := w.state[:2*n+nb]
+	clear(state)
 	w.parent = state[:n]
 	w.size = state[n : 2*n]
 	w.digit = state[2*n:]
 	for i := range w.parent {
 		w.parent[i] = -2
 	}
-	w.ring = make([]bool, nb)
+	if cap(w.ring) < nb {
+		w.ring = make([]bool, nb)
+	}
+	w.ring = w.ring[:nb]
+	clear(w.ring)
+	if cap(w.seen) < nb {
+		w.seen = make([]bool, nb)
+	}
+	w.seen = w.seen[:nb]
+	clear(w.seen)
+	clear(w.inUseBf[:])
 	w.inUse = w.inUseBf[:1]
-	return w
 }
 
 func (w *writer) write() string {
@@ -90,7 +147,7 @@ func (w *writer) write() string {
 		}
 	}
 	w.b.Grow(2*len(m.Atoms) + len(m.Bonds))
-	seen := make([]bool, len(m.Bonds))
+	seen := w.seen
 	first := true
 	for root := range m.Atoms {
 		if w.parent[root] != -2 {
@@ -268,17 +325,67 @@ func (w *writer) chirality(v, from int) int8 {
 	if len(got) != 4 {
 		return 0
 	}
-	if molecule.OddPermutation(w.m.StereoOrder(v), got) {
+	var ref [4]int
+	if oddPermutation4(w.stereoOrder(v, ref[:0]), got) {
 		return -a.Chiral
 	}
 	return a.Chiral
+}
+
+// stereoOrder is molecule.StereoOrder(v) (the implicit hydrogen first when there is one,
+// then the neighbours by index) from the writer's adjacency, which is sorted by index,
+// appended to out.
+func (w *writer) stereoOrder(v int, out []int) []int {
+	if w.m.Atoms[v].HCount == 1 {
+		out = append(out, molecule.ImplicitH)
+	}
+	for _, e := range w.adj[v] {
+		out = append(out, e.To)
+	}
+	return out
+}
+
+// oddPermutation4 is molecule.OddPermutation for lists of at most four entries, without
+// allocating: the number of transpositions that sort b into a, modulo 2.
+func oddPermutation4(a, b []int) bool {
+	if len(a) != len(b) || len(a) > 4 {
+		return molecule.OddPermutation(a, b)
+	}
+	var buf [4]int
+	p := buf[:len(b)]
+	copy(p, b)
+	odd := false
+	for i := range a {
+		if p[i] == a[i] {
+			continue
+		}
+		j := i + 1
+		for j < len(p) && p[j] != a[i] {
+			j++
+		}
+		if j == len(p) {
+			return molecule.OddPermutation(a, b) // not a permutation: its panic
+		}
+		p[i], p[j] = p[j], p[i]
+		odd = !odd
+	}
+	return odd
+}
+
+// bondOrderSum is molecule.BondOrderSum(v) from the writer's adjacency.
+func (w *writer) bondOrderSum(v int) int {
+	s := 0
+	for _, e := range w.adj[v] {
+		s += w.m.Bonds[e.Bond].Order
+	}
+	return s
 }
 
 // atom writes atom v with tetrahedral mark chiral (0, molecule.ChiralACW or ChiralCW), in
 // brackets only when needed.
 func (w *writer) atom(v int, chiral int8) {
 	a := w.m.Atoms[v]
-	if chiral == 0 && !needsBracket(a, w.m.BondOrderSum(v)) {
+	if chiral == 0 && !needsBracket(a, w.bondOrderSum(v)) {
 		w.b.WriteString(a.Element)
 		return
 	}
