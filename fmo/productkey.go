@@ -2,6 +2,7 @@ package fmo
 
 import (
 	"hash/maphash"
+	"slices"
 
 	"cyclopair/huckel/molecule"
 )
@@ -18,20 +19,37 @@ import (
 // are those of comparing canonical SMILES throughout. The invariant ignores bond orders,
 // charges, hydrogens and aromaticity, so it is coarser than the canonical SMILES, never finer.
 
+// When two invariants are equal the adducts are usually the same compound (the two
+// orientations of a symmetric partner, symmetry-equivalent units), and proving that by two
+// canonical SMILES was most of the key cost. same first looks for an explicit isomorphism
+// (equal elements, isotopes, charges, hydrogens, atom maps and bond orders, matched along
+// the bonds within equal invariant colours). Canonical is computed from exactly those
+// labels and the connectivity, by steps that depend on the graph and not on the atom
+// numbering, so isomorphic adducts get equal canonical SMILES — unless its search gives up
+// (more than 256 leaves, see smiles.Canonical), where the atom order can matter. The leaves
+// are orderings of the atoms within the classes of its refined partition, which is at
+// least as fine as the invariant's colour classes, so there are at most Π (class size)!
+// of them; the shortcut is taken only when that product is at most 256, and the answer is
+// then the canonical comparison's. Otherwise, and whenever no isomorphism is found (also
+// for two Kekulé structures of one compound, which Canonical treats as equal), the
+// canonical SMILES decide as before.
+
 // productKeys holds the candidate adducts of one analysis, built, hashed and canonicalised
 // on demand.
 type productKeys struct {
 	build   func(i int) *molecule.Molecule
 	mols    []*molecule.Molecule
 	inv     []uint64
+	colours [][]uint64 // per adduct: each atom's invariant colour
 	invDone []bool
 	key     []string
 	keyDone []bool
+	iso     isoScratch
 }
 
 func newProductKeys(n int, build func(i int) *molecule.Molecule) *productKeys {
 	return &productKeys{build: build, mols: make([]*molecule.Molecule, n), inv: make([]uint64, n),
-		invDone: make([]bool, n), key: make([]string, n), keyDone: make([]bool, n)}
+		colours: make([][]uint64, n), invDone: make([]bool, n), key: make([]string, n), keyDone: make([]bool, n)}
 }
 
 func (p *productKeys) mol(i int) *molecule.Molecule {
@@ -43,7 +61,8 @@ func (p *productKeys) mol(i int) *molecule.Molecule {
 
 func (p *productKeys) invariant(i int) uint64 {
 	if !p.invDone[i] {
-		p.inv[i], p.invDone[i] = graphInvariant(p.mol(i)), true
+		p.inv[i], p.colours[i] = graphColours(p.mol(i))
+		p.invDone[i] = true
 	}
 	return p.inv[i]
 }
@@ -63,7 +82,174 @@ func (p *productKeys) same(i, j int) bool {
 	if p.invariant(i) != p.invariant(j) {
 		return false
 	}
+	if !(p.keyDone[i] && p.keyDone[j]) && searchBounded(p.colours[i]) &&
+		p.iso.isomorphic(p.mol(i), p.mol(j), p.colours[i], p.colours[j]) {
+		return true
+	}
 	return p.canonical(i) == p.canonical(j)
+}
+
+// searchBounded reports whether Π (colour class size)! ≤ 256, the bound on the leaves of
+// smiles.Canonical's search below which it never gives up (see above).
+func searchBounded(colours []uint64) bool {
+	var buf [64]uint64
+	c := append(buf[:0], colours...)
+	slices.Sort(c)
+	prod := 1
+	for k := 0; k < len(c); {
+		run := 1
+		for k+run < len(c) && c[k+run] == c[k] {
+			run++
+		}
+		for f := 2; f <= run; f++ {
+			if prod *= f; prod > 256 {
+				return false
+			}
+		}
+		k += run
+	}
+	return true
+}
+
+// isoScratch is the work space of isomorphic, kept for the adducts of one analysis.
+type isoScratch struct {
+	fwd, back []int // atom of b for each atom of a, and back; -1 unmapped
+	order     []int // atoms of a in search order
+	parent    []int // for each position in order: an earlier-mapped neighbour (atom of a), or -1
+	seen      []bool
+}
+
+// isoStepLimit bounds the backtracking of isomorphic; past it the canonical SMILES decide.
+const isoStepLimit = 20000
+
+// isomorphic reports whether it found a bijection between the atoms of a and b that keeps
+// element, isotope, charge, hydrogen count, atom map and invariant colour of every atom and
+// maps the bonds of a one to one onto the bonds of b with their orders. false means none
+// was found (none exists, or the search stopped at isoStepLimit).
+func (s *isoScratch) isomorphic(a, b *molecule.Molecule, ca, cb []uint64) bool {
+	n := len(a.Atoms)
+	if n != len(b.Atoms) || len(a.Bonds) != len(b.Bonds) {
+		return false
+	}
+	s.fwd = resizeInts(s.fwd, n, -1)
+	s.back = resizeInts(s.back, n, -1)
+	s.parent = resizeInts(s.parent, n, -1)
+	s.order = s.order[:0]
+	if cap(s.seen) < n {
+		s.seen = make([]bool, n)
+	}
+	s.seen = s.seen[:n]
+	clear(s.seen)
+	// breadth-first order over a, each component from its lowest atom, so every atom but a
+	// root has a neighbour mapped before it
+	for root := range n {
+		if s.seen[root] {
+			continue
+		}
+		s.seen[root] = true
+		start := len(s.order)
+		s.order = append(s.order, root)
+		s.parent[start] = -1
+		for q := start; q < len(s.order); q++ {
+			v := s.order[q]
+			for _, e := range a.Neighbors(v) {
+				if !s.seen[e.To] {
+					s.seen[e.To] = true
+					s.parent[len(s.order)] = v
+					s.order = append(s.order, e.To)
+				}
+			}
+		}
+	}
+	steps := 0
+	var try func(k int) bool
+	try = func(k int) bool {
+		if k == n {
+			return true
+		}
+		if steps++; steps > isoStepLimit {
+			return false
+		}
+		u := s.order[k]
+		fits := func(x int) bool {
+			if s.back[x] >= 0 || ca[u] != cb[x] || !sameAtom(&a.Atoms[u], &b.Atoms[x]) || a.Degree(u) != b.Degree(x) {
+				return false
+			}
+			// every mapped neighbour of u must be a neighbour of x through a bond of the same
+			// order, and x must have no other mapped neighbours
+			mapped := 0
+			for _, e := range a.Neighbors(u) {
+				if w := s.fwd[e.To]; w >= 0 {
+					mapped++
+					bi := b.BondBetween(x, w)
+					if bi < 0 || b.Bonds[bi].Order != a.Bonds[e.Bond].Order {
+						return false
+					}
+				}
+			}
+			for _, e := range b.Neighbors(x) {
+				if s.back[e.To] >= 0 {
+					mapped--
+				}
+			}
+			return mapped == 0
+		}
+		place := func(x int) bool {
+			s.fwd[u], s.back[x] = x, u
+			if try(k + 1) {
+				return true
+			}
+			s.fwd[u], s.back[x] = -1, -1
+			return false
+		}
+		if p := s.parent[k]; p >= 0 {
+			for _, e := range b.Neighbors(s.fwd[p]) {
+				if fits(e.To) && place(e.To) {
+					return true
+				}
+				if steps > isoStepLimit {
+					return false
+				}
+			}
+			return false
+		}
+		for x := range n {
+			if fits(x) && place(x) {
+				return true
+			}
+			if steps > isoStepLimit {
+				return false
+			}
+		}
+		return false
+	}
+	if !try(0) {
+		return false
+	}
+	// check the whole bijection once more: every bond of a maps onto a bond of b of the same
+	// order (with equal bond counts this makes the bond map one to one and onto)
+	for _, bd := range a.Bonds {
+		bi := b.BondBetween(s.fwd[bd.A], s.fwd[bd.B])
+		if bi < 0 || b.Bonds[bi].Order != bd.Order {
+			return false
+		}
+	}
+	return true
+}
+
+func sameAtom(x, y *molecule.Atom) bool {
+	return x.Element == y.Element && x.Isotope == y.Isotope && x.Charge == y.Charge && x.HCount == y.HCount && x.Map == y.Map
+}
+
+func resizeInts(s []int, n, fill int) []int {
+	if cap(s) < n {
+		s = make([]int, n)
+	}
+	s = s[:n]
+	for i := range s {
+		s[i] = fill
+	}
+	return s
 }
 
 var invSeed = maphash.MakeSeed()
@@ -81,6 +267,13 @@ func mix64(x uint64) uint64 {
 // graphInvariant is equal for isomorphic molecules (elements and connectivity): three rounds
 // of colour refinement with commutative neighbour sums, then a commutative sum over atoms.
 func graphInvariant(m *molecule.Molecule) uint64 {
+	h, _ := graphColours(m)
+	return h
+}
+
+// graphColours is graphInvariant with each atom's final colour: atoms that an isomorphism
+// can map onto each other have equal colours.
+func graphColours(m *molecule.Molecule) (uint64, []uint64) {
 	n := len(m.Atoms)
 	c := make([]uint64, 2*n)
 	cur, nxt := c[:n], c[n:]
@@ -104,5 +297,5 @@ func graphInvariant(m *molecule.Molecule) uint64 {
 	for _, v := range cur {
 		h += mix64(v ^ 0x5851f42d4c957f2d)
 	}
-	return h
+	return h, cur
 }
