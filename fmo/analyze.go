@@ -180,6 +180,9 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		c := &cands[i]
 		pm, _ := buildProduct(diene, dienophile, c.di, c.ei, c.or)
 		return pm
+	}, func(i int) (uint64, []uint64) {
+		c := &cands[i]
+		return adductColours(diene, dienophile, c.di, c.ei, c.or) // no adduct built for a unique invariant
 	})
 	// One row per distinct adduct: an orientation giving the same compound as a better one
 	// (the two orientations of a symmetric partner, symmetry-equivalent sites) is not listed

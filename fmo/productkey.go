@@ -38,6 +38,7 @@ import (
 // on demand.
 type productKeys struct {
 	build   func(i int) *molecule.Molecule
+	colour  func(i int) (uint64, []uint64) // graphColours of adduct i without building it, or nil
 	mols    []*molecule.Molecule
 	inv     []uint64
 	colours [][]uint64 // per adduct: each atom's invariant colour
@@ -47,8 +48,8 @@ type productKeys struct {
 	iso     isoScratch
 }
 
-func newProductKeys(n int, build func(i int) *molecule.Molecule) *productKeys {
-	return &productKeys{build: build, mols: make([]*molecule.Molecule, n), inv: make([]uint64, n),
+func newProductKeys(n int, build func(i int) *molecule.Molecule, colour func(i int) (uint64, []uint64)) *productKeys {
+	return &productKeys{build: build, colour: colour, mols: make([]*molecule.Molecule, n), inv: make([]uint64, n),
 		colours: make([][]uint64, n), invDone: make([]bool, n), key: make([]string, n), keyDone: make([]bool, n)}
 }
 
@@ -61,7 +62,11 @@ func (p *productKeys) mol(i int) *molecule.Molecule {
 
 func (p *productKeys) invariant(i int) uint64 {
 	if !p.invDone[i] {
-		p.inv[i], p.colours[i] = graphColours(p.mol(i))
+		if p.colour != nil {
+			p.inv[i], p.colours[i] = p.colour(i)
+		} else {
+			p.inv[i], p.colours[i] = graphColours(p.mol(i))
+		}
 		p.invDone[i] = true
 	}
 	return p.inv[i]
@@ -274,20 +279,58 @@ func graphInvariant(m *molecule.Molecule) uint64 {
 // graphColours is graphInvariant with each atom's final colour: atoms that an isomorphism
 // can map onto each other have equal colours.
 func graphColours(m *molecule.Molecule) (uint64, []uint64) {
-	n := len(m.Atoms)
-	c := make([]uint64, 2*n)
-	cur, nxt := c[:n], c[n:]
+	c := make([]uint64, 2*len(m.Atoms))
 	for i := range m.Atoms {
-		cur[i] = maphash.String(invSeed, m.Atoms[i].Element)
+		c[i] = maphash.String(invSeed, m.Atoms[i].Element)
 	}
+	return refineColours(c, func(f func(a, b int)) {
+		for _, b := range m.Bonds {
+			f(b.A, b.B)
+		}
+	})
+}
+
+// adductColours is graphColours of buildProduct(dp, ep, di, ei, o) computed from the
+// partners, without building the adduct: the same atoms (the diene's, then the dienophile's)
+// and bonds (each partner's, then the two new ones).
+func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
+	dm, em := dp.Mol, ep.Mol
+	off := len(dm.Atoms)
+	n := off + len(em.Atoms)
+	c := make([]uint64, 2*n)
+	for i := range dm.Atoms {
+		c[i] = maphash.String(invSeed, dm.Atoms[i].Element)
+	}
+	for i := range em.Atoms {
+		c[off+i] = maphash.String(invSeed, em.Atoms[i].Element)
+	}
+	nb := productBonds(dp.Units[di], ep.Units[ei], o)
+	return refineColours(c, func(f func(a, b int)) {
+		for _, b := range dm.Bonds {
+			f(b.A, b.B)
+		}
+		for _, b := range em.Bonds {
+			f(b.A+off, b.B+off)
+		}
+		f(nb[0][0], nb[0][1]+off)
+		f(nb[1][0], nb[1][1]+off)
+	})
+}
+
+// refineColours runs three rounds of colour refinement with commutative neighbour sums on
+// the initial colours in the first half of c (the second half is work space) over the
+// bonds that bonds visits, then sums over atoms.
+func refineColours(c []uint64, bonds func(f func(a, b int))) (uint64, []uint64) {
+	n := len(c) / 2
+	cur, nxt := c[:n], c[n:]
 	for range 3 {
 		for i := range nxt {
 			nxt[i] = cur[i] * 0x9e3779b97f4a7c15
 		}
-		for _, b := range m.Bonds {
-			nxt[b.A] += mix64(cur[b.B])
-			nxt[b.B] += mix64(cur[b.A])
-		}
+		bonds(func(a, b int) {
+			nxt[a] += mix64(cur[b])
+			nxt[b] += mix64(cur[a])
+		})
 		for i := range nxt {
 			nxt[i] = mix64(nxt[i])
 		}

@@ -1,6 +1,7 @@
 package fmo
 
 import (
+	"slices"
 	"testing"
 
 	"cyclopair/fmo/internal/testsupport"
@@ -38,7 +39,24 @@ func TestProductKeysAgreeWithCanonical(t *testing.T) {
 					}
 				}
 			}
-			keys := newProductKeys(len(built), func(i int) *molecule.Molecule { return built[i] })
+			var ids [][3]int
+			for di := range d.Units {
+				for ei := range e.Units {
+					for or := range 2 {
+						ids = append(ids, [3]int{di, ei, or})
+					}
+				}
+			}
+			keys := newProductKeys(len(built), func(i int) *molecule.Molecule { return built[i] },
+				func(i int) (uint64, []uint64) { return adductColours(d, e, ids[i][0], ids[i][1], ids[i][2]) })
+			for i, m := range built {
+				// the colours from the partners are those of the built adduct
+				h, c := graphColours(m)
+				h2, c2 := adductColours(d, e, ids[i][0], ids[i][1], ids[i][2])
+				if h != h2 || !slices.Equal(c, c2) {
+					t.Fatalf("%s + %s: adduct %d: colours from the partners differ from the built adduct's", ds, es, i)
+				}
+			}
 			canon := make([]string, len(built))
 			for i, m := range built {
 				canon[i] = productKey(m)
