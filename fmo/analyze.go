@@ -76,19 +76,19 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		panic(fmt.Sprintf("fmo.Analyze: roles %v, %v (want diene, dienophile)", diene.Role, dienophile.Role))
 	}
 	k := opts.kernel()
+	// A candidate is its score and units; its Orientation (site name, label, atom lists) is
+	// built only if it is listed: duplicates and the candidates past the cap never need one.
 	type cand struct {
-		o          Orientation
 		s          orientScore
 		di, ei, or int
-		product    string // canonical SMILES, filled for the listed rows only
 	}
 	var cands []cand
-	for di, du := range diene.Units {
+	for di := range diene.Units {
 		dd := &diene.data[di]
 		if !dd.ok {
 			continue
 		}
-		for ei, eu := range dienophile.Units {
+		for ei := range dienophile.Units {
 			ed := &dienophile.data[ei]
 			if !ed.ok {
 				continue
@@ -98,36 +98,40 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			for or := 0; or < 2; or++ {
 				s := s01[or]
 				s.endo = k.endoTerm(&dd.fast, &ed.fast, &diene.endo[di], &dienophile.endo[ei], or)
-				bonds := productBonds(du, eu, or)
-				dAtoms := slices.Clone(du.Atoms)
-				eAtoms := []int{bonds[0][1], bonds[1][1]}
-				method := "second-order"
-				if s.firstOrder {
-					method = "first-order"
-				}
-				c := cand{s: s, di: di, ei: ei, or: or}
-				c.o = Orientation{
-					Site:            siteName(diene, du, dienophile, eAtoms),
-					DieneAtoms:      dAtoms,
-					DienophileAtoms: eAtoms,
-					Bonds:           bonds,
-					Stabilization:   s.stab,
-					FrontierTerm:    s.frontier,
-					ChargeTerm:      s.charge,
-					Localization:    s.loc,
-					Score:           s.score,
-					NormalTerm:      s.normal,
-					InverseTerm:     s.inverse,
-					Method:          method,
-					Label:           regioLabel(diene, dienophile, du, eu, or),
-					EndoOverlap:     s.endo,
-					Kind:            cycloKind(du),
-					RingSize:        du.RingSize(),
-				}
-				c.o.DieneLocalization, c.o.DieneConjugationLoss = dd.loc, dd.conj
-				cands = append(cands, c)
+				cands = append(cands, cand{s: s, di: di, ei: ei, or: or})
 			}
 		}
+	}
+	orientation := func(c *cand) Orientation {
+		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
+		dd := &diene.data[c.di]
+		s := &c.s
+		bonds := productBonds(du, eu, c.or)
+		eAtoms := []int{bonds[0][1], bonds[1][1]}
+		method := "second-order"
+		if s.firstOrder {
+			method = "first-order"
+		}
+		o := Orientation{
+			Site:            siteName(diene, du, dienophile, eAtoms),
+			DieneAtoms:      slices.Clone(du.Atoms),
+			DienophileAtoms: eAtoms,
+			Bonds:           bonds,
+			Stabilization:   s.stab,
+			FrontierTerm:    s.frontier,
+			ChargeTerm:      s.charge,
+			Localization:    s.loc,
+			Score:           s.score,
+			NormalTerm:      s.normal,
+			InverseTerm:     s.inverse,
+			Method:          method,
+			Label:           regioLabel(diene, dienophile, du, eu, c.or),
+			EndoOverlap:     s.endo,
+			Kind:            cycloKind(du),
+			RingSize:        du.RingSize(),
+		}
+		o.DieneLocalization, o.DieneConjugationLoss = dd.loc, dd.conj
+		return o
 	}
 	if len(cands) == 0 {
 		return nil, fmt.Errorf("%s + %s: %w: no pair of reacting units has both frontier levels",
@@ -143,6 +147,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		return 0
 	})
 	best := cands[0]
+	bestO := orientation(&best)
 	pair := &Pair{
 		DieneName:           diene.Name,
 		DienophileName:      dienophile.Name,
@@ -165,8 +170,8 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		ChargeTermOn:        opts.ChargeTerm,
 		RegioThresholds:     [2]float64{opts.RegioClear, opts.RegioSlight},
 		EndoThresholds:      [2]float64{opts.EndoYes, opts.EndoWeak},
-		PreferredSite:       best.o.Site,
-		PreferredKind:       best.o.Kind,
+		PreferredSite:       bestO.Site,
+		PreferredKind:       bestO.Kind,
 		OrientationsChecked: len(cands),
 	}
 	if dienophile.Activation != "none" && dienophile.Active != nil {
@@ -192,7 +197,6 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	var listed []int
 	unlisted := 0
 	for i := range cands {
-		cands[i].o.Preferred = i == 0
 		dup := false
 		for _, j := range listed {
 			if keys.same(i, j) {
@@ -209,18 +213,23 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		}
 		listed = append(listed, i)
 		c := &cands[i]
+		o := bestO
+		if i != 0 {
+			o = orientation(c)
+		}
+		o.Preferred = i == 0
 		if detail == DetailBest && i != 0 {
-			pair.Orientations = append(pair.Orientations, c.o)
+			pair.Orientations = append(pair.Orientations, o)
 			continue
 		}
 		// canonical product, stereo forms and follow-up steps only for the listed rows
-		c.product = keys.canonical(i)
-		c.o.Product = c.product
+		product := keys.canonical(i)
+		o.Product = product
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
-		pm, bonds := keys.mol(i), c.o.Bonds // the adduct canonical() was computed from
+		pm, bonds := keys.mol(i), o.Bonds // the adduct canonical() was computed from
 		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
-		c.o.StereoProducts, c.o.FollowUp, c.o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, c.product, endoPref)
-		pair.Orientations = append(pair.Orientations, c.o)
+		o.StereoProducts, o.FollowUp, o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, product, endoPref)
+		pair.Orientations = append(pair.Orientations, o)
 	}
 	if unlisted > 0 {
 		pair.Warnings = append(pair.Warnings, fmt.Sprintf("%d further orientations (lower scores, other adducts) are not listed: only the best %d distinct adducts are", unlisted, MaxListedOrientations))
@@ -269,7 +278,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		endoRel = best.s.endo / best.s.frontier
 	}
 	switch {
-	case best.o.Kind != "[4+2]":
+	case bestO.Kind != "[4+2]":
 		pair.Endo = "no"
 		pair.EndoNote = "1,3-dipolar cycloaddition: no secondary-orbital term is computed"
 	case !endoDistinct(dienophile, dienophile.Units[best.ei]):
