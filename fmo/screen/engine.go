@@ -295,52 +295,77 @@ func emitSelected(ctx context.Context, job screenJob, cfg engineConfig, sel []sc
 	if cfg.Selected != nil {
 		cfg.Selected(int64(len(sel)))
 	}
-	// Phase 2: full analysis of the selected rows (milliseconds each), a few per worker at a
-	// time: memory stays bounded, the first rows come out soon, and a cancel is seen quickly.
+	// Phase 2: full analysis of the selected rows (up to milliseconds each) on every worker,
+	// at most window rows ahead of the one being emitted: memory stays bounded, the first
+	// rows come out soon, a cancel is seen quickly, and no worker waits for a slow row of
+	// another (no barrier between batches). Rows are emitted in rank order from this
+	// goroutine; row k's result lives in slot k % window until emitted.
 	window := max(cfg.Workers*4, 8)
+	type slot struct {
+		pair *fmo.Pair
+		err  error
+		done chan struct{}
+	}
+	slots := make([]slot, window)
+	for i := range slots {
+		slots[i].done = make(chan struct{}, 1)
+	}
+	tokens := make(chan struct{}, window) // a worker holds one per row claimed and not yet emitted
+	wctx, stop := context.WithCancel(ctx)
+	var nextIdx atomic.Int64
+	var wg sync.WaitGroup
+	for w := range min(cfg.Workers, len(sel)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				select {
+				case tokens <- struct{}{}:
+				case <-wctx.Done():
+					return
+				}
+				i := int(nextIdx.Add(1) - 1)
+				if i >= len(sel) {
+					return
+				}
+				sl := &slots[i%window]
+				sl.pair, sl.err = job.analyze(w, sel[i].k)
+				sl.done <- struct{}{}
+			}
+		}()
+	}
+	finish := func() { stop(); wg.Wait() }
 	rank := int64(0)
-	out := make([]*fmo.Pair, window)
-	errs := make([]error, window)
-	for start := 0; start < len(sel); start += window {
+	for i, s := range sel {
+		sl := &slots[i%window]
+		select {
+		case <-sl.done:
+		case <-ctx.Done():
+			finish()
+			st.Canceled = true
+			return st, ctx.Err()
+		}
+		pair, err := sl.pair, sl.err
+		sl.pair, sl.err = nil, nil
+		<-tokens
 		if err := ctx.Err(); err != nil {
+			finish()
 			st.Canceled = true
 			return st, err
 		}
-		part := sel[start:min(start+window, len(sel))]
-		var nextIdx atomic.Int64
-		var wg sync.WaitGroup
-		for w := range min(cfg.Workers, len(part)) {
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				for ctx.Err() == nil {
-					i := int(nextIdx.Add(1) - 1)
-					if i >= len(part) {
-						return
-					}
-					out[i], errs[i] = job.analyze(w, part[i].k)
-				}
-			}()
+		if err != nil {
+			st.Failed++
+			fail(pairFailure{K: s.k, Err: err})
+			continue
 		}
-		wg.Wait()
-		for i, s := range part {
-			if err := ctx.Err(); err != nil {
-				st.Canceled = true
-				return st, err
-			}
-			if errs[i] != nil {
-				st.Failed++
-				fail(pairFailure{K: s.k, Err: errs[i]})
-				continue
-			}
-			rank++
-			st.Emitted++
-			if err := emit(rank, s.k, out[i]); err != nil {
-				return st, err
-			}
-			out[i], errs[i] = nil, nil
+		rank++
+		st.Emitted++
+		if err := emit(rank, s.k, pair); err != nil {
+			finish()
+			return st, err
 		}
 	}
+	finish()
 	return st, nil
 }
 
