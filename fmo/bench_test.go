@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"cyclopair/fmo/internal/testsupport"
+	"cyclopair/huckel/molecule"
 )
 
 // cpuTime is the process's user+system CPU time (see testsupport.CPUTime).
@@ -150,4 +151,77 @@ func BenchmarkPolyeneScaling(b *testing.B) {
 		b.ReportMetric(t100.Seconds()/t50.Seconds(), "cpu100/cpu50")
 	}
 	b.ReportMetric(t100.Seconds()/float64(b.N), "cpu-s/pair100")
+}
+
+// BenchmarkProductKeys is the duplicate check of Analyze over every pair of candidate
+// adducts of synthetic partners (several units each): productKeys.same (invariant, then an
+// isomorphism, then canonical SMILES) against the same-run baseline of comparing canonical
+// SMILES after the invariant (the check before the isomorphism shortcut). Reported:
+// "x-vs-canonical", the baseline's CPU time over same's; both give the same answers
+// (TestProductKeysAgreeWithCanonical).
+func BenchmarkProductKeys(b *testing.B) {
+	o := testOptions(b)
+	lib := testsupport.SyntheticLibrary(6, 6, 31)
+	type set struct {
+		d, e *Partner
+		ids  [][3]int
+	}
+	var sets []set
+	for _, ds := range lib.Dienes {
+		d := mustPartner(b, ds.SMILES, RoleDiene, o)
+		for _, es := range lib.Dienophiles {
+			e := mustPartner(b, es.SMILES, RoleDienophile, o)
+			st := set{d: d, e: e}
+			for di := range d.Units {
+				for ei := range e.Units {
+					for or := range 2 {
+						st.ids = append(st.ids, [3]int{di, ei, or})
+					}
+				}
+			}
+			sets = append(sets, st)
+		}
+	}
+	run := func(shortcut bool) (time.Duration, int) {
+		cpu0 := cpuTime()
+		equal := 0
+		for _, st := range sets {
+			build := func(i int) *molecule.Molecule {
+				m, _ := buildProduct(st.d, st.e, st.ids[i][0], st.ids[i][1], st.ids[i][2])
+				return m
+			}
+			colour := func(i int) (uint64, []uint64) {
+				return adductColours(st.d, st.e, st.ids[i][0], st.ids[i][1], st.ids[i][2])
+			}
+			k := newProductKeys(len(st.ids), build, colour)
+			for i := range st.ids {
+				for j := range i {
+					var same bool
+					if shortcut {
+						same = k.same(i, j)
+					} else {
+						same = k.invariant(i) == k.invariant(j) && k.canonical(i) == k.canonical(j)
+					}
+					if same {
+						equal++
+					}
+				}
+			}
+		}
+		return cpuTime() - cpu0, equal
+	}
+	var tShort, tCanon time.Duration
+	b.ReportAllocs()
+	for b.Loop() {
+		ts, n1 := run(true)
+		tc, n2 := run(false)
+		if n1 != n2 {
+			b.Fatalf("%d equal pairs by same, %d by canonical SMILES", n1, n2)
+		}
+		tShort += ts
+		tCanon += tc
+	}
+	if tShort > 0 {
+		b.ReportMetric(float64(tCanon)/float64(tShort), "x-vs-canonical")
+	}
 }
