@@ -80,6 +80,7 @@ func TestScreenWorkersIdentical(t *testing.T) {
 		{RankBy: RankStabilization, Top: 25},
 		{RankBy: RankNone, Top: 30},
 		{RankBy: RankRegioMargin, Top: 5, Filter: substrates.Filter{Demand: "normal"}},
+		{RankBy: RankRate, Top: 0, Detail: fmo.DetailBest}, // every row, as screen --top 0 --format csv
 	} {
 		so.Workers = 1
 		one, _ := screenBytes(t, p, so)
