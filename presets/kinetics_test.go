@@ -56,10 +56,10 @@ func TestKineticsSMILESParse(t *testing.T) {
 // raise them as checked rows are added, and never pad the files to reach the targets.
 func TestKineticsCounts(t *testing.T) {
 	const (
-		targetSeries, floorSeries = 8, 7
-		targetRows, floorRows     = 80, 38
+		targetSeries, floorSeries = 8, 10
+		targetRows, floorRows     = 80, 43
 		targetRegio, floorRegio   = 30, 19
-		targetEndo, floorEndo     = 15, 15
+		targetEndo, floorEndo     = 15, 23
 	)
 	k := mustKinetics(t)
 	numericRegio := 0
@@ -545,4 +545,32 @@ func FuzzParseKinetics(f *testing.F) {
 			t.Error("a set without series was accepted")
 		}
 	})
+}
+
+// A series whose source does not state its temperature omits temperature_C: it loads with
+// HasTemperature false on the series and its rows, a stated one sets it (no temperature is
+// ever filled in for the source).
+func TestKineticsOptionalTemperature(t *testing.T) {
+	k, err := ParseKinetics([]byte(strings.Replace(kinTestRates, "  temperature_C: 20\n", "", 1)), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := k.Series[0]
+	if s.HasTemperature || s.Rows[0].HasTemperature || s.Rows[1].HasTemperature {
+		t.Errorf("series without temperature_C: HasTemperature %v, rows %v %v", s.HasTemperature, s.Rows[0].HasTemperature, s.Rows[1].HasTemperature)
+	}
+	k, err = ParseKinetics([]byte(kinTestRates), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := k.Series[0]; !s.HasTemperature || s.TemperatureC != 20 || !s.Rows[1].HasTemperature {
+		t.Errorf("series with temperature_C 20: HasTemperature %v, %v °C", s.HasTemperature, s.TemperatureC)
+	}
+	for _, s := range mustKinetics(t).Series {
+		for _, r := range s.Rows {
+			if !r.HasTemperature && !strings.Contains(s.Note+r.Note, "temperature is not stated") && !strings.Contains(s.Note+r.Note, "no single temperature") {
+				t.Errorf("%s: %s: no temperature and no note saying the source does not state one", s.ID, r.Partner.Name)
+			}
+		}
+	}
 }
