@@ -75,8 +75,13 @@ type RateSeries struct {
 	Source         string
 	Confidence     string
 	Note           string
-	Rows           []RateRow
-	RefIndex       int // index of the reference row in Rows
+	// OutsideModel, when not empty, says why the series is listed and predicted but not
+	// fitted: its rows differ in something the rate model's descriptors cannot represent
+	// (the file's outside_model field; a series varying only the solvent is outside the
+	// model without it).
+	OutsideModel string
+	Rows         []RateRow
+	RefIndex     int // index of the reference row in Rows
 }
 
 // RateRow is one measured reaction of a series. The values are as entered (K2 or KRel, the
@@ -268,6 +273,7 @@ type rawSeries struct {
 	Source       string       `yaml:"source"`
 	Confidence   string       `yaml:"confidence"`
 	Note         string       `yaml:"note"`
+	OutsideModel string       `yaml:"outside_model"`
 	Rows         []rawRateRow `yaml:"rows"`
 }
 
@@ -550,7 +556,8 @@ func positive(v float64) bool { return v > 0 && !math.IsInf(v, 0) && !math.IsNaN
 
 func (c *kinChecker) series(s rawSeries) (RateSeries, bool) {
 	out := RateSeries{ID: s.ID, Title: s.Title, Kind: s.Kind, Fixed: s.Fixed, Varied: s.Varied,
-		Solvent: s.Solvent, Reference: s.Reference, Source: s.Source, Confidence: s.Confidence, Note: s.Note}
+		Solvent: s.Solvent, Reference: s.Reference, Source: s.Source, Confidence: s.Confidence, Note: s.Note,
+		OutsideModel: strings.TrimSpace(s.OutsideModel)}
 	if s.Title == "" {
 		c.failf("no title")
 	}

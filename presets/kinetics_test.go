@@ -574,3 +574,22 @@ func TestKineticsOptionalTemperature(t *testing.T) {
 		}
 	}
 }
+
+// outside_model is read (trimmed) and kept with the series; a series without it has none.
+func TestKineticsOutsideModel(t *testing.T) {
+	r := strings.Replace(kinTestRates, "  reference: a\n", "  reference: a\n  outside_model: \" steric, not in the descriptors \"\n", 1)
+	k, err := ParseKinetics([]byte(r), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := k.Series[0].OutsideModel; got != "steric, not in the descriptors" {
+		t.Errorf("outside_model read as %q", got)
+	}
+	k, err = ParseKinetics([]byte(kinTestRates), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := k.Series[0].OutsideModel; got != "" {
+		t.Errorf("no outside_model, got %q", got)
+	}
+}
