@@ -43,7 +43,7 @@ func residualClass(ps *huckel.PiSystem) string {
 // class, and the one offset no choice of β, γ_ij formula or geometry can remove.
 //
 // For a neutral alternant hydrocarbon PPP keeps the pairing theorem (A. D. McLachlan, Mol.
-// Phys. 1959, 2, 271; TestAlternantPairing): the HOMO and LUMO lie symmetrically about
+// Phys. 1959, 2, 271, from memory; TestAlternantPairing): the HOMO and LUMO lie symmetrically about
 // U_C + γ_CC/2 = −(I_C + A_C)/2, −5.60 eV with the Hinze–Jaffé carbon data, whatever β,
 // the γ_ij formula and the bond lengths. The measured midpoints (−IE + orbital energy of
 // the LUMO reference)/2 of the hydrocarbons that have both references in
