@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"sync"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/molecule"
@@ -118,8 +119,10 @@ func (p *Partner) prepare(opts *Options) error {
 	p.Units = units
 	p.sides = sides
 	p.data = make([]unitData, len(units))
+	w := locWorkPool.Get().(*locWork)
+	defer w.release()
 	for i, u := range units {
-		d, err := p.unitData(u, i)
+		d, err := p.unitData(u, i, w)
 		if err != nil {
 			return err
 		}
@@ -213,7 +216,32 @@ func unitFrontier(o *huckel.Orbitals, f, t0, t1 int) (homo, lumo int) {
 	return homo, lumo
 }
 
-func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
+// locWork is the scratch of the localisation energies of one partner's units: an
+// energy-only Hückel solver and a residue system reused for every unit (no allocation per
+// solve once warm), and the alkyl-free system of the conjugation loss with its π energy,
+// computed once per partner rather than once per unit.
+type locWork struct {
+	energy huckel.EnergySolver
+	rest   huckel.PiSystem
+	// base is the partner's π system without alkyl pseudo-atoms (nil until needed), baseE
+	// its π energy.
+	base      *huckel.PiSystem
+	baseE     float64
+	baseAlkyl bool // the partner has alkyl pseudo-atoms (valid once base is set or hasBase)
+	hasBase   bool // base, baseE and baseAlkyl are set for the current partner
+}
+
+var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
+
+// release forgets the partner (its π system must not stay reachable from the pool) and
+// returns w to the pool.
+func (w *locWork) release() {
+	w.base, w.hasBase = nil, false
+	w.rest.Mol, w.rest.Params, w.rest.Warnings = nil, nil, nil
+	locWorkPool.Put(w)
+}
+
+func (p *Partner) unitData(u Unit, ui int, w *locWork) (unitData, error) {
 	var d unitData
 	for i := range d.slots {
 		d.slots[i] = -1
@@ -236,12 +264,12 @@ func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
 			}
 		}
 	}
-	loc, err := p.localization(u, p.sides[ui])
+	loc, err := p.localization(u, p.sides[ui], w)
 	if err != nil {
 		return d, err
 	}
 	d.loc = loc
-	if d.conj, err = p.conjugationLoss(u, p.sides[ui]); err != nil {
+	if d.conj, err = p.conjugationLoss(u, p.sides[ui], w, loc); err != nil {
 		return d, err
 	}
 	tEnd := len(u.Atoms) - 1
@@ -343,8 +371,8 @@ func (p *Partner) endoSubstituent(u Unit, x, y int) int {
 // two sp3 termini and on a geometry the 2D layout does not give, so no PPP form of the
 // localisation energy is offered. Under PPP both terms come from Hückel solves of the same
 // PiSystem, so L is the same number under either method.
-func (p *Partner) localization(u Unit, sd *side) (float64, error) {
-	return p.localizationOf(p.Pi, p.eHuckel, u, sd)
+func (p *Partner) localization(u Unit, sd *side, w *locWork) (float64, error) {
+	return p.localizationOf(p.Pi, p.eHuckel, u, sd, w)
 }
 
 // conjugationLoss is the localisation energy of the unit with the hyperconjugative alkyl
@@ -356,35 +384,46 @@ func (p *Partner) localization(u Unit, sd *side) (float64, error) {
 // stabilisation, which for hyperconjugation is small (M. J. S. Dewar, H. N. Schmeising,
 // Tetrahedron 1959, 5, 166; from memory): with them, cyclopentadiene's two C–CH2 links
 // would cost 0.51 |β| more than butadiene, more than furan's aromaticity (0.45 |β|).
-// Equal to localization when the partner has no alkyl pseudo-atom.
-func (p *Partner) conjugationLoss(u Unit, sd *side) (float64, error) {
-	var alkyl []int
-	for i, c := range p.Pi.Centres {
-		if c.Type == huckel.Alkyl {
-			alkyl = append(alkyl, i)
+// Equal to localization (loc, already computed for u) when the partner has no alkyl
+// pseudo-atom. The alkyl-free system and its π energy are computed at the first unit and
+// kept in w for the partner's other units.
+func (p *Partner) conjugationLoss(u Unit, sd *side, w *locWork, loc float64) (float64, error) {
+	if !w.hasBase {
+		var alkyl []int
+		for i, c := range p.Pi.Centres {
+			if c.Type == huckel.Alkyl {
+				alkyl = append(alkyl, i)
+			}
 		}
-	}
-	if len(alkyl) == 0 {
-		return p.localization(u, sd)
-	}
-	base := p.Pi.Without(alkyl...)
-	e := 0.0
-	if len(base.Centres) > 0 {
-		o, err := huckel.Solve(base)
-		if err != nil {
-			return 0, fmt.Errorf("%s: conjugation loss at %s: %w", p.Name, u.Describe(p.Mol), err)
+		w.baseAlkyl = len(alkyl) > 0
+		if w.baseAlkyl {
+			w.base = p.Pi.Without(alkyl...)
+			w.baseE = 0
+			if len(w.base.Centres) > 0 {
+				e, err := w.energy.PiEnergy(w.base)
+				if err != nil {
+					return 0, fmt.Errorf("%s: conjugation loss at %s: %w", p.Name, u.Describe(p.Mol), err)
+				}
+				w.baseE = e
+			}
 		}
-		e = o.PiEnergy
+		w.hasBase = true
 	}
-	return p.localizationOf(base, e, u, sd)
+	if !w.baseAlkyl {
+		return loc, nil
+	}
+	return p.localizationOf(w.base, w.baseE, u, sd, w)
 }
 
 // localizationOf is localization on the π system pi of π energy ePi (|β|).
-func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *side) (float64, error) {
+// The residue is built in w.rest and solved for its energy only (huckel.EnergySolver, equal
+// to huckel.Solve's PiEnergy bit for bit).
+func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *side, w *locWork) (float64, error) {
 	t0, t1 := u.Termini()
 	c0, c1 := pi.CentreOf(t0), pi.CentreOf(t1)
 	removed := pi.Centres[c0].Electrons + pi.Centres[c1].Electrons
-	rest := pi.Without(c0, c1)
+	rest := &w.rest
+	pi.WithoutInto(rest, c0, c1)
 	if extra := removed - 2; extra > 0 {
 		// give the surplus to the inner atom(s) next to the termini
 		for _, a := range u.Atoms[1 : len(u.Atoms)-1] {
@@ -401,11 +440,11 @@ func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *s
 	localizeBenzenoid(pi, rest, sd, t0, t1)
 	eRest := 0.0
 	if len(rest.Centres) > 0 {
-		o, err := huckel.Solve(rest)
+		e, err := w.energy.PiEnergy(rest)
 		if err != nil {
 			return 0, fmt.Errorf("%s: localisation at %s: %w", p.Name, u.Describe(p.Mol), err)
 		}
-		eRest = o.PiEnergy
+		eRest = e
 	}
 	// An activator bound at a terminus (the Lewis acid on a carbonyl O, the proton of an
 	// oxocarbenium ion) stays bound in the adduct, so the shift it gives that atom's Coulomb
