@@ -30,8 +30,8 @@ import (
 // nothing once warm. An EnergySolver is not safe for concurrent use.
 type EnergySolver struct {
 	a, d, e, tau, work, x []float64
-	loc, fragE           []int
-	occ                  []energyLevel
+	loc, fragE            []int
+	occ                   []energyLevel
 }
 
 // energyLevel is one occupied level as Solve's sorted level list would hold it.
