@@ -477,21 +477,43 @@ func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *s
 // energy with the hyperconjugative alkyl pseudo-atoms left out (see conjugationLoss), |β|;
 // what the rate model (fmo/rate) reads as the diene's aromaticity and conjugation cost.
 func (p *Partner) UnitConjugationLoss(i int) float64 {
-	if i < 0 || i >= len(p.data) {
+	if i < 0 || i >= len(p.fast) {
 		return math.NaN()
 	}
-	return p.data[i].conj
+	return p.fast[i].conj // == data[i].conj (fastUnit), and kept by Compact
 }
 
 // UnitLocalization returns the localisation energy of reacting unit i (index into Units),
 // |β|: the π energy this partner alone loses when the unit's termini become sp3 (see
 // localization). An orientation's Localization is the sum of both partners' values.
 func (p *Partner) UnitLocalization(i int) float64 {
-	if i < 0 || i >= len(p.data) {
+	if i < 0 || i >= len(p.fast) {
 		return math.NaN()
 	}
-	return p.data[i].loc
+	return p.fast[i].loc // == data[i].loc (fastUnit), and kept by Compact
 }
+
+// Compact returns a copy of p that keeps only what screening reads: Name, SMILES, Role,
+// Activation, Units and the per-unit frontier data of QuickScore, Box, UnitHasFrontier,
+// UnitLocalization and UnitConjugationLoss (a few hundred bytes per unit, against tens of
+// kilobytes for the orbitals, π system and molecule of a full partner). Mol, Active, Pi,
+// Orb and Warnings are nil: Analyze, Effect, WithActivation, side channels and drawings
+// need the full partner, which a screen rebuilds for the rows it prints. allOrbitals keeps
+// every level's terminus coefficients as well, for Options.AllOrbitals scoring. p is not
+// changed.
+func (p *Partner) Compact(allOrbitals bool) *Partner {
+	q := &Partner{Name: p.Name, SMILES: p.SMILES, Role: p.Role, Activation: p.Activation, Units: p.Units,
+		fast: slices.Clone(p.fast), endo: slices.Clone(p.endo), eHuckel: p.eHuckel}
+	if !allOrbitals {
+		for i := range q.fast {
+			q.fast[i].occ, q.fast[i].emp = nil, nil
+		}
+	}
+	return q
+}
+
+// IsCompact reports whether p is a Compact copy (no molecule, π system or orbitals).
+func (p *Partner) IsCompact() bool { return p.Orb == nil }
 
 // NewPartner parses smi (errors from the SMILES reader are returned unchanged, so a caller
 // can report *smiles.Error positions) and builds the partner as NewPartnerFromMolecule does.

@@ -373,8 +373,9 @@ func screenDiagram(prep *screen.Prepared, rows []render.Row, cal huckel.Calibrat
 	}
 	var parts []*fmo.Partner
 	var pairs []*fmo.Pair
-	for a, v := range prep.Variants[e] {
-		if v == nil {
+	for a := range prep.Variants[e] {
+		v, err := prep.Variant(e, a) // the full partner (the screen may keep compact ones)
+		if v == nil || err != nil {
 			continue
 		}
 		pr, err := prep.AnalyzeAt(d, e, a)
@@ -387,7 +388,11 @@ func screenDiagram(prep *screen.Prepared, rows []render.Row, cal huckel.Calibrat
 	if len(parts) == 0 {
 		return nil, nil
 	}
-	dg := pairDiagram(prep.Dienes[d], parts, pairs, prep.Opts.Params.Name, cal)
+	diene, err := prep.Diene(d)
+	if err != nil {
+		return nil, err
+	}
+	dg := pairDiagram(diene, parts, pairs, prep.Opts.Params.Name, cal)
 	var buf bytes.Buffer
 	if err := render.WriteDiagram(&buf, dg); err != nil {
 		return nil, err
