@@ -42,7 +42,7 @@ type Prepared struct {
 	compactForm      bool
 	full             *fullCache
 	dieneSrc, dphSrc []partnerSource
-	sides         fmo.SideChannelCache  // dimerisation per diene, shared by every row of that diene
+	sides            fmo.SideChannelCache // dimerisation per diene, shared by every row of that diene
 }
 
 // Space is the pair space of the prepared library.
