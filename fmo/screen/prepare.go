@@ -37,12 +37,13 @@ type Prepared struct {
 	rate          *rate.Model           // the rate model for the rate key and the rows' rate
 	temperatureC  float64               // of the isomer shares
 	dieneConf     [][]rate.Conformation // per diene, per reacting unit
+	sides         fmo.SideChannelCache  // dimerisation per diene, shared by every row of that diene
+
 	// compactForm: Dienes, Dienophiles and Variants hold fmo.Partner.Compact copies and
 	// the full partners are rebuilt on demand (full), from dieneSrc and dphSrc.
 	compactForm      bool
 	full             *fullCache
 	dieneSrc, dphSrc []partnerSource
-	sides            fmo.SideChannelCache // dimerisation per diene, shared by every row of that diene
 }
 
 // Space is the pair space of the prepared library.
