@@ -229,6 +229,28 @@ type locWork struct {
 	baseE     float64
 	baseAlkyl bool // the partner has alkyl pseudo-atoms (valid once base is set or hasBase)
 	hasBase   bool // base, baseE and baseAlkyl are set for the current partner
+	// rings caches benzenoidRings of the (at most two) π systems the units are localised
+	// on: the partner's and the alkyl-free one.
+	rings [2]struct {
+		pi    *huckel.PiSystem
+		rings [][6]int
+	}
+}
+
+// ringsOf returns benzenoidRings(pi), computed once per π system of the current partner.
+func (w *locWork) ringsOf(pi *huckel.PiSystem) [][6]int {
+	for i := range w.rings {
+		if w.rings[i].pi == pi {
+			return w.rings[i].rings
+		}
+	}
+	for i := range w.rings {
+		if w.rings[i].pi == nil {
+			w.rings[i].pi, w.rings[i].rings = pi, benzenoidRings(pi)
+			return w.rings[i].rings
+		}
+	}
+	return benzenoidRings(pi)
 }
 
 var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
@@ -237,6 +259,9 @@ var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
 // returns w to the pool.
 func (w *locWork) release() {
 	w.base, w.hasBase = nil, false
+	for i := range w.rings {
+		w.rings[i].pi, w.rings[i].rings = nil, nil
+	}
 	w.rest.Mol, w.rest.Params, w.rest.Warnings = nil, nil, nil
 	locWorkPool.Put(w)
 }
@@ -437,7 +462,9 @@ func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *s
 			return 0, fmt.Errorf("%s: unit %s: cannot place %d π electrons of the termini", p.Name, u.Describe(p.Mol), extra)
 		}
 	}
-	localizeBenzenoid(pi, rest, sd, t0, t1)
+	if sd != nil {
+		localizeBenzenoid(pi, rest, sd, t0, t1, w.ringsOf(pi))
+	}
 	eRest := 0.0
 	if len(rest.Centres) > 0 {
 		e, err := w.energy.PiEnergy(rest)
@@ -574,11 +601,12 @@ func (p *Partner) WithActivation(mode string, act *ActivateOptions, opts *Option
 // L. J. Schaad, J. Am. Chem. Soc. 1971, 93, 305). A benzo ring reacting as a 4π unit across
 // its para positions (benzene: two isolated C=C left) is unchanged. Fused rings (naphthalene,
 // anthracene) keep the plain Hückel residual: their remnant atoms stay in an intact ring.
-func localizeBenzenoid(pi, rest *huckel.PiSystem, sd *side, t0, t1 int) {
+//
+// rings are benzenoidRings(pi).
+func localizeBenzenoid(pi, rest *huckel.PiSystem, sd *side, t0, t1 int, rings [][6]int) {
 	if sd == nil {
 		return
 	}
-	rings := benzenoidRings(pi)
 	for ri, r := range rings {
 		if !slices.Contains(r[:], pi.CentreOf(t0)) && !slices.Contains(r[:], pi.CentreOf(t1)) {
 			continue
