@@ -94,7 +94,15 @@ func (p *Partner) prepare(opts *Options) error {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	orb := new(huckel.Orbitals)
-	if err := opts.method().Solve(pi, orb); err != nil {
+	method := opts.NewMethod
+	if method == nil {
+		// The default Hückel solver keeps only workspace between solves (the orbitals go
+		// into orb): reuse one from a pool instead of growing a new one per partner.
+		s := huckelSolvers.Get().(*huckel.Solver)
+		defer huckelSolvers.Put(s)
+		method = func() huckel.Method { return s }
+	}
+	if err := method().Solve(pi, orb); err != nil {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	p.Pi, p.Orb = pi, orb
@@ -254,6 +262,9 @@ func (w *locWork) ringsOf(pi *huckel.PiSystem) [][6]int {
 }
 
 var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
+
+// huckelSolvers holds Hückel solver workspaces for prepare.
+var huckelSolvers = sync.Pool{New: func() any { return new(huckel.Solver) }}
 
 // release forgets the partner (its π system must not stay reachable from the pool) and
 // returns w to the pool.
