@@ -310,15 +310,16 @@ func (p *Partner) unitData(u Unit, ui int, w *locWork) (unitData, error) {
 	}
 	tEnd := len(u.Atoms) - 1
 	d.fast = d.fastUnit(tEnd)
+	d.fast.all = new(unitLevels)
 	for li, lv := range p.Orb.Levels {
 		if lv.Fragment != frag {
 			continue
 		}
 		tl := termLevel{x: lv.X, c0: p.Orb.Coefficient(li, u.Atoms[0]), c1: p.Orb.Coefficient(li, u.Atoms[tEnd])}
 		if lv.Occupancy > 0 {
-			d.fast.occ = append(d.fast.occ, tl)
+			d.fast.all.occ = append(d.fast.all.occ, tl)
 		} else {
-			d.fast.emp = append(d.fast.emp, tl)
+			d.fast.all.emp = append(d.fast.all.emp, tl)
 		}
 	}
 	return d, nil
@@ -544,7 +545,7 @@ func (p *Partner) Compact(allOrbitals bool) *Partner {
 		fast: slices.Clone(p.fast), endo: slices.Clone(p.endo), eHuckel: p.eHuckel}
 	if !allOrbitals {
 		for i := range q.fast {
-			q.fast[i].occ, q.fast[i].emp = nil, nil
+			q.fast[i].all = nil
 		}
 	}
 	return q
