@@ -108,7 +108,7 @@ type ConfidenceNote struct {
 var classCaution = map[string]string{
 	ClassDipole:        "the Hückel HOMO of a charge-separated 1,3-dipole sits on its anionic terminus, where SCF descriptions put it on the other end (Houk et al., J. Am. Chem. Soc. 1973, 95, 7287 and 7301, from memory), so the predicted regiochemistry is often reversed",
 	ClassSiteActivated: "with a Lewis or Brønsted acid on one carbonyl O the LUMO of the complex grows at the free C=O, and the Hückel model has no term for the strong C=O π bond beyond h_O, so site choices of activated quinones and enones can go to the C=O",
-	ClassSite:          "site choices between similar C=C bonds (substituted quinones) turn on differences of a few thousandths of |β| in the LUMO and the localisation, below what Hückel theory resolves",
+	ClassSite:          "site choices between similar C=C bonds (substituted quinones) turn on differences of a few thousandths of |β| in the LUMO and the localisation, below what Hückel theory resolves; in azadienes the site-specific frontier level can pick the wrong unit (1,2,4-triazine: C5/N2 instead of C3/C6)",
 	ClassEndo:          "the endo verdict is the secondary-orbital term only: steric and dispersive effects (α-substituted dienophiles, bulky catalysts) and thermodynamic control (reversible adducts) are outside the model",
 	ClassDemand:        "σ-withdrawing substituents (halogens) act only as π donors in Hückel theory, so demand calls for polyhalogenated partners can come out neutral",
 }
