@@ -2,10 +2,12 @@ package huckel_test
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
 	"testing"
+	"time"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/smiles"
@@ -183,4 +185,53 @@ func TestEnergySolverErrorsAndOmega(t *testing.T) {
 	}
 	ps.Omega = 1.4 // Streitwieser's recommended ω (Molecular Orbital Theory for Organic Chemists, 1961, ch. 4)
 	checkEnergy(t, &s, "acrolein with ω", ps)
+}
+
+// BenchmarkResidueEnergy measures the localisation step of the pair analysis on the
+// benchmark molecules: for every π bond, the π energy of the system without its two centres.
+// Both ways run interleaved in one loop and are timed separately: the way before
+// EnergySolver (Without and huckel.Solve, a fresh result each time) and the energy-only
+// way (WithoutInto a reused system and EnergySolver.PiEnergy). "x-vs-solve" is the time
+// ratio (old over new), "residues/s" the new way's rate; allocations per op cover both.
+func BenchmarkResidueEnergy(b *testing.B) {
+	p := defaultParams(b)
+	for _, smi := range benchMolecules {
+		ps := perceive(b, smi, p)
+		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) {
+			var s huckel.EnergySolver
+			var rest huckel.PiSystem
+			var tOld, tNew time.Duration
+			residues := 0
+			sink := 0.0
+			b.ReportAllocs()
+			for b.Loop() {
+				t0 := time.Now()
+				for _, bd := range ps.Bonds {
+					o, err := huckel.Solve(ps.Without(bd.I, bd.J))
+					if err != nil {
+						b.Fatal(err)
+					}
+					sink += o.PiEnergy
+				}
+				t1 := time.Now()
+				for _, bd := range ps.Bonds {
+					ps.WithoutInto(&rest, bd.I, bd.J)
+					e, err := s.PiEnergy(&rest)
+					if err != nil {
+						b.Fatal(err)
+					}
+					sink += e
+				}
+				t2 := time.Now()
+				tOld += t1.Sub(t0)
+				tNew += t2.Sub(t1)
+				residues += len(ps.Bonds)
+			}
+			_ = sink // equality is TestEnergySolverMatchesSolve*'s job
+			if tNew > 0 {
+				b.ReportMetric(float64(tOld)/float64(tNew), "x-vs-solve")
+				b.ReportMetric(float64(residues)/tNew.Seconds(), "residues/s")
+			}
+		})
+	}
 }
