@@ -231,9 +231,11 @@ func unitFrontier(o *huckel.Orbitals, f, t0, t1 int) (homo, lumo int) {
 type locWork struct {
 	energy huckel.EnergySolver
 	rest   huckel.PiSystem
-	// base is the partner's π system without alkyl pseudo-atoms (nil until needed), baseE
-	// its π energy.
+	// base is the partner's π system without alkyl pseudo-atoms (nil until needed; it
+	// points at baseSys, reused between partners), baseE its π energy.
 	base      *huckel.PiSystem
+	baseSys   huckel.PiSystem
+	alkyl     []int
 	baseE     float64
 	baseAlkyl bool // the partner has alkyl pseudo-atoms (valid once base is set or hasBase)
 	hasBase   bool // base, baseE and baseAlkyl are set for the current partner
@@ -274,6 +276,7 @@ func (w *locWork) release() {
 		w.rings[i].pi, w.rings[i].rings = nil, nil
 	}
 	w.rest.Mol, w.rest.Params, w.rest.Warnings = nil, nil, nil
+	w.baseSys.Mol, w.baseSys.Params, w.baseSys.Warnings = nil, nil, nil
 	locWorkPool.Put(w)
 }
 
@@ -426,15 +429,16 @@ func (p *Partner) localization(u Unit, sd *side, w *locWork) (float64, error) {
 // kept in w for the partner's other units.
 func (p *Partner) conjugationLoss(u Unit, sd *side, w *locWork, loc float64) (float64, error) {
 	if !w.hasBase {
-		var alkyl []int
+		w.alkyl = w.alkyl[:0]
 		for i, c := range p.Pi.Centres {
 			if c.Type == huckel.Alkyl {
-				alkyl = append(alkyl, i)
+				w.alkyl = append(w.alkyl, i)
 			}
 		}
-		w.baseAlkyl = len(alkyl) > 0
+		w.baseAlkyl = len(w.alkyl) > 0
 		if w.baseAlkyl {
-			w.base = p.Pi.Without(alkyl...)
+			p.Pi.WithoutInto(&w.baseSys, w.alkyl...)
+			w.base = &w.baseSys
 			w.baseE = 0
 			if len(w.base.Centres) > 0 {
 				e, err := w.energy.PiEnergy(w.base)
