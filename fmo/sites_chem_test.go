@@ -5,8 +5,8 @@ import (
 	"testing"
 )
 
-// TestLewisAcidAldehydeReactsAtCO: Danishefsky's diene (trans-1-methoxy-3-trimethylsilyloxy-
-// 1,3-butadiene) and benzaldehyde under Lewis-acid catalysis give the hetero-Diels–Alder
+// TestLewisAcidAldehydeReactsAtCO: (E)-1-methoxy-3-trimethylsilyloxy-1,3-butadiene
+// and benzaldehyde under Lewis-acid catalysis give the hetero-Diels–Alder
 // adduct at the C=O (the dihydropyranone precursor), never an adduct across the benzene ring
 // (S. Danishefsky, T. Kitahara, J. Am. Chem. Soc. 1974, 96, 7807; S. Danishefsky,
 // J. F. Kerwin, S. Kobayashi, J. Am. Chem. Soc. 1982, 104, 358). Two parts of the model carry

@@ -163,7 +163,7 @@ func TestUnsupportedAtomsAndParts(t *testing.T) {
 		{"C=C[Sn](C)(C)C", []string{"atom 2 (Sn, column 4)"}},
 		{"C=CC=[O+][Al-](Cl)(Cl)Cl", nil}, // the modelled Lewis-acid complex (O=LA)
 		{"C=C[Si](C)(C)C", nil},           // main-group σ substituent
-		{"COC=CC(=C)O[Si](C)(C)C", nil},   // Danishefsky's diene
+		{"COC=CC(=C)O[Si](C)(C)C", nil},   // (E)-1-methoxy-3-trimethylsilyloxy-1,3-butadiene
 		{"C=CC=[N+]1CCCC1.[Cl-]", []string{"the input has 2 separate parts: the π system is that of the part at column 1 (C=CC=[N+]1CCCC1); the part at column 17 ([Cl-]) has no π centres and is left out"}},
 		{"[Na+].[O-]C(=O)C=C", []string{"the π system is that of the part at column 7 ([O-]C(=O)C=C); the part at column 1 ([Na+])", "metal salt"}},
 		{"C=C.C=CC=C", []string{"2 separate molecules with π systems (the parts at column 1 (C=C) and column 5 (C=CC=C)): they are solved side by side"}},

@@ -66,12 +66,20 @@ type RateSeries struct {
 	Kind         string // "series" (a published series, at least 5 rows) or "set" (a small comparison)
 	Fixed        RolePartner
 	Varied       string  // "diene", "dienophile", "activation" or "solvent"
-	TemperatureC float64 // the series' temperature; rows may differ (RateRow.TemperatureC)
-	Solvent      string  // the series' solvent; rows may differ (RateRow.Solvent)
-	Reference    string  // name of the reference row
-	Source       string
-	Confidence   string
-	Note         string
+	TemperatureC float64 // the series' temperature; rows may differ (RateRow.TemperatureC); valid only when HasTemperature
+	// HasTemperature is false when the source read does not state the temperature (the file
+	// then omits temperature_C rather than guessing one).
+	HasTemperature bool
+	Solvent        string // the series' solvent; rows may differ (RateRow.Solvent)
+	Reference      string // name of the reference row
+	Source         string
+	Confidence     string
+	Note           string
+	// OutsideModel, when not empty, says why the series is listed and predicted but not
+	// fitted: its rows differ in something the rate model's descriptors cannot represent
+	// (the file's outside_model field; a series varying only the solvent is outside the
+	// model without it).
+	OutsideModel string
 	Rows         []RateRow
 	RefIndex     int // index of the reference row in Rows
 }
@@ -85,7 +93,8 @@ type RateRow struct {
 	K2               float64         // M^-1 s^-1 as entered, 0 when the row gives KRel
 	KRel             float64         // relative to the series' reference as entered, 0 when the row gives K2
 	UncertaintyLog10 float64         // uncertainty of log10 of the value as entered (1.0: order of magnitude)
-	TemperatureC     float64         // effective (the row's or the series')
+	TemperatureC     float64         // effective (the row's or the series'); valid only when HasTemperature
+	HasTemperature   bool            // false when neither the row nor the series states a temperature
 	Solvent          string          // effective
 	Source           string          // effective
 	Confidence       string          // effective
@@ -264,6 +273,7 @@ type rawSeries struct {
 	Source       string       `yaml:"source"`
 	Confidence   string       `yaml:"confidence"`
 	Note         string       `yaml:"note"`
+	OutsideModel string       `yaml:"outside_model"`
 	Rows         []rawRateRow `yaml:"rows"`
 }
 
@@ -546,7 +556,8 @@ func positive(v float64) bool { return v > 0 && !math.IsInf(v, 0) && !math.IsNaN
 
 func (c *kinChecker) series(s rawSeries) (RateSeries, bool) {
 	out := RateSeries{ID: s.ID, Title: s.Title, Kind: s.Kind, Fixed: s.Fixed, Varied: s.Varied,
-		Solvent: s.Solvent, Reference: s.Reference, Source: s.Source, Confidence: s.Confidence, Note: s.Note}
+		Solvent: s.Solvent, Reference: s.Reference, Source: s.Source, Confidence: s.Confidence, Note: s.Note,
+		OutsideModel: strings.TrimSpace(s.OutsideModel)}
 	if s.Title == "" {
 		c.failf("no title")
 	}
@@ -561,11 +572,9 @@ func (c *kinChecker) series(s rawSeries) (RateSeries, bool) {
 	default:
 		c.failf("varied %q (want %s, activation or solvent with a fixed %s)", s.Varied, other, s.Fixed.Role)
 	}
-	if s.TemperatureC == nil {
-		c.failf("no temperature_C")
-	} else {
+	if s.TemperatureC != nil {
 		c.temperature("series", s.TemperatureC)
-		out.TemperatureC = *s.TemperatureC
+		out.TemperatureC, out.HasTemperature = *s.TemperatureC, true
 	}
 	if s.Solvent == "" {
 		c.failf("no solvent")
@@ -587,12 +596,12 @@ func (c *kinChecker) series(s rawSeries) (RateSeries, bool) {
 	for i, r := range s.Rows {
 		what := fmt.Sprintf("row %d (%s)", i+1, r.Name)
 		row := RateRow{Partner: KineticsPartner{Name: r.Name, SMILES: r.SMILES}, Catalyst: r.Catalyst,
-			TemperatureC: out.TemperatureC, Solvent: s.Solvent, Source: s.Source, Confidence: s.Confidence, Note: r.Note}
+			TemperatureC: out.TemperatureC, HasTemperature: out.HasTemperature, Solvent: s.Solvent, Source: s.Source, Confidence: s.Confidence, Note: r.Note}
 		c.partner(what, row.Partner)
 		row.Activation = c.activation(what, r.Activation, r.Catalyst)
 		if r.TemperatureC != nil {
 			c.temperature(what, r.TemperatureC)
-			row.TemperatureC = *r.TemperatureC
+			row.TemperatureC, row.HasTemperature = *r.TemperatureC, true
 		}
 		if r.Solvent != "" {
 			row.Solvent = r.Solvent
@@ -838,7 +847,11 @@ func (c *kinChecker) duplicates(k *KineticsData) error {
 	for _, s := range k.Series {
 		seen := map[string]int{}
 		for i, r := range s.Rows {
-			key := fmt.Sprintf("%s|%s|%s|%g", structureKey(r.Partner.SMILES), r.Activation, r.Solvent, r.TemperatureC)
+			temp := "?"
+			if r.HasTemperature {
+				temp = fmt.Sprintf("%g", r.TemperatureC)
+			}
+			key := fmt.Sprintf("%s|%s|%s|%s", structureKey(r.Partner.SMILES), r.Activation, r.Solvent, temp)
 			if j, ok := seen[key]; ok {
 				return fmt.Errorf("%s: %s: rows %d and %d are the same reaction under the same conditions", KineticsRatesName, s.ID, j+1, i+1)
 			}

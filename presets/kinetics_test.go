@@ -50,16 +50,19 @@ func TestKineticsSMILESParse(t *testing.T) {
 }
 
 // Issue 10 asks for at least 8 series, 80 rate rows, 30 regio ratios and 15 endo:exo ratios.
-// Only the endo:exo target is met. The set was assembled without the papers at hand, and a
-// value went in only where it was recalled with reasonable confidence (see the file
-// headers), so the floors below are the honest counts of this version, not the targets:
+// The series count (most of them small sets, not published series of five or more) and the
+// endo:exo count are met; rate rows (54 of 80) and regio ratios (19, five of them numeric, of
+// 30) are not. The set was first assembled without the papers at hand, and a value went in
+// only where it was recalled with reasonable confidence; a later search of stored public
+// copies of papers added a few rows read there (see the file headers) but found almost no
+// rate or ratio tables. The floors below are the honest counts of this version, not the targets:
 // raise them as checked rows are added, and never pad the files to reach the targets.
 func TestKineticsCounts(t *testing.T) {
 	const (
-		targetSeries, floorSeries = 8, 7
-		targetRows, floorRows     = 80, 38
+		targetSeries, floorSeries = 8, 13
+		targetRows, floorRows     = 80, 54
 		targetRegio, floorRegio   = 30, 19
-		targetEndo, floorEndo     = 15, 15
+		targetEndo, floorEndo     = 15, 23
 	)
 	k := mustKinetics(t)
 	numericRegio := 0
@@ -545,4 +548,51 @@ func FuzzParseKinetics(f *testing.F) {
 			t.Error("a set without series was accepted")
 		}
 	})
+}
+
+// A series whose source does not state its temperature omits temperature_C: it loads with
+// HasTemperature false on the series and its rows, a stated one sets it (no temperature is
+// ever filled in for the source).
+func TestKineticsOptionalTemperature(t *testing.T) {
+	k, err := ParseKinetics([]byte(strings.Replace(kinTestRates, "  temperature_C: 20\n", "", 1)), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := k.Series[0]
+	if s.HasTemperature || s.Rows[0].HasTemperature || s.Rows[1].HasTemperature {
+		t.Errorf("series without temperature_C: HasTemperature %v, rows %v %v", s.HasTemperature, s.Rows[0].HasTemperature, s.Rows[1].HasTemperature)
+	}
+	k, err = ParseKinetics([]byte(kinTestRates), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := k.Series[0]; !s.HasTemperature || s.TemperatureC != 20 || !s.Rows[1].HasTemperature {
+		t.Errorf("series with temperature_C 20: HasTemperature %v, %v °C", s.HasTemperature, s.TemperatureC)
+	}
+	for _, s := range mustKinetics(t).Series {
+		for _, r := range s.Rows {
+			if !r.HasTemperature && !strings.Contains(s.Note+r.Note, "temperature is not stated") && !strings.Contains(s.Note+r.Note, "no single temperature") {
+				t.Errorf("%s: %s: no temperature and no note saying the source does not state one", s.ID, r.Partner.Name)
+			}
+		}
+	}
+}
+
+// outside_model is read (trimmed) and kept with the series; a series without it has none.
+func TestKineticsOutsideModel(t *testing.T) {
+	r := strings.Replace(kinTestRates, "  reference: a\n", "  reference: a\n  outside_model: \" steric, not in the descriptors \"\n", 1)
+	k, err := ParseKinetics([]byte(r), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := k.Series[0].OutsideModel; got != "steric, not in the descriptors" {
+		t.Errorf("outside_model read as %q", got)
+	}
+	k, err = ParseKinetics([]byte(kinTestRates), []byte(kinTestSel))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := k.Series[0].OutsideModel; got != "" {
+		t.Errorf("no outside_model, got %q", got)
+	}
 }

@@ -116,7 +116,11 @@ func writeRateValidation(w io.Writer) error {
 	for _, st := range m.Series {
 		note := ""
 		if !st.InModel {
-			note = "solvent only: outside the model, not fitted"
+			why := st.Outside
+			if why == "" {
+				why = "solvent only"
+			}
+			note = why + ": outside the model, not fitted"
 		} else if st.Rows < 5 {
 			note = "fewer than 5 rows: ρ not defined"
 		}

@@ -15,7 +15,7 @@ import (
 // the two methods differ. This is the measurement that keeps Hückel the default
 // (README, "π method"). With the site-specific frontier levels and pairing weights the
 // regio cases agree (22 of 25 each); PPP gains site-06 (a Hückel known miss) but loses
-// site-07 (Danishefsky's diene + benzaldehyde with a Lewis acid); why each flips has not
+// site-07 ((E)-1-methoxy-3-trimethylsilyloxy-1,3-butadiene + benzaldehyde with a Lewis acid); why each flips has not
 // been examined yet. PPP also loses demand-05 (phenyl azide + styrene: PPP's Koopmans gaps are about three times wider in
 // |β₀| than Hückel gaps, and the 0.15 |β| neutral band no longer covers the 0.6 |β₀|
 // difference). Totals: Hückel 39 of 48, PPP 38 of 48; the rate series is ranked worse (ρ 0.77

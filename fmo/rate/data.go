@@ -23,13 +23,29 @@ type Observation struct {
 // SeriesObs is one series of observations; Ref indexes its reference row in Rows.
 type SeriesObs struct {
 	ID, Kind, Varied, Title, Source string
-	Rows                            []Observation
-	Ref                             int
+	// OutsideModel is the data file's reason for listing the series without fitting it
+	// ("" for a fitted series).
+	OutsideModel string
+	Rows         []Observation
+	Ref          int
 }
 
 // InModel reports whether the series enters the fit and the statistics: a series varying
-// only the solvent is outside the model (it has no solvent term), so it is listed, not fitted.
-func (s *SeriesObs) InModel() bool { return s.Varied != "solvent" }
+// only the solvent is outside the model (it has no solvent term), and so is one the data
+// file marks outside_model (its rows differ in something the descriptors cannot represent);
+// both are listed and predicted, not fitted.
+func (s *SeriesObs) InModel() bool { return s.Varied != "solvent" && s.OutsideModel == "" }
+
+// OutsideReason says in a few words why a series is not fitted ("" when it is).
+func (s *SeriesObs) OutsideReason() string {
+	switch {
+	case s.OutsideModel != "":
+		return s.OutsideModel
+	case s.Varied == "solvent":
+		return "solvent only"
+	}
+	return ""
+}
 
 // partnerCache builds each (SMILES, role, activation) partner once.
 type partnerCache struct {
@@ -68,7 +84,8 @@ func Observe(k *presets.KineticsData, opts *fmo.Options) ([]SeriesObs, error) {
 	var out []SeriesObs
 	for si := range k.Series {
 		s := &k.Series[si]
-		so := SeriesObs{ID: s.ID, Kind: s.Kind, Varied: s.Varied, Title: s.Title, Source: s.Source, Ref: s.RefIndex}
+		so := SeriesObs{ID: s.ID, Kind: s.Kind, Varied: s.Varied, Title: s.Title, Source: s.Source, Ref: s.RefIndex,
+			OutsideModel: s.OutsideModel}
 		for _, r := range s.Rows {
 			dn, en := s.Pair(r)
 			d, err := c.get(dn.Name, dn.SMILES, fmo.RoleDiene, fmo.ActivateNone)

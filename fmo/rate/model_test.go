@@ -109,3 +109,50 @@ func TestConformation(t *testing.T) {
 		}
 	}
 }
+
+// A series the data file marks outside_model is listed and predicted but does not move the
+// fit: the coefficients are those of the fit without it, and its statistics say why.
+func TestOutsideModelNotFitted(t *testing.T) {
+	k, err := presets.Kinetics()
+	if err != nil {
+		t.Fatal(err)
+	}
+	opts, err := fmo.DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	obs, err := Observe(k, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var without []SeriesObs
+	outside := ""
+	for _, s := range obs {
+		if s.OutsideModel != "" {
+			outside = s.ID
+			continue
+		}
+		without = append(without, s)
+	}
+	if outside == "" {
+		t.Skip("no series of the bundled set is marked outside_model")
+	}
+	all, err := Fit(obs, DefaultFitOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	part, err := Fit(without, DefaultFitOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	for j := range all.Coef {
+		if abs(all.Coef[j]-part.Coef[j]) > 1e-12 {
+			t.Errorf("%s: coefficient %s %g with %s listed, %g without it", outside, Names[j], all.Coef[j], outside, part.Coef[j])
+		}
+	}
+	for _, st := range all.Series {
+		if st.ID == outside && (st.InModel || st.Outside == "" || st.Rows == 0) {
+			t.Errorf("%s: statistics %+v, want listed (rows, RMSE) with in_model false and a reason", outside, st)
+		}
+	}
+}

@@ -4,7 +4,7 @@ import "testing"
 
 // benchInputs are typical substrates of 10–30 atoms (names from memory).
 var benchInputs = []string{
-	"COC=CC(=C)O[Si](C)(C)C",                // Danishefsky diene, 10 heavy atoms
+	"COC=CC(=C)O[Si](C)(C)C",                // 1-methoxy-3-trimethylsilyloxybutadiene, 10 heavy atoms
 	"O=C1C=CC(=O)N1c1ccccc1",                // N-phenylmaleimide, 13
 	"c1ccc(-c2nnc(-c3ccccn3)nn2)nc1",        // 3,6-di(2-pyridyl)tetrazine, 18
 	"CC(=O)CC(c1ccccc1)c1c(O)c2ccccc2oc1=O", // warfarin, 23
