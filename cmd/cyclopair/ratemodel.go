@@ -47,6 +47,9 @@ func rateLines(p *fmo.Pair) []string {
 			line += fmt.Sprintf("; %s: %s than without activation", activationWord(p.Activation), factorWords(*r.Log10VsFree))
 		}
 		out = append(out, line)
+		if !r.InDomain {
+			out = append(out, r.DomainNote+"; the interval reaches back to the prediction at the edge of the fitted range: treat the factor as a rough guess")
+		}
 	}
 	if len(p.Orientations) > 1 && p.FractionInterval != nil {
 		best := p.Orientations[0]
