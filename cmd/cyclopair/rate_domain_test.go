@@ -101,3 +101,18 @@ func TestRateModelWithoutDomain(t *testing.T) {
 		t.Errorf("old model file: %s", out)
 	}
 }
+
+// validate states the domain next to the fit figures: the fitted rows, each descriptor's
+// range and the warning leverage (computed by the fit; TestDomainFittedRows checks the rows).
+func TestValidateDomainLine(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "validate")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"applicability domain over the 49 fitted rows", "controlling frontier gap 0.304 to 1.150 |β|",
+		"Lewis-acid indicator 0 to 1", "at most 0.245 (3p/n)"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("validate output lacks %q", want)
+		}
+	}
+}

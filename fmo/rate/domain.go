@@ -197,8 +197,16 @@ var termWords = [NumTerms]struct {
 	{"diene conjugation loss", true, " |β|"},
 	{"dienophile localisation", true, " |β|"},
 	{"log10 s-cis population", false, ""},
-	{"diene reach d14 − 2.90 Å", true, " Å"},
+	{"diene 1,4-distance offset (d14 − 2.90 Å)", true, " Å"},
 	{"Lewis-acid indicator", false, ""},
+}
+
+// fmtTerm writes a descriptor value: three decimals, the 0/1 indicator as an integer.
+func fmtTerm(j int, v float64) string {
+	if j == TermLewis {
+		return fmt.Sprintf("%g", v)
+	}
+	return trim3(v)
 }
 
 func termValue(j int, v float64) float64 {
@@ -240,7 +248,7 @@ func (m *Model) CheckDomain(d *Descriptors) DomainCheck {
 		}
 		w := termWords[j]
 		c.Reasons = append(c.Reasons, fmt.Sprintf("%s %s%s outside the fitted range (%s to %s%s)", w.name,
-			trim3(termValue(j, v[j])), w.unit, trim3(a), trim3(b), w.unit))
+			fmtTerm(j, termValue(j, v[j])), w.unit, fmtTerm(j, a), fmtTerm(j, b), w.unit))
 	}
 	if len(dom.LevInv) > 0 {
 		c.Leverage = dom.leverageOf(v)
@@ -267,4 +275,36 @@ func trim3(x float64) string {
 		s = "0.000"
 	}
 	return s
+}
+
+// DomainRanges describes the fitted range of every descriptor the predictions use, in the
+// chemist's sign ("controlling frontier gap 0.304 to 1.150 |β|"); nil without a domain.
+func (m *Model) DomainRanges() []string {
+	if m.Domain == nil {
+		return nil
+	}
+	var out []string
+	for j := range NumTerms {
+		if !m.rangeTermUsed(j) {
+			continue
+		}
+		a, b := termValue(j, m.Domain.Min[j]), termValue(j, m.Domain.Max[j])
+		if a > b {
+			a, b = b, a
+		}
+		out = append(out, fmt.Sprintf("%s %s to %s%s", termWords[j].name, fmtTerm(j, a), fmtTerm(j, b), termWords[j].unit))
+	}
+	return out
+}
+
+// DomainLeverageTerms names the descriptors of the domain's leverage; nil without a domain.
+func (m *Model) DomainLeverageTerms() []string {
+	if m.Domain == nil {
+		return nil
+	}
+	var out []string
+	for _, j := range m.Domain.LevTerms {
+		out = append(out, termWords[j].name)
+	}
+	return out
 }
