@@ -104,7 +104,11 @@ func BuildDomain(obs []SeriesObs, fitted [NumTerms]bool) (*Domain, error) {
 	}
 	inv, err := LeverageMatrix(x)
 	if err != nil {
-		return nil, err
+		// collinear descriptors on a user's small data set: the fit itself may still be
+		// defined on the differences; keep the ranges and an intercept-only leverage (1/n,
+		// never above 3/n) rather than refuse the fit
+		d.LevTerms = nil
+		inv = [][]float64{{1 / float64(len(rows))}}
 	}
 	d.LevInv = inv
 	d.Warning = WarningFactor * float64(len(d.LevTerms)+1) / float64(len(rows))

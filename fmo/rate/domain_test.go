@@ -201,3 +201,23 @@ func TestDomainFile(t *testing.T) {
 		t.Errorf("an unknown leverage term: %v", err)
 	}
 }
+
+// A user's data set whose domain descriptors are collinear (here the conjugation loss is
+// twice the gap on every row) still gets a domain: the ranges, and an intercept-only leverage
+// 1/n; a descriptor that does not vary is left out of the leverage.
+func TestBuildDomainCollinear(t *testing.T) {
+	var s SeriesObs
+	for _, g := range []float64{0.5, 0.6, 0.7} {
+		s.Rows = append(s.Rows, Observation{D: Descriptors{Gap: g, GapNormal: g, GapInverse: 2, DieneConjugation: 2 * g}})
+	}
+	d, err := BuildDomain([]SeriesObs{s}, DefaultFitOptions().Fit)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(d.LevTerms) != 0 || len(d.LevInv) != 1 || math.Abs(d.LevInv[0][0]-1.0/3) > 1e-12 {
+		t.Errorf("collinear rows: leverage terms %v, matrix %v", d.LevTerms, d.LevInv)
+	}
+	if d.Min[TermGap] != -0.7 || d.Max[TermGap] != -0.5 {
+		t.Errorf("gap range %g to %g, want -0.7 to -0.5", d.Min[TermGap], d.Max[TermGap])
+	}
+}
