@@ -116,3 +116,32 @@ func TestValidateDomainLine(t *testing.T) {
 		}
 	}
 }
+
+// calibrate --rates writes the domain into the user's model file, and --rate-model reads it
+// back: a fitted reaction is inside, a pair with a gap below the fitted range outside.
+func TestCalibrateRatesWritesDomain(t *testing.T) {
+	rates, _ := presets.KineticsYAML()
+	dir := t.TempDir()
+	in, model := filepath.Join(dir, "rates.yaml"), filepath.Join(dir, "model.yaml")
+	if err := os.WriteFile(in, rates, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, errOut, code := runCLI(t, "", "calibrate", in, "--rates", "--out", model); code != 0 {
+		t.Fatalf("calibrate exit %d: %s", code, errOut)
+	}
+	b, err := os.ReadFile(model)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(b, []byte("\ndomain:\n")) {
+		t.Fatal("the written model has no domain")
+	}
+	for _, c := range []struct {
+		diene, dienophile, want string
+	}{{"C1=CCC=C1", "O=C1OC(=O)C=C1", `"in_domain":true`}, {"c1ccc2cc3ccccc3cc2c1", "O=C1C=CC(=O)C=C1", `"in_domain":false`}} {
+		out, errOut, code := runCLI(t, "", "pair", "--diene", c.diene, "--dienophile", c.dienophile, "--rate-model", model, "--format", "json")
+		if code != 0 || !strings.Contains(out, c.want) {
+			t.Errorf("%s + %s with the refitted model: exit %d, want %s (%s)", c.diene, c.dienophile, code, c.want, errOut)
+		}
+	}
+}
