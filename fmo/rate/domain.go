@@ -22,7 +22,9 @@ import (
 //  3. the leverage h = xᵀ(XᵀX)⁻¹x of the continuous fitted descriptors, with an intercept
 //     column, X the fitted rows, is at most the warning leverage h* = 3p/n (p the columns of
 //     X, n its rows): the Williams-plot criterion of A. Tropsha, P. Gramatica, V. K. Gombar,
-//     QSAR Comb. Sci. 2003, 22, 69 (from memory). The 0/1 indicator stays out of the leverage:
+//     QSAR Comb. Sci. 2003, 22, 69-77, "The importance of being earnest" (title, pages and its
+//     applicability-domain section checked in a stored catalogue record; the 3p/n value itself
+//     from memory). The 0/1 indicator stays out of the leverage:
 //     with a handful of catalysed rows it would put every catalysed prediction, including the
 //     fitted ones, above h*; criterion 2 covers it. Criterion 3 catches combinations the fit
 //     has not seen although each descriptor is within its range.
