@@ -119,6 +119,14 @@ type RateEstimate struct {
 	// Log10VsFree is log10 of the rate relative to the same pair without activation (only on
 	// activated variants whose free pair was analysed).
 	Log10VsFree *float64 `json:"log10_vs_unactivated,omitempty"`
+	// InDomain reports whether the pair lies inside the model's applicability domain
+	// (fmo/rate domain.go: perturbation regime, the fitted descriptor ranges, the leverage);
+	// outside, DomainNote says which descriptor is extrapolated and Interval is widened.
+	InDomain   bool   `json:"in_domain"`
+	DomainNote string `json:"domain_note,omitempty"`
+	// Leverage is h = xᵀ(XᵀX)⁻¹x of the pair's descriptors against the fitted rows (absent
+	// when the model file stores no domain).
+	Leverage *float64 `json:"leverage,omitempty"`
 }
 
 // SideChannel is a competing reaction the pair analysis checked.

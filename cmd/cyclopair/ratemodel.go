@@ -47,6 +47,9 @@ func rateLines(p *fmo.Pair) []string {
 			line += fmt.Sprintf("; %s: %s than without activation", activationWord(p.Activation), factorWords(*r.Log10VsFree))
 		}
 		out = append(out, line)
+		if !r.InDomain {
+			out = append(out, r.DomainNote+"; the interval reaches back to the prediction at the edge of the fitted range: treat the factor as a rough guess")
+		}
 	}
 	if len(p.Orientations) > 1 && p.FractionInterval != nil {
 		best := p.Orientations[0]
@@ -128,6 +131,10 @@ func writeRateValidation(w io.Writer) error {
 	}
 	tw.Flush()
 	fmt.Fprintf(w, "all fitted rows: RMSE %.2f log10 (gap-only baseline %.2f)\n", m.CVRMSE, m.GapCVRMSE)
+	if d := m.Domain; d != nil {
+		fmt.Fprintf(w, "applicability domain over the %d fitted rows: %s; leverage of %s at most %.3f (3p/n); a negative or first-order gap is outside\n",
+			d.Rows, strings.Join(m.DomainRanges(), ", "), strings.Join(m.DomainLeverageTerms(), ", "), d.Warning)
+	}
 	r := m.Ratios
 	fmt.Fprintf(w, "regio ratios: MAE %.2f kcal/mol in ΔΔG‡ over %d measured ratios, leave-one-out (baseline no preference: %.2f); %d of %d single-isomer entries predicted beyond %.2f kcal/mol\n",
 		r.RegioMAE, r.RegioNumeric, r.RegioBaseMAE, r.RegioCensorMet, r.RegioCensored, r.CensorKcal)

@@ -37,6 +37,10 @@ type Descriptors struct {
 	// Activation is the mode of the dienophile (fmo.ActivateNone, ActivateLewis, ...): it
 	// acts through the orbitals and, for a Lewis acid, through the fitted mode term.
 	Activation string
+	// FirstOrder is true when the preferred orientation used the first-order (degenerate)
+	// form of the frontier term: the gap is at or below the coupling, outside the regime the
+	// model's gap term describes (CheckDomain). Not a model term.
+	FirstOrder bool
 }
 
 // DienophileLocalization is the dienophile's part of the localisation energy, |β|.
@@ -101,6 +105,7 @@ func FromPair(p *fmo.Pair, diene *molecule.Molecule) (Descriptors, error) {
 		DieneConjugation:  o.DieneConjugationLoss,
 		Conformation:      ConformationOf(diene, o.DieneAtoms),
 		Activation:        p.Activation,
+		FirstOrder:        o.Method == "first-order",
 	}
 	d.Gap = min(d.GapNormal, d.GapInverse)
 	return d, nil
@@ -113,6 +118,7 @@ func FromQuick(q *fmo.Quick, conf Conformation, activation string) Descriptors {
 		GapNormal: q.GapNormal, GapInverse: q.GapInverse, Gap: min(q.GapNormal, q.GapInverse),
 		Frontier: q.Frontier, Localization: q.Localization, DieneLocalization: q.DieneLocalization,
 		DieneConjugation: q.DieneConjugationLoss, Conformation: conf, Activation: activation,
+		FirstOrder: q.FirstOrder,
 	}
 }
 

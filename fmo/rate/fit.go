@@ -191,6 +191,9 @@ func Fit(obs []SeriesObs, fo FitOptions) (*Model, error) {
 		S2: full.s2, DOF: full.dof, Rows: full.nRows,
 	}
 	m.Cov = full.cov
+	if m.Domain, err = BuildDomain(obs, fo.Fit); err != nil {
+		return nil, err
+	}
 	var sq, sqGap float64
 	n := 0
 	for si := range obs {

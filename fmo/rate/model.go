@@ -49,31 +49,50 @@ type Model struct {
 	GapCVRMSE  float64 // the same for a gap-only line
 	Checksum   string  // presets.KineticsChecksum of the data it was fitted on ("" for user data)
 	Ratios     RatioModel
+	// Domain is the applicability domain (domain.go); nil for a model file written before
+	// it was stored, whose predictions are then never reported inside the domain.
+	Domain *Domain
 }
 
 // Estimate is a predicted rate: log10 of k relative to the reference reaction and its
-// prediction interval.
+// prediction interval, with the applicability-domain verdict.
 type Estimate struct {
 	Log10KRel float64
-	Lo, Hi    float64
+	// Lo, Hi is the prediction interval: t·sqrt(s²τ² + gᵀCg) about the estimate (g the
+	// descriptors minus the reference reaction's, C the coefficients' covariance: the
+	// leverage-based interval of a weighted fit), and outside the domain its union with the
+	// interval at the nearest point of the fitted ranges (domain.go).
+	Lo, Hi float64
+	Domain DomainCheck
 }
 
 // Predict returns the estimate for descriptors d.
 func (m *Model) Predict(d *Descriptors) Estimate {
 	v := d.Vector()
+	y, half := m.predictVector(v)
+	e := Estimate{Log10KRel: y, Lo: y - half, Hi: y + half, Domain: m.CheckDomain(d)}
+	if !e.Domain.In && e.Domain.Clamped != v {
+		yc, hc := m.predictVector(e.Domain.Clamped)
+		e.Lo, e.Hi = min(e.Lo, yc-hc), max(e.Hi, yc+hc)
+	}
+	return e
+}
+
+// predictVector returns the central value and the half-width of the interval at descriptor
+// vector v.
+func (m *Model) predictVector(v [NumTerms]float64) (y, half float64) {
 	var g [NumTerms]float64
 	for j := range g {
 		g[j] = v[j] - m.RefVector[j]
 	}
-	y := dot(m.Coef, g)
+	y = dot(m.Coef, g)
 	q := 0.0
 	for i := range NumTerms {
 		for k := range NumTerms {
 			q += g[i] * m.Cov[i][k] * g[k]
 		}
 	}
-	half := m.T * math.Sqrt(m.S2*m.ModelError*m.ModelError+q)
-	return Estimate{Log10KRel: y, Lo: y - half, Hi: y + half}
+	return y, m.T * math.Sqrt(m.S2*m.ModelError*m.ModelError+q)
 }
 
 // Quick is Predict's central value for a QuickScore result, written out for the screening
@@ -109,7 +128,11 @@ func (m *Model) Annotate(p *fmo.Pair, diene *fmo.Partner, tempC float64) error {
 	}
 	e := m.Predict(&d)
 	p.Rate = &fmo.RateEstimate{Log10KRel: round6(e.Log10KRel), Interval: [2]float64{round6(e.Lo), round6(e.Hi)},
-		Reference: m.Reference.Name}
+		Reference: m.Reference.Name, InDomain: e.Domain.In, DomainNote: e.Domain.Note()}
+	if !math.IsNaN(e.Domain.Leverage) {
+		h := round6(e.Domain.Leverage)
+		p.Rate.Leverage = &h
+	}
 	m.Ratios.annotate(p, tempC)
 	return nil
 }
@@ -149,6 +172,23 @@ type fileModel struct {
 	GapCVRMSE        float64      `yaml:"gap_baseline_cv_rmse_log10"`
 	Series           []SeriesStat `yaml:"series"`
 	Ratios           RatioModel   `yaml:"ratios"`
+	// Domain is optional: files written before it was stored still load (their predictions
+	// are then reported outside the domain, unchecked).
+	Domain *fileDomain `yaml:"domain,omitempty"`
+}
+
+type fileRange struct {
+	Term string  `yaml:"term"`
+	Min  float64 `yaml:"min"`
+	Max  float64 `yaml:"max"`
+}
+
+type fileDomain struct {
+	Rows            int         `yaml:"rows"`
+	Ranges          []fileRange `yaml:"ranges"`
+	LeverageTerms   []string    `yaml:"leverage_terms"`
+	LeverageMatrix  [][]float64 `yaml:"leverage_matrix"`
+	WarningLeverage float64     `yaml:"warning_leverage"`
 }
 
 // FileFormat names the model-file format.
@@ -172,6 +212,23 @@ func (m *Model) Marshal(header string) ([]byte, error) {
 		s.Spearman, s.RMSE, s.GapRho, s.GapRMSE = r(s.Spearman), r(s.RMSE), r(s.GapRho), r(s.GapRMSE)
 		f.Series = append(f.Series, s)
 	}
+	if d := m.Domain; d != nil {
+		fd := &fileDomain{Rows: d.Rows, WarningLeverage: r(d.Warning)}
+		for j := range NumTerms {
+			fd.Ranges = append(fd.Ranges, fileRange{Term: Names[j], Min: r(d.Min[j]), Max: r(d.Max[j])})
+		}
+		for _, j := range d.LevTerms {
+			fd.LeverageTerms = append(fd.LeverageTerms, Names[j])
+		}
+		for _, row := range d.LevInv {
+			out := make([]float64, len(row))
+			for k, x := range row {
+				out[k] = roundSig(x)
+			}
+			fd.LeverageMatrix = append(fd.LeverageMatrix, out)
+		}
+		f.Domain = fd
+	}
 	var b bytes.Buffer
 	b.WriteString(header)
 	enc := yaml.NewEncoder(&b)
@@ -183,6 +240,16 @@ func (m *Model) Marshal(header string) ([]byte, error) {
 }
 
 func r(x float64) float64 { return math.Round(x*1e6) / 1e6 }
+
+// roundSig rounds to 10 significant digits: (XᵀX)⁻¹ entries span several orders of
+// magnitude, and the leverage is a difference of large terms.
+func roundSig(x float64) float64 {
+	if x == 0 || math.IsInf(x, 0) || math.IsNaN(x) {
+		return x
+	}
+	e := math.Pow(10, 9-math.Floor(math.Log10(math.Abs(x))))
+	return math.Round(x*e) / e
+}
 
 // ParseModel reads a model file written by Marshal (strict: unknown keys are errors).
 func ParseModel(data []byte, name string) (*Model, error) {
@@ -213,7 +280,65 @@ func ParseModel(data []byte, name string) (*Model, error) {
 	if m.T <= 0 || m.S2 < 0 {
 		return nil, fmt.Errorf("%s: t_quantile must be positive and residual_factor not negative", name)
 	}
+	if f.Domain != nil {
+		d, err := parseDomain(f.Domain)
+		if err != nil {
+			return nil, fmt.Errorf("%s: domain: %v", name, err)
+		}
+		m.Domain = d
+	}
 	return m, nil
+}
+
+func termIndex(name string) int {
+	for j, n := range Names {
+		if n == name {
+			return j
+		}
+	}
+	return -1
+}
+
+func parseDomain(f *fileDomain) (*Domain, error) {
+	d := &Domain{Rows: f.Rows, Warning: f.WarningLeverage}
+	if f.Rows <= 0 || !(f.WarningLeverage > 0) {
+		return nil, fmt.Errorf("rows and warning_leverage must be positive")
+	}
+	if len(f.Ranges) != NumTerms {
+		return nil, fmt.Errorf("%d ranges, want one per term (%v)", len(f.Ranges), Names)
+	}
+	for j, rg := range f.Ranges {
+		if rg.Term != Names[j] {
+			return nil, fmt.Errorf("range %d is %q, want %q", j+1, rg.Term, Names[j])
+		}
+		if !(rg.Min <= rg.Max) {
+			return nil, fmt.Errorf("range of %s: min %g above max %g", rg.Term, rg.Min, rg.Max)
+		}
+		d.Min[j], d.Max[j] = rg.Min, rg.Max
+	}
+	for _, n := range f.LeverageTerms {
+		j := termIndex(n)
+		if j < 0 {
+			return nil, fmt.Errorf("leverage term %q is not one of %v", n, Names)
+		}
+		d.LevTerms = append(d.LevTerms, j)
+	}
+	p := len(d.LevTerms) + 1
+	if len(f.LeverageMatrix) != p {
+		return nil, fmt.Errorf("leverage_matrix has %d rows, want %d (intercept and %d terms)", len(f.LeverageMatrix), p, p-1)
+	}
+	for i, row := range f.LeverageMatrix {
+		if len(row) != p {
+			return nil, fmt.Errorf("leverage_matrix row %d has %d values, want %d", i+1, len(row), p)
+		}
+		for _, x := range row {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				return nil, fmt.Errorf("leverage_matrix row %d: not a finite number", i+1)
+			}
+		}
+	}
+	d.LevInv = f.LeverageMatrix
+	return d, nil
 }
 
 // Default returns the bundled model (presets/kinetics/model.yaml), fitted on the bundled

@@ -14,6 +14,7 @@ var csvHeader = []string{
 	"gap_inverse_beta", "gap_inverse_ev", "label", "product", "stabilization_beta",
 	"regio_margin_beta", "regio_confidence", "endo", "allowed", "warnings_count", "warnings",
 	"params", "calibration", "caution", "log10_k_rel", "log10_k_rel_lo", "log10_k_rel_hi",
+	"rate_in_domain", "rate_domain_note", // the rate model's applicability domain (empty without a rate)
 	"diene_notes", "dienophile_notes", // the partners' notes from the substrate list (extra columns, SD data items)
 }
 
@@ -49,11 +50,12 @@ func csvRecord(r Row) []string {
 		f3(p.GapNormal.Beta), f2(p.GapNormal.EV), f3(p.GapInverse.Beta), f2(p.GapInverse.EV),
 		label, t(product), stab, f3(p.RegioMargin), p.RegioConfidence, p.Endo,
 		strconv.FormatBool(p.Allowed), strconv.Itoa(len(p.Warnings)),
-		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution, "", "", "",
+		t(strings.Join(p.Warnings, " | ")), t(p.Params), t(p.Calibration), Caution, "", "", "", "", "",
 	}
 	if p.Rate != nil {
 		n := len(rec)
-		rec[n-3], rec[n-2], rec[n-1] = f3(p.Rate.Log10KRel), f3(p.Rate.Interval[0]), f3(p.Rate.Interval[1])
+		rec[n-5], rec[n-4], rec[n-3] = f3(p.Rate.Log10KRel), f3(p.Rate.Interval[0]), f3(p.Rate.Interval[1])
+		rec[n-2], rec[n-1] = strconv.FormatBool(p.Rate.InDomain), t(p.Rate.DomainNote)
 	}
 	return append(rec, t(p.DieneNotes), t(p.DienophileNotes))
 }

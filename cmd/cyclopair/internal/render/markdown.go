@@ -9,8 +9,9 @@ import (
 )
 
 type markdownWriter struct {
-	w   *bufio.Writer
-	err error
+	w            *bufio.Writer
+	err          error
+	extrapolated int
 }
 
 func newMarkdown(w io.Writer, rep Report) (*markdownWriter, error) {
@@ -52,15 +53,21 @@ func (m *markdownWriter) WriteRow(r Row) error {
 	}
 	cells := []string{
 		strconv.Itoa(r.Rank), mdEscape(mdDash(p.DieneName)), mdEscape(mdDash(p.DienophileName)),
-		mdEscape(mdDash(p.Activation)), rateCell(p.Rate, "–"), mdDash(p.Demand), mdDash(p.SustmannType),
+		mdEscape(mdDash(p.Activation)), mdEscape(rateCell(p.Rate, "–")), mdDash(p.Demand), mdDash(p.SustmannType),
 		f3(g.Beta), fixed(g.EV, p.EVDecimals), label, product, margin, mdEscape(mdDash(p.RegioConfidence)),
 		mdDash(p.Endo), yesNo(p.Allowed), strconv.Itoa(len(p.Warnings)),
+	}
+	if Extrapolated(p.Rate) {
+		m.extrapolated++
 	}
 	m.printf("| %s |\n", strings.Join(cells, " | "))
 	return m.err
 }
 
 func (m *markdownWriter) Close(s Summary) error {
+	if m.extrapolated > 0 {
+		m.printf("\n%s.\n", mdEscape(extrapolatedText(m.extrapolated)))
+	}
 	m.printf("\n%s.\n", summaryText(s))
 	if m.err == nil {
 		m.err = m.w.Flush()

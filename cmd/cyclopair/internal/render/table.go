@@ -19,9 +19,10 @@ type tableCol struct {
 }
 
 type tableWriter struct {
-	w    *bufio.Writer
-	cols []tableCol
-	err  error
+	w            *bufio.Writer
+	cols         []tableCol
+	err          error
+	extrapolated int // rows whose rate lies outside the model's applicability domain
 }
 
 func newTable(w io.Writer, rep Report, lay Layout) (*tableWriter, error) {
@@ -91,6 +92,9 @@ func (t *tableWriter) line(cells []string) {
 func (t *tableWriter) WriteRow(r Row) error {
 	p := r.Pair
 	g := Controlling(p)
+	if Extrapolated(p.Rate) {
+		t.extrapolated++
+	}
 	label, product, margin, conf := "-", "-", "-", orDash(p.RegioConfidence)
 	if o := best(p); o != nil {
 		label = orDash(o.Label)
@@ -119,6 +123,9 @@ func (t *tableWriter) WriteRow(r Row) error {
 }
 
 func (t *tableWriter) Close(s Summary) error {
+	if t.extrapolated > 0 {
+		t.printf("# %s\n", extrapolatedText(t.extrapolated))
+	}
 	t.printf("# %s\n", summaryText(s))
 	if t.err == nil {
 		t.err = t.w.Flush()
@@ -127,10 +134,26 @@ func (t *tableWriter) Close(s Summary) error {
 }
 
 // rateCell is the predicted log10 k relative to the rate model's reference reaction, two
-// decimals, or dash when no rate model was applied.
+// decimals, or dash when no rate model was applied; a value outside the model's
+// applicability domain carries ExtrapolatedMark.
 func rateCell(r *fmo.RateEstimate, dash string) string {
 	if r == nil {
 		return dash
 	}
+	if Extrapolated(r) {
+		return f2(r.Log10KRel) + ExtrapolatedMark
+	}
 	return f2(r.Log10KRel)
+}
+
+// ExtrapolatedMark follows a rate cell (table, Markdown) outside the rate model's
+// applicability domain; the footer says what it means.
+const ExtrapolatedMark = "*"
+
+// Extrapolated reports whether a rate lies outside the model's applicability domain.
+func Extrapolated(r *fmo.RateEstimate) bool { return r != nil && !r.InDomain }
+
+// extrapolatedText is the footer line of the table and Markdown formats.
+func extrapolatedText(n int) string {
+	return fmt.Sprintf("%s %d of the rates shown are extrapolated: outside the rate model's applicability domain (a negative or first-order frontier gap, a descriptor outside its fitted range, or a high leverage; the rate_domain_note CSV column and the JSON rate.domain_note say which); they still rank by the point estimate, with a widened interval", ExtrapolatedMark, n)
 }
