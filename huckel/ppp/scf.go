@@ -66,8 +66,8 @@ type Stats struct {
 }
 
 // Solver runs PPP-SCF calculations with workspaces that grow but never shrink: once warm,
-// the SCF loop allocates nothing (the 2D layout of Solve allocates per molecule; SolveAt
-// with caller-owned coordinates does not). The zero value is not usable: build one with
+// Solve (2D layout by a reused depict.Workspace, SCF) allocates nothing for an ordinary
+// substrate, and neither does SolveAt with caller-owned coordinates. The zero value is not usable: build one with
 // NewSolver. A Solver is not safe for concurrent use: give each goroutine its own.
 type Solver struct {
 	p *Params
@@ -84,7 +84,9 @@ type Solver struct {
 	fragOff, fragM, fragE, pkO []int // per fragment: first local index, size, electrons, packed offset
 	u, g, z                    []float64
 	xy                         []depict.Point
-	gam                        []float64 // n×n γ, permuted order
+	lay                        depict.Workspace // the 2D layout of Solve
+	atomXY                     []depict.Point   // layout positions per atom
+	gam                        []float64        // n×n γ, permuted order
 	// packed block-diagonal matrices (fragment blocks m×m, row-major, one after another)
 	hc, f, fx, pd, pNew, c, eps, occ, e []float64
 	fHist, eHist                        []float64                      // diisDepth packed matrices each
@@ -150,17 +152,18 @@ func (s *Solver) Solve(ps *huckel.PiSystem, into *huckel.Orbitals) error {
 		}
 		return fmt.Errorf("ppp: %w: the π system has no molecule to lay out (use SolveAt with coordinates)", ErrGeometry)
 	}
-	lay, err := depict.Layout(ps.Mol)
+	pos, err := s.lay.LayoutInto(ps.Mol, s.atomXY)
 	if err != nil {
 		return fmt.Errorf("ppp: %s: %w: %v", molName(ps), ErrGeometry, err)
 	}
+	s.atomXY = pos
 	n := len(ps.Centres)
 	if cap(s.xy) < n {
 		s.xy = make([]depict.Point, n)
 	}
 	s.xy = s.xy[:n]
 	for i, c := range ps.Centres {
-		s.xy[i] = lay.Pos[c.Atom]
+		s.xy[i] = pos[c.Atom]
 	}
 	scaleLayout(ps, s.xy, s.p.BondLength)
 	return s.SolveAt(ps, s.xy, into)
