@@ -588,11 +588,18 @@ func (s *Solver) iterate(ps *huckel.PiSystem) error {
 		s.occupy()
 		s.density(s.pNew)
 		dP = 0
-		for i := 0; i < pk; i++ {
-			if damped {
-				s.pNew[i] = (1-damping)*s.pNew[i] + damping*s.pd[i]
+		pNew, pd := s.pNew[:pk], s.pd[:pk]
+		if damped {
+			for i := range pNew {
+				pNew[i] = (1-damping)*pNew[i] + damping*pd[i]
 			}
-			dP = max(dP, math.Abs(s.pNew[i]-s.pd[i]))
+		}
+		for i, x := range pNew {
+			// max(dP, |ΔP_ij|) as the builtin gives it (a NaN sticks), without its
+			// signed-zero handling: both operands are ≥ +0 or NaN.
+			if d := math.Abs(x - pd[i]); d > dP || d != d {
+				dP = d
+			}
 		}
 		if math.IsNaN(dP) {
 			break
@@ -711,22 +718,7 @@ func (s *Solver) diagonalise(occVirt bool) error {
 		}
 		if occVirt && m <= pseudoMax {
 			if nocc := s.closedShell(f); nocc > 0 && nocc < m {
-				s.tmp = growF(s.tmp, m*m)
-				tmp := s.tmp[:m*m]
-				// tmp = F C, row-oriented so the inner loops run over contiguous memory.
-				clear(tmp)
-				for i := 0; i < m; i++ {
-					ti := tmp[i*m : i*m+m]
-					for k, fik := range fb[i*m : i*m+m] {
-						if fik == 0 {
-							continue
-						}
-						for j, ckj := range cb[k*m : k*m+m] {
-							ti[j] += fik * ckj
-						}
-					}
-				}
-				s.pseudoDiag(tmp, cb, eps, m, nocc) // sorts the levels too
+				s.pseudoDiag(fb, cb, eps, m, nocc) // sorts the levels too
 				continue
 			}
 		}
@@ -768,20 +760,34 @@ func (s *Solver) closedShell(f int) int {
 }
 
 // pseudoDiag is the SCF-cycle step for a closed-shell block: the pseudo-diagonalisation of
-// J. J. P. Stewart, P. Császár, P. Pulay (J. Comput. Chem. 1982, 3, 227). With fc = F·C,
+// J. J. P. Stewart, P. Császár, P. Pulay (J. Comput. Chem. 1982, 3, 227). With fc = F·C
+// (f the m×m block of F, c of C),
 // it forms the diagonal and the occupied–virtual block of Cᵀ F C and applies to the
 // columns of C, for every occupied i and virtual v, the 2×2 rotation that would zero
 // (CᵀFC)_iv. The density depends only on the occupied space, so this is all a Roothaan
 // step needs; the rotations keep C orthonormal, the neglected couplings between
 // rotations vanish as the SCF converges, and the final diagonalisation is a full one.
 // eps receives the diagonal (the level order for aufbau).
-func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
-	// Work on transposed copies, so that the columns of C and F·C are contiguous rows
-	// (the same arithmetic in the same order as on the columns).
+func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
+	// Work on transposed copies, so that the columns of C and F·C are contiguous rows.
 	s.ct, s.ft = growF(s.ct, m*m), growF(s.ft, m*m)
 	ct, ft := s.ct[:m*m], s.ft[:m*m]
 	transpose(ct, c, m)
-	transpose(ft, fc, m)
+	// (F·C)ᵀ directly: element (j, i) is row i of F dotted with row j of Cᵀ, summed over k
+	// ascending from +0 as the row-oriented product F·C summed it (that product skipped
+	// the zero F_ik; adding a ±0 term leaves a sum that starts at +0 bit-identical).
+	for i := 0; i < m; i++ {
+		fi := f[i*m : i*m+m]
+		for j := 0; j < m; j++ {
+			cj := ct[j*m : j*m+m]
+			cj = cj[:len(fi)]
+			v := 0.0
+			for k, x := range fi {
+				v += x * cj[k]
+			}
+			ft[j*m+i] = v
+		}
+	}
 	for k := 0; k < m; k++ {
 		ck, fk := ct[k*m:k*m+m], ft[k*m:k*m+m]
 		v := 0.0
