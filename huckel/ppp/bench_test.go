@@ -161,7 +161,8 @@ func BenchmarkPipelineCPU(b *testing.B) {
 }
 
 // BenchmarkSolve measures Solver.Solve alone (2D layout and SCF, reused Solver and
-// Orbitals) on the perceived π systems of benchMolecules, in solves/s.
+// Orbitals) on the perceived π systems of benchMolecules; cpu_ns/solve is the thread CPU
+// time per solve (see BenchmarkPipelineCPU).
 // Run: go test ./huckel/ppp -run XXX -bench Solve -cpu 1
 func BenchmarkSolve(b *testing.B) {
 	hp, err := presets.Params(presets.DefaultParams)
@@ -179,14 +180,18 @@ func BenchmarkSolve(b *testing.B) {
 			b.Fatal(err)
 		}
 		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) {
+			runtime.LockOSThread()
+			defer runtime.UnlockOSThread()
 			s := ppp.NewSolver(pp)
 			var o huckel.Orbitals
 			b.ReportAllocs()
+			t0 := threadCPU()
 			for b.Loop() {
 				if err := s.Solve(ps, &o); err != nil {
 					b.Fatal(err)
 				}
 			}
+			b.ReportMetric(float64(threadCPU()-t0)/float64(b.N), "cpu_ns/solve")
 		})
 	}
 }

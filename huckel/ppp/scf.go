@@ -493,6 +493,8 @@ func (s *Solver) fock(p, f []float64) float64 {
 			pi := p[po+i*m : po+i*m+m]
 			fi := f[po+i*m : po+i*m+m]
 			hi := s.hc[po+i*m : po+i*m+m]
+			gf := gi[o : o+m] // γ to the centres of this fragment
+			fi, hi, gf = fi[:len(pi)], hi[:len(pi)], gf[:len(pi)]
 			// Coulomb from every centre (all fragments).
 			v := 0.5 * pi[i] * gi[o+i]
 			for f2, m2 := range s.fragM {
@@ -505,11 +507,11 @@ func (s *Solver) fock(p, f []float64) float64 {
 				}
 			}
 			fi[i] += v
-			for j := 0; j < m; j++ {
+			for j, pij := range pi {
 				if j != i {
-					fi[j] -= 0.5 * pi[j] * gi[o+j]
+					fi[j] -= 0.5 * pij * gf[j]
 				}
-				en += pi[j] * (hi[j] + fi[j])
+				en += pij * (hi[j] + fi[j])
 			}
 		}
 	}
@@ -530,7 +532,9 @@ func (s *Solver) commutator(f, p, e []float64) float64 {
 				if fik == 0 {
 					continue
 				}
-				for j, pkj := range pb[k*m : k*m+m] {
+				pk := pb[k*m : k*m+m]
+				ei := ei[:len(pk)]
+				for j, pkj := range pk {
 					ei[j] += fik * pkj
 				}
 			}
@@ -621,6 +625,7 @@ func (s *Solver) extrapolate(pk int) {
 	el := s.eHist[last*pk : (last+1)*pk]
 	for j := 0; j < k; j++ {
 		ej := s.eHist[j*pk : (j+1)*pk]
+		ej = ej[:len(el)]
 		v := 0.0
 		for t, x := range el {
 			v += x * ej[t]
@@ -656,8 +661,9 @@ func (s *Solver) extrapolate(pk int) {
 	for i := 0; i < k; i++ {
 		ci := s.coefs[i]
 		fi := s.fHist[i*pk : (i+1)*pk]
-		for t := range s.f {
-			s.f[t] += ci * fi[t]
+		f := s.f[:len(fi)]
+		for t, x := range fi {
+			f[t] += ci * x
 		}
 	}
 }
@@ -800,6 +806,7 @@ func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
 		ci := ct[i*m : i*m+m]
 		for v := nocc; v < m; v++ {
 			fv := ft[v*m : v*m+m]
+			fv = fv[:len(ci)]
 			fiv := 0.0
 			for r, x := range ci {
 				fiv += x * fv[r]
@@ -815,6 +822,7 @@ func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
 			cs := 1 / math.Sqrt(t*t+1)
 			sn := t * cs
 			cv := ct[v*m : v*m+m]
+			cv = cv[:len(ci)]
 			for r, x := range ci {
 				y := cv[r]
 				ci[r] = cs*x - sn*y
