@@ -97,6 +97,9 @@ type Solver struct {
 	a, w, work, tmp, ct, ft             []float64
 	q                                   [1]float64
 	lv                                  []int
+	// cT[f]: fragment f's block of c holds Cᵀ (a row per level), as the pseudo-diagonalisation
+	// leaves it, so that SCF cycles need no transposes; a full diagonalisation leaves C.
+	cT []bool
 }
 
 // NewSolver returns a Solver for parameter set p (which must be complete: see Parse).
@@ -221,6 +224,13 @@ func molName(ps *huckel.PiSystem) string {
 func growF(b []float64, n int) []float64 {
 	if cap(b) < n {
 		return make([]float64, n, n+n/2)
+	}
+	return b[:n]
+}
+
+func growB(b []bool, n int) []bool {
+	if cap(b) < n {
+		return make([]bool, n, n+n/2)
 	}
 	return b[:n]
 }
@@ -352,6 +362,8 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 // with the Hückel density.
 func (s *Solver) start(ps *huckel.PiSystem) error {
 	clear(s.c)
+	s.cT = growB(s.cT, len(s.fragM))
+	clear(s.cT)
 	if s.denseStart(ps) {
 		s.occupy()
 		s.density(s.pd)
@@ -461,6 +473,27 @@ func (s *Solver) density(p []float64) {
 		blk := p[po : po+m*m]
 		clear(blk)
 		cb := s.c[po : po+m*m]
+		if s.cT[f] { // rows of cb are the levels: the same sums over contiguous rows
+			for k := 0; k < m; k++ {
+				nk := s.occ[o+k]
+				if nk == 0 {
+					continue
+				}
+				ck := cb[k*m : k*m+m]
+				for i, cik := range ck {
+					ci := nk * cik
+					if ci == 0 {
+						continue
+					}
+					row := blk[i*m : i*m+m]
+					row = row[:len(ck)]
+					for j, cjk := range ck {
+						row[j] += ci * cjk
+					}
+				}
+			}
+			continue
+		}
 		for k := 0; k < m; k++ {
 			nk := s.occ[o+k]
 			if nk == 0 {
@@ -724,10 +757,12 @@ func (s *Solver) diagonalise(occVirt bool) error {
 		}
 		if occVirt && m <= pseudoMax {
 			if nocc := s.closedShell(f); nocc > 0 && nocc < m {
-				s.pseudoDiag(fb, cb, eps, m, nocc) // sorts the levels too
+				s.pseudoDiag(fb, cb, eps, m, nocc, s.cT[f]) // sorts the levels too
+				s.cT[f] = true
 				continue
 			}
 		}
+		s.cT[f] = false
 		copy(cb, fb)
 		s.w = growF(s.w, m)
 		if symEig(cb, m, eps, s.w[:m]) {
@@ -773,12 +808,17 @@ func (s *Solver) closedShell(f int) int {
 // (CᵀFC)_iv. The density depends only on the occupied space, so this is all a Roothaan
 // step needs; the rotations keep C orthonormal, the neglected couplings between
 // rotations vanish as the SCF converges, and the final diagonalisation is a full one.
-// eps receives the diagonal (the level order for aufbau).
-func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
-	// Work on transposed copies, so that the columns of C and F·C are contiguous rows.
-	s.ct, s.ft = growF(s.ct, m*m), growF(s.ft, m*m)
-	ct, ft := s.ct[:m*m], s.ft[:m*m]
-	transpose(ct, c, m)
+// eps receives the diagonal (the level order for aufbau). The rotations work on Cᵀ, so
+// that the levels are contiguous rows, and leave Cᵀ in c; cT says c holds Cᵀ already.
+func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int, cT bool) {
+	s.ft = growF(s.ft, m*m)
+	ft := s.ft[:m*m]
+	ct := c
+	if !cT {
+		s.ct = growF(s.ct, m*m)
+		ct = s.ct[:m*m]
+		transpose(ct, c, m)
+	}
 	// (F·C)ᵀ directly: element (j, i) is row i of F dotted with row j of Cᵀ, summed over k
 	// ascending from +0 as the row-oriented product F·C summed it (that product skipped
 	// the zero F_ik; adding a ±0 term leaves a sum that starts at +0 bit-identical).
@@ -830,7 +870,7 @@ func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
 			}
 		}
 	}
-	// Sort the levels (rows of Cᵀ) ascending, then copy back.
+	// Sort the levels (rows of Cᵀ) ascending.
 	for i := 1; i < m; i++ {
 		for j := i; j > 0 && eps[j] < eps[j-1]; j-- {
 			eps[j], eps[j-1] = eps[j-1], eps[j]
@@ -840,7 +880,9 @@ func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int) {
 			}
 		}
 	}
-	transpose(c, ct, m)
+	if !cT {
+		copy(c, ct)
+	}
 }
 
 // transpose writes the transpose of the m×m matrix src into dst.
