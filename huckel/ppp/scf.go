@@ -656,7 +656,22 @@ func (s *Solver) extrapolate(pk int) {
 	b := s.bmat[:dim*dim]
 	last := (s.hist - 1) % diisDepth // the slot just written: update its row of ⟨e_i, e_j⟩
 	el := s.eHist[last*pk : (last+1)*pk]
-	for j := 0; j < k; j++ {
+	j := 0
+	// Two products at a time: two independent sums, each in its own order, overlap in the
+	// pipeline where one sum would wait on every addition.
+	for ; j+1 < k; j += 2 {
+		e0 := s.eHist[j*pk : (j+1)*pk]
+		e1 := s.eHist[(j+1)*pk : (j+2)*pk]
+		e0, e1 = e0[:len(el)], e1[:len(el)]
+		v0, v1 := 0.0, 0.0
+		for t, x := range el {
+			v0 += x * e0[t]
+			v1 += x * e1[t]
+		}
+		s.bdot[last*diisDepth+j], s.bdot[j*diisDepth+last] = v0, v0
+		s.bdot[last*diisDepth+j+1], s.bdot[(j+1)*diisDepth+last] = v1, v1
+	}
+	if j < k {
 		ej := s.eHist[j*pk : (j+1)*pk]
 		ej = ej[:len(el)]
 		v := 0.0
@@ -821,10 +836,24 @@ func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int, cT bool) {
 	}
 	// (F·C)ᵀ directly: element (j, i) is row i of F dotted with row j of Cᵀ, summed over k
 	// ascending from +0 as the row-oriented product F·C summed it (that product skipped
-	// the zero F_ik; adding a ±0 term leaves a sum that starts at +0 bit-identical).
+	// the zero F_ik; adding a ±0 term leaves a sum that starts at +0 bit-identical). Four
+	// elements at a time: four independent sums overlap in the pipeline.
 	for i := 0; i < m; i++ {
 		fi := f[i*m : i*m+m]
-		for j := 0; j < m; j++ {
+		j := 0
+		for ; j+3 < m; j += 4 {
+			c0, c1, c2, c3 := ct[j*m:j*m+m], ct[(j+1)*m:(j+1)*m+m], ct[(j+2)*m:(j+2)*m+m], ct[(j+3)*m:(j+3)*m+m]
+			c0, c1, c2, c3 = c0[:len(fi)], c1[:len(fi)], c2[:len(fi)], c3[:len(fi)]
+			v0, v1, v2, v3 := 0.0, 0.0, 0.0, 0.0
+			for k, x := range fi {
+				v0 += x * c0[k]
+				v1 += x * c1[k]
+				v2 += x * c2[k]
+				v3 += x * c3[k]
+			}
+			ft[j*m+i], ft[(j+1)*m+i], ft[(j+2)*m+i], ft[(j+3)*m+i] = v0, v1, v2, v3
+		}
+		for ; j < m; j++ {
 			cj := ct[j*m : j*m+m]
 			cj = cj[:len(fi)]
 			v := 0.0
