@@ -3,6 +3,7 @@ package fmo
 import (
 	"errors"
 	"fmt"
+	"sync"
 
 	"cyclopair/huckel/molecule"
 )
@@ -32,11 +33,15 @@ type side struct {
 // leaves free, preferring the bonds that were multiple in the input. Aromatic rings elsewhere
 // therefore keep a valid alternation (the benzo rings of an anthracene 9,10-adduct, the
 // N=N bridges of a 1,2,4,5-tetrazine bicyclic adduct before N₂ loss).
+//
+// The working arrays come from a pool (kekuleScratch); only the result is allocated.
 func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 	n := len(m.Atoms)
 	s := &side{orders: make([]int, len(m.Bonds)), charge: make([]int, n)}
-	valence := make([]int, n)
-	unsat := make([]bool, n)
+	ks := kekuleScratches.Get().(*kekuleScratch)
+	defer kekuleScratches.Put(ks)
+	valence := ks.ints(&ks.valence, n)
+	unsat := ks.bools(&ks.unsat, n)
 	for i := range m.Atoms {
 		valence[i] = m.Valence(i)
 		s.charge[i] = m.Atoms[i].Charge
@@ -47,7 +52,7 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 			unsat[b.A], unsat[b.B] = true, true
 		}
 	}
-	extraSigma := make([]int, n) // σ bonds to the other partner
+	extraSigma := ks.ints(&ks.extraSigma, n) // σ bonds to the other partner
 	t0, t1 := u.Termini()
 	extraSigma[t0]++
 	extraSigma[t1]++
@@ -66,8 +71,9 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 		valence[anion]++
 	}
 	// Conjugated region around the unit.
-	region := make([]bool, n)
-	queue := append([]int(nil), u.Atoms...)
+	region := ks.bools(&ks.region, n)
+	queue := append(ks.queue[:0], u.Atoms...)
+	defer func() { ks.queue = queue }()
 	for _, a := range u.Atoms {
 		region[a] = true
 	}
@@ -79,14 +85,15 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 			}
 		}
 	}
-	var free []int // bonds inside the region whose order is re-derived
+	free := ks.free[:0] // bonds inside the region whose order is re-derived
+	defer func() { ks.free = free }()
 	for bi, b := range m.Bonds {
 		if region[b.A] && region[b.B] {
 			s.orders[bi] = 1
 			free = append(free, bi)
 		}
 	}
-	need := make([]int, n)
+	need := ks.ints(&ks.need, n)
 	for i := range m.Atoms {
 		if !region[i] {
 			continue
@@ -100,7 +107,7 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 			return nil, fmt.Errorf("%w: atom %d would exceed its valence", errNoKekule, i+1)
 		}
 	}
-	k := kekulizer{m: m, need: need, orders: s.orders, orig: m.Bonds, free: free, isFree: make([]bool, len(m.Bonds))}
+	k := kekulizer{m: m, need: need, orders: s.orders, orig: m.Bonds, free: free, isFree: ks.bools(&ks.isFree, len(m.Bonds)), ks: ks}
 	for _, bi := range free {
 		k.isFree[bi] = true
 	}
@@ -116,8 +123,9 @@ func adductSide(m *molecule.Molecule, u Unit) (*side, error) {
 // (odd rings, radicals left behind) without any backtracking.
 func (k *kekulizer) feasible() bool {
 	n := len(k.need)
-	seen := make([]bool, n)
-	var stack []int
+	seen := k.ks.bools(&k.ks.seen, n)
+	stack := k.ks.stack[:0]
+	defer func() { k.ks.stack = stack }()
 	for s := 0; s < n; s++ {
 		if seen[s] || k.need[s] <= 0 {
 			continue
@@ -155,6 +163,35 @@ type kekulizer struct {
 	free   []int
 	isFree []bool
 	steps  int
+	ks     *kekuleScratch
+}
+
+// kekuleScratch holds adductSide's working arrays between calls.
+type kekuleScratch struct {
+	valence, extraSigma, need, queue, free, stack []int
+	unsat, region, isFree, seen                   []bool
+}
+
+var kekuleScratches = sync.Pool{New: func() any { return new(kekuleScratch) }}
+
+// ints returns (*b)[:n] zeroed, growing *b when needed.
+func (ks *kekuleScratch) ints(b *[]int, n int) []int {
+	if cap(*b) < n {
+		*b = make([]int, n)
+	}
+	*b = (*b)[:n]
+	clear(*b)
+	return *b
+}
+
+// bools returns (*b)[:n] all false, growing *b when needed.
+func (ks *kekuleScratch) bools(b *[]bool, n int) []bool {
+	if cap(*b) < n {
+		*b = make([]bool, n)
+	}
+	*b = (*b)[:n]
+	clear(*b)
+	return *b
 }
 
 // kekuleStepLimit bounds the search per unit; with most-constrained-first ordering real

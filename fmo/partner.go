@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"sync"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/molecule"
@@ -93,7 +94,15 @@ func (p *Partner) prepare(opts *Options) error {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	orb := new(huckel.Orbitals)
-	if err := opts.method().Solve(pi, orb); err != nil {
+	method := opts.NewMethod
+	if method == nil {
+		// The default Hückel solver keeps only workspace between solves (the orbitals go
+		// into orb): reuse one from a pool instead of growing a new one per partner.
+		s := huckelSolvers.Get().(*huckel.Solver)
+		defer huckelSolvers.Put(s)
+		method = func() huckel.Method { return s }
+	}
+	if err := method().Solve(pi, orb); err != nil {
 		return fmt.Errorf("%s: %w", p.Name, err)
 	}
 	p.Pi, p.Orb = pi, orb
@@ -118,8 +127,10 @@ func (p *Partner) prepare(opts *Options) error {
 	p.Units = units
 	p.sides = sides
 	p.data = make([]unitData, len(units))
+	w := locWorkPool.Get().(*locWork)
+	defer w.release()
 	for i, u := range units {
-		d, err := p.unitData(u, i)
+		d, err := p.unitData(u, i, w)
 		if err != nil {
 			return err
 		}
@@ -213,7 +224,63 @@ func unitFrontier(o *huckel.Orbitals, f, t0, t1 int) (homo, lumo int) {
 	return homo, lumo
 }
 
-func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
+// locWork is the scratch of the localisation energies of one partner's units: an
+// energy-only Hückel solver and a residue system reused for every unit (no allocation per
+// solve once warm), and the alkyl-free system of the conjugation loss with its π energy,
+// computed once per partner rather than once per unit.
+type locWork struct {
+	energy huckel.EnergySolver
+	rest   huckel.PiSystem
+	// base is the partner's π system without alkyl pseudo-atoms (nil until needed; it
+	// points at baseSys, reused between partners), baseE its π energy.
+	base      *huckel.PiSystem
+	baseSys   huckel.PiSystem
+	alkyl     []int
+	baseE     float64
+	baseAlkyl bool // the partner has alkyl pseudo-atoms (valid once base is set or hasBase)
+	hasBase   bool // base, baseE and baseAlkyl are set for the current partner
+	// rings caches benzenoidRings of the (at most two) π systems the units are localised
+	// on: the partner's and the alkyl-free one.
+	rings [2]struct {
+		pi    *huckel.PiSystem
+		rings [][6]int
+	}
+}
+
+// ringsOf returns benzenoidRings(pi), computed once per π system of the current partner.
+func (w *locWork) ringsOf(pi *huckel.PiSystem) [][6]int {
+	for i := range w.rings {
+		if w.rings[i].pi == pi {
+			return w.rings[i].rings
+		}
+	}
+	for i := range w.rings {
+		if w.rings[i].pi == nil {
+			w.rings[i].pi, w.rings[i].rings = pi, benzenoidRings(pi)
+			return w.rings[i].rings
+		}
+	}
+	return benzenoidRings(pi)
+}
+
+var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
+
+// huckelSolvers holds Hückel solver workspaces for prepare.
+var huckelSolvers = sync.Pool{New: func() any { return new(huckel.Solver) }}
+
+// release forgets the partner (its π system must not stay reachable from the pool) and
+// returns w to the pool.
+func (w *locWork) release() {
+	w.base, w.hasBase = nil, false
+	for i := range w.rings {
+		w.rings[i].pi, w.rings[i].rings = nil, nil
+	}
+	w.rest.Mol, w.rest.Params, w.rest.Warnings = nil, nil, nil
+	w.baseSys.Mol, w.baseSys.Params, w.baseSys.Warnings = nil, nil, nil
+	locWorkPool.Put(w)
+}
+
+func (p *Partner) unitData(u Unit, ui int, w *locWork) (unitData, error) {
 	var d unitData
 	for i := range d.slots {
 		d.slots[i] = -1
@@ -236,25 +303,26 @@ func (p *Partner) unitData(u Unit, ui int) (unitData, error) {
 			}
 		}
 	}
-	loc, err := p.localization(u, p.sides[ui])
+	loc, err := p.localization(u, p.sides[ui], w)
 	if err != nil {
 		return d, err
 	}
 	d.loc = loc
-	if d.conj, err = p.conjugationLoss(u, p.sides[ui]); err != nil {
+	if d.conj, err = p.conjugationLoss(u, p.sides[ui], w, loc); err != nil {
 		return d, err
 	}
 	tEnd := len(u.Atoms) - 1
 	d.fast = d.fastUnit(tEnd)
+	d.fast.all = new(unitLevels)
 	for li, lv := range p.Orb.Levels {
 		if lv.Fragment != frag {
 			continue
 		}
 		tl := termLevel{x: lv.X, c0: p.Orb.Coefficient(li, u.Atoms[0]), c1: p.Orb.Coefficient(li, u.Atoms[tEnd])}
 		if lv.Occupancy > 0 {
-			d.fast.occ = append(d.fast.occ, tl)
+			d.fast.all.occ = append(d.fast.all.occ, tl)
 		} else {
-			d.fast.emp = append(d.fast.emp, tl)
+			d.fast.all.emp = append(d.fast.all.emp, tl)
 		}
 	}
 	return d, nil
@@ -343,8 +411,8 @@ func (p *Partner) endoSubstituent(u Unit, x, y int) int {
 // two sp3 termini and on a geometry the 2D layout does not give, so no PPP form of the
 // localisation energy is offered. Under PPP both terms come from Hückel solves of the same
 // PiSystem, so L is the same number under either method.
-func (p *Partner) localization(u Unit, sd *side) (float64, error) {
-	return p.localizationOf(p.Pi, p.eHuckel, u, sd)
+func (p *Partner) localization(u Unit, sd *side, w *locWork) (float64, error) {
+	return p.localizationOf(p.Pi, p.eHuckel, u, sd, w)
 }
 
 // conjugationLoss is the localisation energy of the unit with the hyperconjugative alkyl
@@ -356,35 +424,47 @@ func (p *Partner) localization(u Unit, sd *side) (float64, error) {
 // stabilisation, which for hyperconjugation is small (M. J. S. Dewar, H. N. Schmeising,
 // Tetrahedron 1959, 5, 166; from memory): with them, cyclopentadiene's two C–CH2 links
 // would cost 0.51 |β| more than butadiene, more than furan's aromaticity (0.45 |β|).
-// Equal to localization when the partner has no alkyl pseudo-atom.
-func (p *Partner) conjugationLoss(u Unit, sd *side) (float64, error) {
-	var alkyl []int
-	for i, c := range p.Pi.Centres {
-		if c.Type == huckel.Alkyl {
-			alkyl = append(alkyl, i)
+// Equal to localization (loc, already computed for u) when the partner has no alkyl
+// pseudo-atom. The alkyl-free system and its π energy are computed at the first unit and
+// kept in w for the partner's other units.
+func (p *Partner) conjugationLoss(u Unit, sd *side, w *locWork, loc float64) (float64, error) {
+	if !w.hasBase {
+		w.alkyl = w.alkyl[:0]
+		for i, c := range p.Pi.Centres {
+			if c.Type == huckel.Alkyl {
+				w.alkyl = append(w.alkyl, i)
+			}
 		}
-	}
-	if len(alkyl) == 0 {
-		return p.localization(u, sd)
-	}
-	base := p.Pi.Without(alkyl...)
-	e := 0.0
-	if len(base.Centres) > 0 {
-		o, err := huckel.Solve(base)
-		if err != nil {
-			return 0, fmt.Errorf("%s: conjugation loss at %s: %w", p.Name, u.Describe(p.Mol), err)
+		w.baseAlkyl = len(w.alkyl) > 0
+		if w.baseAlkyl {
+			p.Pi.WithoutInto(&w.baseSys, w.alkyl...)
+			w.base = &w.baseSys
+			w.baseE = 0
+			if len(w.base.Centres) > 0 {
+				e, err := w.energy.PiEnergy(w.base)
+				if err != nil {
+					return 0, fmt.Errorf("%s: conjugation loss at %s: %w", p.Name, u.Describe(p.Mol), err)
+				}
+				w.baseE = e
+			}
 		}
-		e = o.PiEnergy
+		w.hasBase = true
 	}
-	return p.localizationOf(base, e, u, sd)
+	if !w.baseAlkyl {
+		return loc, nil
+	}
+	return p.localizationOf(w.base, w.baseE, u, sd, w)
 }
 
 // localizationOf is localization on the π system pi of π energy ePi (|β|).
-func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *side) (float64, error) {
+// The residue is built in w.rest and solved for its energy only (huckel.EnergySolver, equal
+// to huckel.Solve's PiEnergy bit for bit).
+func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *side, w *locWork) (float64, error) {
 	t0, t1 := u.Termini()
 	c0, c1 := pi.CentreOf(t0), pi.CentreOf(t1)
 	removed := pi.Centres[c0].Electrons + pi.Centres[c1].Electrons
-	rest := pi.Without(c0, c1)
+	rest := &w.rest
+	pi.WithoutInto(rest, c0, c1)
 	if extra := removed - 2; extra > 0 {
 		// give the surplus to the inner atom(s) next to the termini
 		for _, a := range u.Atoms[1 : len(u.Atoms)-1] {
@@ -398,14 +478,16 @@ func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *s
 			return 0, fmt.Errorf("%s: unit %s: cannot place %d π electrons of the termini", p.Name, u.Describe(p.Mol), extra)
 		}
 	}
-	localizeBenzenoid(pi, rest, sd, t0, t1)
+	if sd != nil {
+		localizeBenzenoid(pi, rest, sd, t0, t1, w.ringsOf(pi))
+	}
 	eRest := 0.0
 	if len(rest.Centres) > 0 {
-		o, err := huckel.Solve(rest)
+		e, err := w.energy.PiEnergy(rest)
 		if err != nil {
 			return 0, fmt.Errorf("%s: localisation at %s: %w", p.Name, u.Describe(p.Mol), err)
 		}
-		eRest = o.PiEnergy
+		eRest = e
 	}
 	// An activator bound at a terminus (the Lewis acid on a carbonyl O, the proton of an
 	// oxocarbenium ion) stays bound in the adduct, so the shift it gives that atom's Coulomb
@@ -438,21 +520,43 @@ func (p *Partner) localizationOf(pi *huckel.PiSystem, ePi float64, u Unit, sd *s
 // energy with the hyperconjugative alkyl pseudo-atoms left out (see conjugationLoss), |β|;
 // what the rate model (fmo/rate) reads as the diene's aromaticity and conjugation cost.
 func (p *Partner) UnitConjugationLoss(i int) float64 {
-	if i < 0 || i >= len(p.data) {
+	if i < 0 || i >= len(p.fast) {
 		return math.NaN()
 	}
-	return p.data[i].conj
+	return p.fast[i].conj // == data[i].conj (fastUnit), and kept by Compact
 }
 
 // UnitLocalization returns the localisation energy of reacting unit i (index into Units),
 // |β|: the π energy this partner alone loses when the unit's termini become sp3 (see
 // localization). An orientation's Localization is the sum of both partners' values.
 func (p *Partner) UnitLocalization(i int) float64 {
-	if i < 0 || i >= len(p.data) {
+	if i < 0 || i >= len(p.fast) {
 		return math.NaN()
 	}
-	return p.data[i].loc
+	return p.fast[i].loc // == data[i].loc (fastUnit), and kept by Compact
 }
+
+// Compact returns a copy of p that keeps only what screening reads: Name, SMILES, Role,
+// Activation, Units and the per-unit frontier data of QuickScore, Box, UnitHasFrontier,
+// UnitLocalization and UnitConjugationLoss (a few hundred bytes per unit, against tens of
+// kilobytes for the orbitals, π system and molecule of a full partner). Mol, Active, Pi,
+// Orb and Warnings are nil: Analyze, Effect, WithActivation, side channels and drawings
+// need the full partner, which a screen rebuilds for the rows it prints. allOrbitals keeps
+// every level's terminus coefficients as well, for Options.AllOrbitals scoring. p is not
+// changed.
+func (p *Partner) Compact(allOrbitals bool) *Partner {
+	q := &Partner{Name: p.Name, SMILES: p.SMILES, Role: p.Role, Activation: p.Activation, Units: p.Units,
+		fast: slices.Clone(p.fast), endo: slices.Clone(p.endo), eHuckel: p.eHuckel}
+	if !allOrbitals {
+		for i := range q.fast {
+			q.fast[i].all = nil
+		}
+	}
+	return q
+}
+
+// IsCompact reports whether p is a Compact copy (no molecule, π system or orbitals).
+func (p *Partner) IsCompact() bool { return p.Orb == nil }
 
 // NewPartner parses smi (errors from the SMILES reader are returned unchanged, so a caller
 // can report *smiles.Error positions) and builds the partner as NewPartnerFromMolecule does.
@@ -513,11 +617,12 @@ func (p *Partner) WithActivation(mode string, act *ActivateOptions, opts *Option
 // L. J. Schaad, J. Am. Chem. Soc. 1971, 93, 305). A benzo ring reacting as a 4π unit across
 // its para positions (benzene: two isolated C=C left) is unchanged. Fused rings (naphthalene,
 // anthracene) keep the plain Hückel residual: their remnant atoms stay in an intact ring.
-func localizeBenzenoid(pi, rest *huckel.PiSystem, sd *side, t0, t1 int) {
+//
+// rings are benzenoidRings(pi).
+func localizeBenzenoid(pi, rest *huckel.PiSystem, sd *side, t0, t1 int, rings [][6]int) {
 	if sd == nil {
 		return
 	}
-	rings := benzenoidRings(pi)
 	for ri, r := range rings {
 		if !slices.Contains(r[:], pi.CentreOf(t0)) && !slices.Contains(r[:], pi.CentreOf(t1)) {
 			continue

@@ -94,8 +94,15 @@ type fastUnit struct {
 	loc    float64    // localisation energy, |β|
 	conj   float64    // conjugation loss (loc without alkyl pseudo-atoms), |β|
 	ok     bool       // both frontier sets exist
-	// occ and emp are every occupied and empty level of the unit's π fragment with the
-	// coefficients at the two termini, for Options.AllOrbitals.
+	// all holds every occupied and empty level of the unit's π fragment with the
+	// coefficients at the two termini, for Options.AllOrbitals (behind a pointer: the
+	// screening loop and compact partners need only the fields above; nil in a Compact
+	// partner prepared without AllOrbitals).
+	all *unitLevels
+}
+
+// unitLevels are the levels of a unit's fragment for all-orbital scoring.
+type unitLevels struct {
 	occ, emp []termLevel
 }
 
@@ -153,8 +160,8 @@ func (k *kernel) scores(d, e *fastUnit) (sc0, sc1 float64) {
 	gI := e.hx - d.lx
 	var n0, n1, i0, i1 float64
 	if k.allOrbitals {
-		n0, n1, _ = k.sumAll(d.occ, e.emp)
-		i0, i1, _ = k.sumAll(e.occ, d.emp)
+		n0, n1, _ = k.sumAll(d.all.occ, e.all.emp)
+		i0, i1, _ = k.sumAll(e.all.occ, d.all.emp)
 	} else {
 		cN := 2 * d.h[2] * e.l[2]
 		cI := 2 * d.l[2] * e.h[2]
@@ -201,8 +208,8 @@ func (k *kernel) scorePair(d, e *fastUnit) (s0, s1 orientScore) {
 	fill(&s0, d.h[0]*e.l[0]+d.h[1]*e.l[1]+cN, d.l[0]*e.h[0]+d.l[1]*e.h[1]+cI, e.q0, e.q1)
 	fill(&s1, d.h[0]*e.l[1]+d.h[1]*e.l[0]+cN, d.l[0]*e.h[1]+d.l[1]*e.h[0]+cI, e.q1, e.q0)
 	if k.allOrbitals {
-		n0, n1, fn := k.sumAll(d.occ, e.emp)
-		i0, i1, fi := k.sumAll(e.occ, d.emp)
+		n0, n1, fn := k.sumAll(d.all.occ, e.all.emp)
+		i0, i1, fi := k.sumAll(e.all.occ, d.all.emp)
 		for _, x := range []struct {
 			r    *orientScore
 			n, i float64

@@ -562,8 +562,13 @@ func boundToLewisAcid(m *molecule.Molecule, i int, dropped []bool) bool {
 // allocations whatever the size: adjacency in CSR form, the BFS order that backs every
 // fragment slice, and the fragment list).
 func (ps *PiSystem) recomputeFragments() {
+	ps.recomputeFragmentsIn(make([]int, 2*len(ps.Centres)+1+2*len(ps.Bonds)))
+}
+
+// recomputeFragmentsIn is recomputeFragments with buf (length 2n+1+2·bonds, zeroed) as its
+// storage: the fragment slices point into it.
+func (ps *PiSystem) recomputeFragmentsIn(buf []int) {
 	n := len(ps.Centres)
-	buf := make([]int, 2*n+1+2*len(ps.Bonds))
 	start, order, adj := buf[:n+1], buf[n+1:2*n+1], buf[2*n+1:]
 	for _, b := range ps.Bonds {
 		start[b.I+1]++

@@ -146,6 +146,8 @@ type PiSystem struct {
 	// MaxCentres is the centre limit Solve enforces (0 means DefaultMaxCentres). Perceive
 	// sets it to the limit it was given, so a system it accepted is solved.
 	MaxCentres int
+
+	scratch []int // WithoutInto's index map and fragment storage, reused across calls
 }
 
 // Level is one molecular orbital, E = α + X·β (β < 0, so bonding levels have X > 0).

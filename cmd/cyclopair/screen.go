@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
 	"text/tabwriter"
 	"unicode/utf8"
 
@@ -223,6 +224,15 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	// From here on a signal stops the work and the rows already complete are flushed.
 	s.cancellable.Store(true)
 	defer s.cancellable.Store(false)
+	if cfg.RankBy != screen.RankNone && cfg.Top > 0 && len(lib.Dienes)+len(lib.Dienophiles) >= 10_000 && os.Getenv("GOGC") == "" {
+		// A large ranked top-K screen keeps compact partners (some 5 kB per molecule with
+		// its input row) and makes most of its garbage while preparing them: a GC target of
+		// 50 % instead of 100 % keeps the peak nearer the live heap. Measured on 20,000 ×
+		// 20,000 × 3 (top 50): max RSS 604 → 467 MB for ~6 % more CPU. Small screens keep
+		// the default (2,000 × 2,000: 13 % more CPU to save 14 MB). GOGC in the
+		// environment decides when set.
+		defer debug.SetGCPercent(debug.SetGCPercent(50))
+	}
 	prepProg := newProgress(s.rawErr, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
@@ -373,8 +383,9 @@ func screenDiagram(prep *screen.Prepared, rows []render.Row, cal huckel.Calibrat
 	}
 	var parts []*fmo.Partner
 	var pairs []*fmo.Pair
-	for a, v := range prep.Variants[e] {
-		if v == nil {
+	for a := range prep.Variants[e] {
+		v, err := prep.Variant(e, a) // the full partner (the screen may keep compact ones)
+		if v == nil || err != nil {
 			continue
 		}
 		pr, err := prep.AnalyzeAt(d, e, a)
@@ -387,7 +398,11 @@ func screenDiagram(prep *screen.Prepared, rows []render.Row, cal huckel.Calibrat
 	if len(parts) == 0 {
 		return nil, nil
 	}
-	dg := pairDiagram(prep.Dienes[d], parts, pairs, prep.Opts.Params.Name, cal)
+	diene, err := prep.Diene(d)
+	if err != nil {
+		return nil, err
+	}
+	dg := pairDiagram(diene, parts, pairs, prep.Opts.Params.Name, cal)
 	var buf bytes.Buffer
 	if err := render.WriteDiagram(&buf, dg); err != nil {
 		return nil, err

@@ -313,3 +313,51 @@ func BenchmarkBoundedTopK(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkPrepareMemory prepares a 1000 × 1000 synthetic library under three activations
+// (none, lewis, iminium) in full and in compact form (PrepareOptions.Compact, the form of
+// ranked screens with a top K) in the same run and reports the heap each Prepared keeps per
+// molecule ("full-B/molecule", "compact-B/molecule": live heap after a forced GC with the
+// Prepared reachable, minus the heap before, over the 2,000 input molecules; activated
+// variants are counted in their molecule's share), the parsed library's own share
+// ("library-B/molecule", the rows and their molecules, kept by both forms), and the CPU-time
+// ratio of the two preparations ("x-compact-cpu", full over compact).
+func BenchmarkPrepareMemory(b *testing.B) {
+	o := screenOpts(b)
+	var ms runtime.MemStats
+	heap := func() uint64 {
+		runtime.GC()
+		runtime.ReadMemStats(&ms)
+		return ms.HeapAlloc
+	}
+	h0 := heap()
+	lib := testsupport.SyntheticLibrary(1000, 1000, 21)
+	lib.Activations = []string{fmo.ActivateNone, fmo.ActivateLewis, fmo.ActivateIminium}
+	nMol := float64(len(lib.Dienes) + len(lib.Dienophiles))
+	libBytes := float64(heap()) - float64(h0)
+	var perFull, perCompact, cpuFull, cpuCompact float64
+	for b.Loop() {
+		for _, compact := range []bool{false, true} {
+			before := heap()
+			cpu0 := testsupport.CPUTime()
+			p, err := Prepare(context.Background(), lib, o, PrepareOptions{Workers: 1, Compact: compact})
+			cpu := (testsupport.CPUTime() - cpu0).Seconds()
+			if err != nil {
+				b.Fatal(err)
+			}
+			per := (float64(heap()) - float64(before)) / nMol
+			runtime.KeepAlive(p)
+			if compact {
+				perCompact, cpuCompact = per, cpuCompact+cpu
+			} else {
+				perFull, cpuFull = per, cpuFull+cpu
+			}
+		}
+	}
+	b.ReportMetric(perFull, "full-B/molecule")
+	b.ReportMetric(perCompact, "compact-B/molecule")
+	b.ReportMetric(libBytes/nMol, "library-B/molecule")
+	if cpuCompact > 0 {
+		b.ReportMetric(cpuFull/cpuCompact, "x-compact-cpu")
+	}
+}

@@ -442,13 +442,16 @@ func source(req Request) string {
 	return strings.Join(parts, ", ")
 }
 
-// Prepare builds every partner of the configured library (see Prepare); progress, if not
-// nil, is called as in PrepareOptions.
+// Prepare builds every partner of the configured library (see Prepare), in compact form for
+// a ranked screen with a top K; progress, if not nil, is called as in PrepareOptions.
 func (c *Config) Prepare(ctx context.Context, progress func(n int64)) (*Prepared, error) {
 	lib := *c.Library
 	lib.Activations = c.Activations
+	// A ranked screen with a top K prints few rows: keep the compact partners and rebuild
+	// the full ones of the printed rows (PrepareOptions.Compact).
+	compact := c.RankBy != RankNone && c.RankBy != "" && c.Top > 0
 	return Prepare(ctx, &lib, c.Options, PrepareOptions{Workers: c.Workers, Activate: c.Activate, Progress: progress,
-		RateModel: c.RateModel, TemperatureC: c.TemperatureC})
+		RateModel: c.RateModel, TemperatureC: c.TemperatureC, Compact: compact})
 }
 
 // ScreenOptions are the configured ranking, filters, shard and workers as options for
