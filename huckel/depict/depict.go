@@ -140,6 +140,28 @@ func Measure(m *molecule.Molecule, pos []Point) Quality {
 // Layout computes 2D coordinates for every atom of m. See the package documentation for the
 // contract.
 func Layout(m *molecule.Molecule) (*Coords, error) {
+	var w Workspace
+	pos, err := w.LayoutInto(m, nil)
+	if err != nil {
+		return nil, err
+	}
+	return &Coords{Pos: pos, Rings: w.Rings()}, nil
+}
+
+// Workspace lays out molecule after molecule with buffers that grow but are never freed, so
+// that, once warm, a layout of an ordinary substrate allocates nothing (bridged cages that
+// need the trial constructions of their ring system and clash relief by branch moves still
+// allocate). The coordinates are bit-identical to Layout's. The zero value is ready to use;
+// a Workspace is not safe for concurrent use.
+type Workspace struct {
+	g  graph
+	rs ringScratch
+	l  layouter
+}
+
+// LayoutInto computes the coordinates of Layout(m) into pos, grown (reallocated) to
+// len(m.Atoms) when too short, and returns it. Errors as Layout.
+func (w *Workspace) LayoutInto(m *molecule.Molecule, pos []Point) ([]Point, error) {
 	n := len(m.Atoms)
 	if n == 0 {
 		return nil, fmt.Errorf("depict: %w", ErrEmpty)
@@ -147,24 +169,32 @@ func Layout(m *molecule.Molecule) (*Coords, error) {
 	if n > MaxAtoms {
 		return nil, fmt.Errorf("depict: %d atoms (limit %d): %w", n, MaxAtoms, ErrTooLarge)
 	}
-	g := newGraph(m)
-	rings := g.sssr()
-	c := &Coords{Pos: make([]Point, n), Rings: rings}
-	l := &layouter{g: g, m: m, pos: c.Pos, placed: make([]bool, n), turn: make([]int8, n)}
+	if cap(pos) < n {
+		pos = make([]Point, n)
+	}
+	pos = pos[:n]
+	clear(pos)
+	g := &w.g
+	g.build(m)
+	rings := g.sssr(&w.rs)
+	l := &w.l
+	l.g, l.m, l.pos = g, m, pos
+	l.placed, l.turn = grow(l.placed, n), grow(l.turn, n)
+	clear(l.placed)
+	clear(l.turn)
 	l.rings = rings
 	l.buildSystems()
 	l.ez = l.ezRules()
-	comps := m.Components()
 	xOffset := 0.0
-	for ci, comp := range comps {
+	for ci, comp := range l.components() {
 		l.layoutComponent(comp)
 		l.applyEZ(comp)
 		l.relieve(comp)
-		normalizeOrientation(c.Pos, comp)
+		normalizeOrientation(pos, comp)
 		// place side by side, vertically centred on y = 0
 		minX, maxX, minY, maxY := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 		for _, i := range comp {
-			p := c.Pos[i]
+			p := pos[i]
 			minX, maxX = math.Min(minX, p.X), math.Max(maxX, p.X)
 			minY, maxY = math.Min(minY, p.Y), math.Max(maxY, p.Y)
 		}
@@ -174,14 +204,24 @@ func Layout(m *molecule.Molecule) (*Coords, error) {
 		}
 		dy := -(minY + maxY) / 2
 		for _, i := range comp {
-			c.Pos[i] = c.Pos[i].add(Point{dx, dy})
+			pos[i] = pos[i].add(Point{dx, dy})
 		}
 		xOffset = maxX + dx + fragmentGap
 	}
-	for i := range c.Pos { // canonical zero: avoid "-0.00" in printed output
-		c.Pos[i] = Point{clean(c.Pos[i].X), clean(c.Pos[i].Y)}
+	for i := range pos { // canonical zero: avoid "-0.00" in printed output
+		pos[i] = Point{clean(pos[i].X), clean(pos[i].Y)}
 	}
-	return c, nil
+	l.m, l.pos = nil, nil // keep no reference to the caller's data
+	return pos, nil
+}
+
+// Rings returns the smallest set of smallest rings of the last LayoutInto (as Coords.Rings),
+// in buffers of w that the next call overwrites.
+func (w *Workspace) Rings() [][]int {
+	if len(w.l.rings) == 0 {
+		return nil
+	}
+	return w.l.rings
 }
 
 // fragmentGap is the horizontal space between separate fragments, bond units.

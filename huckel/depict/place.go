@@ -8,7 +8,8 @@ import (
 	"cyclopair/huckel/molecule"
 )
 
-// layouter holds the state of one Layout call.
+// layouter holds the state of one layout. Its slices are buffers that the next layout with
+// the same Workspace reuses.
 type layouter struct {
 	g      *graph
 	m      *molecule.Molecule
@@ -17,27 +18,62 @@ type layouter struct {
 	turn   []int8 // zig-zag turn sign used when leaving an atom (+1 left, −1 right, 0 unset)
 	rings  [][]int
 
-	systems  []*ringSystem
-	systemOf []int // atom → ring system index, −1 for chain atoms
+	systems  []ringSystem
+	systemOf []int   // atom → ring system index, −1 for chain atoms
+	local    []Point // atom → block coordinates in its ring system's frame (ring atoms only)
 
 	ez []ezRule // double-bond geometries fixed by '/' and '\' marks
+
+	// scratch buffers
+	ringParent, owner, sysOfRoot []int
+	block                        blockPos
+	compFlat, compOff            []int
+	comps                        [][]int
+	queue, bfs, dist, mark       []int
+	stamp                        int
+	placedDirs, dirs, tryA, tryB []Point
+	todo, size, idx, ordered     []int
+	angs                         []float64
+	gaps                         []gapT
+	arc                          [2][]Point
+	inSide, inComp, seen         []bool
+	prev, pathBuf, side          []int
+	scratch, bestPos             []Point
+	tried                        map[[2]int]bool
 }
 
-// ringSystem is a set of rings connected through shared atoms, laid out as one rigid block.
+// ringSystem is a set of rings connected through shared atoms, laid out as one rigid block
+// (its block coordinates are in layouter.local).
 type ringSystem struct {
-	atoms []int         // sorted
-	rings [][]int       // SSSR rings of the system
-	local map[int]Point // block coordinates (only looked up, never iterated)
+	atoms []int   // sorted
+	rings [][]int // SSSR rings of the system
 }
+
+// blockPos holds trial block coordinates of a ring system by atom index; ok marks the atoms
+// placed so far.
+type blockPos struct {
+	p  []Point
+	ok []bool
+}
+
+func newBlockPos(n int) blockPos { return blockPos{p: make([]Point, n), ok: make([]bool, n)} }
+
+func (b blockPos) has(a int) bool     { return b.ok[a] }
+func (b blockPos) set(a int, p Point) { b.p[a], b.ok[a] = p, true }
+
+// gapT is a free angular gap around an atom: start angle and size (radians).
+type gapT struct{ start, size float64 }
 
 func (l *layouter) buildSystems() {
 	n := l.g.n
-	l.systemOf = make([]int, n)
+	l.systemOf = grow(l.systemOf, n)
 	for i := range l.systemOf {
 		l.systemOf[i] = -1
 	}
+	l.local = grow(l.local, n)
 	// union-find over rings sharing an atom
-	parent := make([]int, len(l.rings))
+	l.ringParent = grow(l.ringParent, len(l.rings))
+	parent := l.ringParent
 	for i := range parent {
 		parent[i] = i
 	}
@@ -48,7 +84,8 @@ func (l *layouter) buildSystems() {
 		}
 		return x
 	}
-	owner := make([]int, n)
+	l.owner = grow(l.owner, n)
+	owner := l.owner
 	for i := range owner {
 		owner[i] = -1
 	}
@@ -68,16 +105,25 @@ func (l *layouter) buildSystems() {
 			}
 		}
 	}
-	sysIndex := map[int]int{} // root ring → system; looked up only
+	l.sysOfRoot = grow(l.sysOfRoot, len(l.rings)) // root ring → system
+	for i := range l.sysOfRoot {
+		l.sysOfRoot[i] = -1
+	}
+	l.systems = l.systems[:0]
 	for ri := range l.rings {
 		root := find(ri)
-		si, ok := sysIndex[root]
-		if !ok {
+		si := l.sysOfRoot[root]
+		if si < 0 {
 			si = len(l.systems)
-			sysIndex[root] = si
-			l.systems = append(l.systems, &ringSystem{})
+			l.sysOfRoot[root] = si
+			if len(l.systems) < cap(l.systems) { // reuse an old system's slices
+				l.systems = l.systems[:si+1]
+				l.systems[si].atoms, l.systems[si].rings = l.systems[si].atoms[:0], l.systems[si].rings[:0]
+			} else {
+				l.systems = append(l.systems, ringSystem{})
+			}
 		}
-		s := l.systems[si]
+		s := &l.systems[si]
 		s.rings = append(s.rings, l.rings[ri])
 		for _, a := range l.rings[ri] {
 			if l.systemOf[a] < 0 {
@@ -86,10 +132,49 @@ func (l *layouter) buildSystems() {
 			}
 		}
 	}
-	for _, s := range l.systems {
+	for i := range l.systems {
+		s := &l.systems[i]
 		slices.Sort(s.atoms)
-		s.local = l.layoutSystem(s)
+		l.layoutSystem(s)
 	}
+}
+
+// components returns the connected components of the molecule, each sorted, in the order
+// of their lowest atom (as molecule.Components), in buffers of l.
+func (l *layouter) components() [][]int {
+	n := l.g.n
+	l.seen = grow(l.seen, n)
+	seen := l.seen
+	clear(seen)
+	flat, off := l.compFlat[:0], l.compOff[:0]
+	for s := 0; s < n; s++ {
+		if seen[s] {
+			continue
+		}
+		o := len(flat)
+		off = append(off, o)
+		flat = append(flat, s)
+		seen[s] = true
+		for q := o; q < len(flat); q++ {
+			for _, w := range l.g.adj[flat[q]] {
+				if !seen[w] {
+					seen[w] = true
+					flat = append(flat, w)
+				}
+			}
+		}
+		slices.Sort(flat[o:])
+	}
+	l.compFlat, l.compOff = flat, off
+	l.comps = l.comps[:0]
+	for k, o := range off {
+		e := len(flat)
+		if k+1 < len(off) {
+			e = off[k+1]
+		}
+		l.comps = append(l.comps, flat[o:e:e])
+	}
+	return l.comps
 }
 
 // layoutComponent places every atom of one connected component.
@@ -103,11 +188,11 @@ func (l *layouter) layoutComponent(comp []int) {
 			root = a
 		}
 	}
-	var queue []int
+	queue := l.queue[:0]
 	if root >= 0 {
-		s := l.systems[l.systemOf[root]]
+		s := &l.systems[l.systemOf[root]]
 		for _, a := range s.atoms {
-			l.pos[a] = s.local[a]
+			l.pos[a] = l.local[a]
 			l.placed[a] = true
 			queue = append(queue, a)
 		}
@@ -118,32 +203,36 @@ func (l *layouter) layoutComponent(comp []int) {
 		l.turn[start] = -1
 		queue = append(queue, start)
 	}
-	for len(queue) > 0 {
-		v := queue[0]
-		queue = queue[1:]
-		queue = append(queue, l.expand(v)...)
+	for h := 0; h < len(queue); h++ {
+		queue = l.expand(queue[h], queue)
 	}
+	l.queue = queue
 }
 
 // chainEnd returns one end of a longest shortest path in a ring-free component (two BFS).
 func (l *layouter) chainEnd(comp []int) int {
+	l.dist = grow(l.dist, l.g.n)
+	dist := l.dist // −1: not reached
 	far := func(s int) int {
-		dist := map[int]int{s: 0} // looked up only
-		q := []int{s}
+		for i := range dist {
+			dist[i] = -1
+		}
+		dist[s] = 0
+		q := append(l.bfs[:0], s)
 		last := s
-		for len(q) > 0 {
-			v := q[0]
-			q = q[1:]
+		for h := 0; h < len(q); h++ {
+			v := q[h]
 			if dist[v] > dist[last] || (dist[v] == dist[last] && v < last) {
 				last = v
 			}
 			for _, w := range l.g.adj[v] {
-				if _, ok := dist[w]; !ok {
+				if dist[w] < 0 {
 					dist[w] = dist[v] + 1
 					q = append(q, w)
 				}
 			}
 		}
+		l.bfs = q
 		return last
 	}
 	a := far(comp[0])
@@ -166,10 +255,11 @@ func (l *layouter) isLinear(v int) bool {
 	return doubles >= 2 && len(l.g.adj[v]) == 2
 }
 
-// expand places the unplaced neighbours of placed atom v and returns the atoms newly placed.
-func (l *layouter) expand(v int) []int {
-	var placedDirs []Point
-	var todo []int
+// expand places the unplaced neighbours of placed atom v and appends the atoms newly placed
+// to queue.
+func (l *layouter) expand(v int, queue []int) []int {
+	placedDirs := l.placedDirs[:0]
+	todo := l.todo[:0]
 	for _, w := range l.g.adj[v] {
 		if l.placed[w] {
 			placedDirs = append(placedDirs, l.pos[w].sub(l.pos[v]).unit())
@@ -177,43 +267,47 @@ func (l *layouter) expand(v int) []int {
 			todo = append(todo, w)
 		}
 	}
+	l.placedDirs, l.todo = placedDirs, todo
 	if len(todo) == 0 {
-		return nil
+		return queue
 	}
 	// heaviest branch first: it takes the zig-zag continuation
-	size := make([]int, len(todo))
+	l.size = grow(l.size, len(todo))
+	size := l.size
 	for i, w := range todo {
 		size[i] = l.branchSize(v, w)
 	}
-	idx := make([]int, len(todo))
+	l.idx = grow(l.idx, len(todo))
+	idx := l.idx
 	for i := range idx {
 		idx[i] = i
 	}
 	slices.SortStableFunc(idx, func(a, b int) int { return size[b] - size[a] })
-	ordered := make([]int, len(todo))
+	l.ordered = grow(l.ordered, len(todo))
+	ordered := l.ordered
 	for i, k := range idx {
 		ordered[i] = todo[k]
 	}
-	todo = ordered
 
-	dirs := l.directions(v, placedDirs, len(todo))
-	var out []int
-	for i, w := range todo {
-		d := dirs[i]
-		out = append(out, l.attach(v, w, d)...)
+	dirs := l.directions(v, placedDirs, len(ordered))
+	for i, w := range ordered {
+		queue = l.attach(v, w, dirs[i], queue)
 	}
-	return out
+	return queue
 }
 
 // directions chooses len = k unit vectors for new bonds from v, given the unit vectors to the
 // neighbours already placed.
+// The result is a buffer of l, valid until the next call.
 func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
-	out := make([]Point, 0, k)
+	out := l.dirs[:0]
+	defer func() { l.dirs = out[:0] }()
 	switch len(placedDirs) {
 	case 0:
 		base := Point{1, 0}.rotDeg(30)
 		if k == 1 {
-			return []Point{base}
+			out = append(out, base)
+			return out
 		}
 		for i := 0; i < k; i++ {
 			out = append(out, base.rotDeg(360*float64(i)/float64(k)))
@@ -223,7 +317,8 @@ func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
 		in := placedDirs[0].scale(-1) // direction of travel into v
 		if k == 1 {
 			if l.isLinear(v) {
-				return []Point{in}
+				out = append(out, in)
+				return out
 			}
 			p := l.parentOf(v)
 			s := int8(1)
@@ -236,7 +331,8 @@ func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
 				cand, s = alt, -s
 			}
 			l.turn[v] = s
-			return []Point{cand}
+			out = append(out, cand)
+			return out
 		}
 		for i := 0; i < k; i++ {
 			ang := -180 + 360*float64(i+1)/float64(k+1)
@@ -245,15 +341,15 @@ func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
 		return out
 	}
 	// two or more placed: spread the new bonds evenly in the widest free angular gap
-	angs := make([]float64, len(placedDirs))
+	l.angs = grow(l.angs, len(placedDirs))
+	angs := l.angs
 	for i, d := range placedDirs {
 		angs[i] = math.Atan2(d.Y, d.X)
 	}
 	slices.Sort(angs)
 	// Among the widest gaps (within 10°: the three equal gaps at a ring-fusion atom) take the
 	// one whose middle is least crowded, so a substituent never points into a ring.
-	type gapT struct{ start, size float64 }
-	var gaps []gapT
+	gaps := l.gaps[:0]
 	widest := 0.0
 	for i := range angs {
 		a, b := angs[i], angs[(i+1)%len(angs)]
@@ -264,6 +360,7 @@ func (l *layouter) directions(v int, placedDirs []Point, k int) []Point {
 		gaps = append(gaps, gapT{a, gap})
 		widest = math.Max(widest, gap)
 	}
+	l.gaps = gaps
 	bestGap, bestStart, bestCrowd := -1.0, 0.0, math.Inf(1)
 	for _, g := range gaps {
 		if g.size < widest-10*math.Pi/180 {
@@ -308,38 +405,48 @@ func (l *layouter) crowding(p Point) float64 {
 
 // branchSize counts the atoms reachable from w without passing through v.
 func (l *layouter) branchSize(v, w int) int {
-	seen := map[int]bool{v: true, w: true} // looked up only
-	q := []int{w}
+	st := l.nextStamp() // l.mark[x] == st: x seen
+	l.mark[v], l.mark[w] = st, st
+	q := append(l.bfs[:0], w)
 	n := 0
-	for len(q) > 0 {
-		x := q[0]
-		q = q[1:]
+	for h := 0; h < len(q); h++ {
+		x := q[h]
 		n++
 		for _, y := range l.g.adj[x] {
-			if !seen[y] && !l.placed[y] {
-				seen[y] = true
+			if l.mark[y] != st && !l.placed[y] {
+				l.mark[y] = st
 				q = append(q, y)
 			}
 		}
 	}
+	l.bfs = q
 	return n
 }
 
-// attach places w bonded to v in direction d; a ring atom brings its whole ring system.
-func (l *layouter) attach(v, w int, d Point) []int {
+// nextStamp returns a fresh mark for l.mark (sized to the graph): an atom x is marked when
+// l.mark[x] equals it.
+func (l *layouter) nextStamp() int {
+	l.mark = grow(l.mark, l.g.n)
+	l.stamp++
+	return l.stamp
+}
+
+// attach places w bonded to v in direction d (a ring atom brings its whole ring system) and
+// appends the atoms placed to queue.
+func (l *layouter) attach(v, w int, d Point, queue []int) []int {
 	si := l.systemOf[w]
 	if si < 0 {
 		l.pos[w] = l.pos[v].add(d)
 		l.placed[w] = true
-		return []int{w}
+		return append(queue, w)
 	}
-	s := l.systems[si]
+	s := &l.systems[si]
 	// In block coordinates, w's outward direction points away from its ring neighbours; turn
 	// the block so that direction points back at v.
 	var in Point
 	for _, x := range l.g.adj[w] {
 		if l.systemOf[x] == si {
-			in = in.add(s.local[x].sub(s.local[w]).unit())
+			in = in.add(l.local[x].sub(l.local[w]).unit())
 		}
 	}
 	out := in.scale(-1).unit()
@@ -350,24 +457,26 @@ func (l *layouter) attach(v, w int, d Point) []int {
 	ang := math.Atan2(target.Y, target.X) - math.Atan2(out.Y, out.X)
 	co, sn := math.Cos(ang), math.Sin(ang)
 	anchor := l.pos[v].add(d)
-	try := func(mirror bool) map[int]Point {
-		t := make(map[int]Point, len(s.atoms))
-		for _, a := range s.atoms {
-			p := s.local[a].sub(s.local[w]).rot(co, sn) // w at origin, outward along target
+	// t[i] is the position of s.atoms[i]
+	try := func(t []Point, mirror bool) []Point {
+		t = grow(t, len(s.atoms))
+		for i, a := range s.atoms {
+			p := l.local[a].sub(l.local[w]).rot(co, sn) // w at origin, outward along target
 			if mirror {                                 // reflect across the axis through w along d
 				u := d
 				proj := u.scale(p.dot(u))
 				p = proj.scale(2).sub(p)
 			}
-			t[a] = anchor.add(p)
+			t[i] = anchor.add(p)
 		}
 		return t
 	}
-	a0, a1 := try(false), try(true)
-	score := func(t map[int]Point) float64 {
+	l.tryA, l.tryB = try(l.tryA, false), try(l.tryB, true)
+	a0, a1 := l.tryA, l.tryB
+	score := func(t []Point) float64 {
 		sc := 0.0
-		for _, a := range s.atoms {
-			sc += l.crowding(t[a])
+		for i := range s.atoms {
+			sc += l.crowding(t[i])
 		}
 		return sc
 	}
@@ -375,20 +484,21 @@ func (l *layouter) attach(v, w int, d Point) []int {
 	if score(a1) < score(a0)-1e-9 {
 		chosen = a1
 	}
-	placedNow := []int{w}
-	for _, a := range s.atoms {
-		l.pos[a] = chosen[a]
+	queue = append(queue, w)
+	for i, a := range s.atoms {
+		l.pos[a] = chosen[i]
 		l.placed[a] = true
 		if a != w {
-			placedNow = append(placedNow, a)
+			queue = append(queue, a)
 		}
 	}
-	return placedNow
+	return queue
 }
 
 // layoutSystem lays out one ring system in its own frame. For bridged systems several ring
-// orders are tried and the one with the fewest clashes and bond distortions is kept.
-func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
+// orders are tried and the one with the fewest clashes and bond distortions is kept. The
+// result goes to l.local.
+func (l *layouter) layoutSystem(s *ringSystem) {
 	rings := s.rings
 	bridged := false
 	for i := range rings {
@@ -399,9 +509,12 @@ func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
 		}
 	}
 	if !bridged {
-		pos, sc := l.placeRings(s, rings, 0)
-		if sc < 1e-9 {
-			return pos
+		if len(l.block.p) < l.g.n {
+			l.block = newBlockPos(l.g.n)
+		}
+		if sc := l.placeRings(s, rings, 0, l.block); sc < 1e-9 {
+			l.setLocal(s, l.block)
+			return
 		}
 		// fused polygons that collide (a cage such as cubane, or a helicene) go on below
 	}
@@ -417,19 +530,21 @@ func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
 			}
 		}
 	}
-	var bestPos map[int]Point
+	var bestPos blockPos
 	bestScore := math.Inf(1)
 	limit := min(len(all), 16)
-	var starts []map[int]Point
+	var starts []blockPos
 	for start := 0; start < limit; start++ {
-		pos, sc := l.placeRings(s, all, start)
+		pos := newBlockPos(l.g.n)
+		sc := l.placeRings(s, all, start, pos)
 		starts = append(starts, pos)
 		if sc < bestScore-1e-9 {
 			bestPos, bestScore = pos, sc
 		}
 	}
 	if bestScore < 1e-9 || len(s.atoms) > maxRelaxAtoms {
-		return bestPos
+		l.setLocal(s, bestPos)
+		return
 	}
 	// No construction drew the cage cleanly (bicyclo[2.2.2], adamantane, cubane): relax each
 	// start with springs and keep the best result.
@@ -445,9 +560,9 @@ func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
 		rng := rand.New(rand.NewPCG(uint64(len(s.atoms)), 0x5eed))
 		side := math.Sqrt(float64(len(s.atoms))) * 1.2
 		for try := 0; try < scatterTries && bestScore >= 1; try++ {
-			pos := make(map[int]Point, len(s.atoms))
+			pos := newBlockPos(l.g.n)
 			for _, a := range s.atoms {
-				pos[a] = Point{rng.Float64() * side, rng.Float64() * side}
+				pos.set(a, Point{rng.Float64() * side, rng.Float64() * side})
 			}
 			// a short, stiff repulsion: bonds keep their length, only near contacts are
 			// pushed apart (a crossed perspective drawing is acceptable)
@@ -457,7 +572,19 @@ func (l *layouter) layoutSystem(s *ringSystem) map[int]Point {
 			}
 		}
 	}
-	return bestPos
+	l.setLocal(s, bestPos)
+}
+
+// setLocal copies the block coordinates of s's atoms from pos to l.local (the origin for
+// every atom when no layout scored, as a lookup in an empty map gave).
+func (l *layouter) setLocal(s *ringSystem, pos blockPos) {
+	for _, a := range s.atoms {
+		if pos.p == nil {
+			l.local[a] = Point{}
+			continue
+		}
+		l.local[a] = pos.p[a]
+	}
 }
 
 // Scattered restarts for small crowded cages: at most scatterTries starts, only for ring
@@ -474,13 +601,13 @@ const maxRelaxAtoms = 40
 // unit-length bond springs and a repulsion of strength push between non-bonded atoms closer
 // than reach (bond lengths). Start points
 // that coincide are pulled apart by fixed, index-dependent offsets (no randomness).
-func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push float64) {
+func (l *layouter) relaxBlock(s *ringSystem, pos blockPos, reach, push float64) {
 	at := s.atoms
 	nr := len(at)
 	sys := l.systemOf[at[0]]
 	p := make([]Point, nr)
 	for i, a := range at {
-		p[i] = pos[a]
+		p[i] = pos.p[a]
 	}
 	for i := range p {
 		for j := 0; j < i; j++ {
@@ -497,7 +624,7 @@ func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push floa
 		k := 0
 		for _, w := range l.g.adj[a] {
 			if l.systemOf[w] == sys {
-				in = in.add(pos[w].sub(pos[a]).unit())
+				in = in.add(pos.p[w].sub(pos.p[a]).unit())
 			} else {
 				k++
 			}
@@ -546,7 +673,7 @@ func (l *layouter) relaxBlock(s *ringSystem, pos map[int]Point, reach, push floa
 		}
 	}
 	for i, a := range at {
-		pos[a] = p[i]
+		pos.set(a, p[i])
 	}
 }
 
@@ -627,19 +754,21 @@ func (l *layouter) envelope(a, b []int) []int {
 }
 
 // placeRings places the rings of a system starting from rings[start] and returns the block
-// coordinates and a badness score (clashes and bond-length errors).
-func (l *layouter) placeRings(s *ringSystem, rings [][]int, start int) (map[int]Point, float64) {
-	pos := make(map[int]Point, len(s.atoms)) // looked up only; iteration below is over s.atoms
-	has := func(a int) bool { _, ok := pos[a]; return ok }
+// coordinates into pos (cleared first) and a badness score (clashes and bond-length errors).
+func (l *layouter) placeRings(s *ringSystem, rings [][]int, start int, pos blockPos) float64 {
+	clear(pos.ok)
+	has := pos.has
 	// first ring: a regular polygon with a flat bottom edge
 	r0 := rings[start]
 	n := len(r0)
 	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
 	for k, a := range r0 {
 		ang := -math.Pi/2 - math.Pi/float64(n) + 2*math.Pi*float64(k)/float64(n)
-		pos[a] = Point{rad * math.Cos(ang), rad * math.Sin(ang)}
+		pos.set(a, Point{rad * math.Cos(ang), rad * math.Sin(ang)})
 	}
-	done := make([]bool, len(rings))
+	l.seen = grow(l.seen, len(rings))
+	done := l.seen
+	clear(done)
 	done[start] = true
 	for {
 		// next ring: most placed atoms first (fused and bridged before spiro), then size, index
@@ -682,65 +811,67 @@ func (l *layouter) placeRings(s *ringSystem, rings [][]int, start int) (map[int]
 			if !has(r[k]) || has(r[(k+1)%nr]) {
 				continue
 			}
-			var run []int
+			run := l.pathBuf[:0]
 			j := (k + 1) % nr
 			for !has(r[j]) {
 				run = append(run, r[j])
 				j = (j + 1) % nr
 			}
-			placeArc(pos, s.atoms, r[k], r[j], run)
+			l.pathBuf = run
+			l.placeArc(pos, s.atoms, r[k], r[j], run)
 		}
 	}
 	// atoms of the system not reached (cannot happen for a connected system) get a fallback
 	for _, a := range s.atoms {
 		if !has(a) {
-			pos[a] = Point{float64(a), 3}
+			pos.set(a, Point{float64(a), 3})
 		}
 	}
-	return pos, l.blockScore(s, pos)
+	return l.blockScore(s, pos)
 }
 
 // placeSpiro places ring r, of which exactly one atom is placed, as a regular polygon on the
 // far side of that atom.
-func (l *layouter) placeSpiro(pos map[int]Point, r []int) {
+func (l *layouter) placeSpiro(pos blockPos, r []int) {
 	k0 := 0
 	for k, a := range r {
-		if _, ok := pos[a]; ok {
+		if pos.has(a) {
 			k0 = k
 		}
 	}
 	a := r[k0]
 	var in Point
 	for _, w := range l.g.adj[a] {
-		if p, ok := pos[w]; ok {
-			in = in.add(p.sub(pos[a]).unit())
+		if pos.has(w) {
+			in = in.add(pos.p[w].sub(pos.p[a]).unit())
 		}
 	}
 	out := in.scale(-1).unit()
 	n := len(r)
 	rad := 1 / (2 * math.Sin(math.Pi/float64(n)))
-	c := pos[a].add(out.scale(rad))
+	c := pos.p[a].add(out.scale(rad))
 	base := math.Atan2(-out.Y, -out.X) // angle of a seen from the centre
 	for i := 1; i < n; i++ {
 		ang := base + 2*math.Pi*float64(i)/float64(n)
-		pos[r[(k0+i)%n]] = c.add(Point{rad * math.Cos(ang), rad * math.Sin(ang)})
+		pos.set(r[(k0+i)%n], c.add(Point{rad * math.Cos(ang), rad * math.Sin(ang)}))
 	}
 }
 
 // placeArc puts the atoms of run (bonded in sequence a–run[0]–…–run[m−1]–b) on a circular arc
 // through a and b with every bond of length 1, bulging to the side with fewer clashes. When a
 // and b are too far apart for the run, the atoms go on the straight line (bonds stretched).
-func placeArc(pos map[int]Point, atoms []int, a, b int, run []int) {
-	pa, pb := pos[a], pos[b]
+func (l *layouter) placeArc(pos blockPos, atoms []int, a, b int, run []int) {
+	pa, pb := pos.p[a], pos.p[b]
 	m := len(run)
 	segs := float64(m + 1)
 	d := pa.dist(pb)
 	u := pb.sub(pa).unit()
 	nrm := Point{-u.Y, u.X}
 	mid := pa.add(pb).scale(0.5)
-	var sides [2][]Point
-	for si, sgn := range []float64{1, -1} {
-		pts := make([]Point, m)
+	sides := &l.arc
+	for si, sgn := range [2]float64{1, -1} {
+		l.arc[si] = grow(l.arc[si], m)
+		pts := l.arc[si]
 		if d >= segs-1e-9 || d < 1e-9 {
 			for i := range pts {
 				t := float64(i+1) / segs
@@ -786,8 +917,8 @@ func placeArc(pos map[int]Point, atoms []int, a, b int, run []int) {
 		s := 0.0
 		for _, p := range pts {
 			for _, x := range atoms {
-				if q, ok := pos[x]; ok {
-					if dd := p.dist(q); dd < 1.2 {
+				if pos.has(x) {
+					if dd := p.dist(pos.p[x]); dd < 1.2 {
 						s += (1.2 - dd) * (1.2 - dd)
 					}
 				}
@@ -804,8 +935,8 @@ func placeArc(pos map[int]Point, atoms []int, a, b int, run []int) {
 		var c Point
 		k := 0
 		for _, x := range atoms {
-			if q, ok := pos[x]; ok {
-				c = c.add(q)
+			if pos.has(x) {
+				c = c.add(pos.p[x])
 				k++
 			}
 		}
@@ -815,7 +946,7 @@ func placeArc(pos map[int]Point, atoms []int, a, b int, run []int) {
 		}
 	}
 	for i, x := range run {
-		pos[x] = choice[i]
+		pos.set(x, choice[i])
 	}
 }
 
@@ -828,19 +959,19 @@ func meanDist(pts []Point, c Point) float64 {
 }
 
 // blockScore is the badness of a ring-system layout: close contacts plus bond-length errors.
-func (l *layouter) blockScore(s *ringSystem, pos map[int]Point) float64 {
+func (l *layouter) blockScore(s *ringSystem, pos blockPos) float64 {
 	sc := 0.0
 	for i, a := range s.atoms {
 		for _, b := range s.atoms[i+1:] {
 			if l.g.bondIndex(a, b) >= 0 {
-				dev := math.Abs(pos[a].dist(pos[b]) - 1)
+				dev := math.Abs(pos.p[a].dist(pos.p[b]) - 1)
 				sc += 10 * dev * dev
 				if dev > 0.1 {
 					sc += 5
 				}
 				continue
 			}
-			if d := pos[a].dist(pos[b]); d < 0.8 {
+			if d := pos.p[a].dist(pos.p[b]); d < 0.8 {
 				sc += (0.8 - d) * (0.8 - d) * 10
 				if d < 0.5 {
 					sc += 5

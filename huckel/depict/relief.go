@@ -14,10 +14,6 @@ func (l *layouter) relieve(comp []int) {
 	if len(comp) < 4 {
 		return
 	}
-	inComp := make([]bool, l.g.n)
-	for _, a := range comp {
-		inComp[a] = true
-	}
 	bonded := func(a, b int) bool { return l.g.bondIndex(a, b) >= 0 }
 	penalty := func() float64 {
 		s := 0.0
@@ -35,7 +31,9 @@ func (l *layouter) relieve(comp []int) {
 	}
 	// cross is the part of the penalty between the atoms of side and the rest: a rigid move
 	// of side changes only that part, so candidates are scored in O(|side|·n).
-	inSide := make([]bool, l.g.n)
+	l.inSide = grow(l.inSide, l.g.n)
+	inSide := l.inSide
+	clear(inSide)
 	cross := func(side []int) float64 {
 		for _, a := range side {
 			inSide[a] = true
@@ -59,9 +57,17 @@ func (l *layouter) relieve(comp []int) {
 		}
 		return s
 	}
-	tried := map[[2]int]bool{} // looked up only
 	cur := penalty()
-	scratch := make([]Point, len(l.pos))
+	if cur == 0 {
+		return
+	}
+	if l.tried == nil {
+		l.tried = map[[2]int]bool{}
+	}
+	tried := l.tried // looked up only
+	clear(tried)
+	l.scratch = grow(l.scratch, len(l.pos))
+	scratch := l.scratch
 	for iter := 0; iter < 60 && cur > 0; iter++ {
 		// the closest crowded pair not yet given up on
 		pa, pb, best := -1, -1, clashDistance
@@ -80,7 +86,8 @@ func (l *layouter) relieve(comp []int) {
 		}
 		path := l.path(pa, pb)
 		bestPen := cur
-		var bestPos []Point
+		bestPos := l.bestPos[:0]
+		found := false
 		for k := 0; k+1 < len(path); k++ {
 			p, q := path[k], path[k+1]
 			bi := l.g.bondIndex(p, q)
@@ -120,11 +127,13 @@ func (l *layouter) relieve(comp []int) {
 				if pen := base + cross(side); pen < bestPen-1e-9 && (len(l.ez) == 0 || l.ezOK()) {
 					bestPen = pen
 					bestPos = append(bestPos[:0], l.pos...)
+					found = true
 				}
 				copy(l.pos, scratch)
 			}
 		}
-		if bestPos == nil {
+		l.bestPos = bestPos
+		if !found {
 			tried[[2]int{pa, pb}] = true
 			continue
 		}
@@ -135,16 +144,17 @@ func (l *layouter) relieve(comp []int) {
 }
 
 // path returns the atoms on a shortest path from a to b (inclusive), lowest-index tie-break.
+// The result is a buffer of l, valid until the next call.
 func (l *layouter) path(a, b int) []int {
-	prev := make([]int, l.g.n)
+	l.prev = grow(l.prev, l.g.n)
+	prev := l.prev
 	for i := range prev {
 		prev[i] = -2
 	}
 	prev[a] = -1
-	q := []int{a}
-	for len(q) > 0 && prev[b] == -2 {
-		v := q[0]
-		q = q[1:]
+	q := append(l.bfs[:0], a)
+	for h := 0; h < len(q) && prev[b] == -2; h++ {
+		v := q[h]
 		for _, w := range l.g.adj[v] {
 			if prev[w] == -2 {
 				prev[w] = v
@@ -152,28 +162,32 @@ func (l *layouter) path(a, b int) []int {
 			}
 		}
 	}
+	l.bfs = q
 	if prev[b] == -2 {
 		return nil
 	}
-	var p []int
+	p := l.pathBuf[:0]
 	for v := b; v >= 0; v = prev[v] {
 		p = append(p, v)
 	}
+	l.pathBuf = p
 	return p
 }
 
 // sideOf returns the atoms reachable from q without crossing bond p–q (q included).
+// The result is a buffer of l, valid until the next call.
 func (l *layouter) sideOf(p, q int) []int {
-	seen := make([]bool, l.g.n)
-	seen[p], seen[q] = true, true
-	out := []int{q}
+	st := l.nextStamp() // l.mark[x] == st: x seen
+	l.mark[p], l.mark[q] = st, st
+	out := append(l.side[:0], q)
 	for i := 0; i < len(out); i++ {
 		for _, w := range l.g.adj[out[i]] {
-			if !seen[w] {
-				seen[w] = true
+			if l.mark[w] != st {
+				l.mark[w] = st
 				out = append(out, w)
 			}
 		}
 	}
+	l.side = out
 	return out
 }

@@ -6,7 +6,8 @@ import (
 	"cyclopair/huckel/molecule"
 )
 
-// graph is a compact adjacency view of the molecule with ring-bond flags.
+// graph is a compact adjacency view of the molecule with ring-bond flags. Its slices are
+// reused by the next build (see Workspace).
 type graph struct {
 	n      int
 	adj    [][]int // neighbours in bond-insertion order
@@ -14,50 +15,75 @@ type graph struct {
 	bonds  [][2]int
 	order  []int  // Kekulé order per bond
 	inRing []bool // per bond
+
+	adjBuf, bondBuf []int // backing arrays of adj and bondOf
+	disc, low       []int // ringBonds scratch
+	stack           []dfsFrame
 }
 
-func newGraph(m *molecule.Molecule) *graph {
+// dfsFrame is one level of the iterative DFS in ringBonds.
+type dfsFrame struct{ v, parentBond, next int }
+
+// build fills g from m, reusing g's buffers.
+func (g *graph) build(m *molecule.Molecule) {
 	n := len(m.Atoms)
-	g := &graph{n: n, adj: make([][]int, n), bondOf: make([][]int, n)}
+	g.n = n
+	g.adj, g.bondOf = grow(g.adj, n), grow(g.bondOf, n)
 	deg := 0
 	for i := range m.Atoms {
 		deg += len(m.Neighbors(i))
 	}
 	// One backing array each for the neighbour and bond lists (capped sub-slices).
-	adj, bondOf := make([]int, 0, deg), make([]int, 0, deg)
+	if cap(g.adjBuf) < deg {
+		g.adjBuf, g.bondBuf = make([]int, 0, deg), make([]int, 0, deg)
+	}
+	adj, bondOf := g.adjBuf[:0], g.bondBuf[:0]
 	for i := range m.Atoms {
 		k := len(adj)
 		for _, e := range m.Neighbors(i) {
 			adj = append(adj, e.To)
 			bondOf = append(bondOf, e.Bond)
 		}
+		g.adj[i], g.bondOf[i] = nil, nil
 		if len(adj) > k {
 			g.adj[i], g.bondOf[i] = adj[k:len(adj):len(adj)], bondOf[k:len(adj):len(adj)]
 		}
 	}
-	g.bonds, g.order = make([][2]int, len(m.Bonds)), make([]int, len(m.Bonds))
+	nb := len(m.Bonds)
+	g.bonds, g.order = grow(g.bonds, nb), grow(g.order, nb)
 	for bi, b := range m.Bonds {
 		g.bonds[bi], g.order[bi] = [2]int{b.A, b.B}, b.Order
 	}
-	g.inRing = g.ringBonds()
-	return g
+	g.ringBonds()
+}
+
+// grow returns b resliced to length n, reallocated when its capacity is short. The
+// contents are not cleared.
+func grow[T any](b []T, n int) []T {
+	if cap(b) < n {
+		return make([]T, n, n+n/2)
+	}
+	return b[:n]
 }
 
 // ringBonds marks bonds that lie on a cycle (non-bridges), by an iterative DFS with low links.
-func (g *graph) ringBonds() []bool {
-	inRing := make([]bool, len(g.bonds))
-	disc := make([]int, g.n)
-	low := make([]int, g.n)
+// The result is g.inRing.
+func (g *graph) ringBonds() {
+	g.inRing = grow(g.inRing, len(g.bonds))
+	inRing := g.inRing
+	clear(inRing)
+	g.disc, g.low = grow(g.disc, g.n), grow(g.low, g.n)
+	disc, low := g.disc, g.low
 	for i := range disc {
 		disc[i] = -1
 	}
 	t := 0
-	type frame struct{ v, parentBond, next int }
+	stack := g.stack[:0]
 	for s := 0; s < g.n; s++ {
 		if disc[s] >= 0 {
 			continue
 		}
-		stack := []frame{{s, -1, 0}}
+		stack = append(stack[:0], dfsFrame{s, -1, 0})
 		disc[s], low[s] = t, t
 		t++
 		for len(stack) > 0 {
@@ -71,7 +97,7 @@ func (g *graph) ringBonds() []bool {
 				if disc[w] < 0 {
 					disc[w], low[w] = t, t
 					t++
-					stack = append(stack, frame{w, b, 0})
+					stack = append(stack, dfsFrame{w, b, 0})
 				} else {
 					inRing[b] = true // a back edge always closes a cycle
 					if disc[w] < low[f.v] {
@@ -93,21 +119,44 @@ func (g *graph) ringBonds() []bool {
 			}
 		}
 	}
+	g.stack = stack
 	// Parallel bonds (the same pair joined twice) cannot occur in a simple molecule graph, so
 	// the low-link test above is exact.
-	return inRing
 }
+
+// ringScratch holds the buffers of sssr, reused from one call to the next.
+type ringScratch struct {
+	ringAtom, seen            []bool
+	parent, parentBond, depth []int
+	onX                       []int
+	q, px, py, cyc            []int
+	cands                     []ringCand
+	candAtoms, candKeys       []int    // ring order and sorted atoms of every candidate
+	candBits                  []uint64 // bond sets, words per candidate
+	basis                     []uint64 // reduced rows, words per row
+	pivots                    []int
+	flat                      []int   // the rings found, one after another
+	ringOff                   []int   // start of ring k in flat
+	rings                     [][]int // sub-slices of flat
+}
+
+// ringCand is a Horton candidate cycle: its atoms (ring order) at candAtoms[off:off+size],
+// its sorted atoms at candKeys[off:off+size], its bond set at candBits[bit:bit+words].
+type ringCand struct{ off, size, bit int }
 
 // sssr returns a smallest set of smallest rings: a minimum cycle basis over the ring bonds,
 // built from Horton's candidate cycles (shortest path r→x, edge x–y, shortest path y→r) and
 // Gaussian elimination over GF(2) on the bond sets. Ties are broken by size, then by the sorted
-// atom list, so the result is deterministic.
+// atom list, so the result is deterministic. The rings are sub-slices of w's buffers, valid
+// until the next call with w.
 //
 // Reference: J. D. Horton, "A polynomial-time algorithm to find the shortest cycle basis of a
 // graph", SIAM J. Comput. 16 (1987) 358–366.
-func (g *graph) sssr() [][]int {
+func (g *graph) sssr(w *ringScratch) [][]int {
 	// ring atoms and the number of independent cycles
-	ringAtom := make([]bool, g.n)
+	w.ringAtom = grow(w.ringAtom, g.n)
+	ringAtom := w.ringAtom
+	clear(ringAtom)
 	nRingBonds := 0
 	for b, r := range g.inRing {
 		if r {
@@ -115,6 +164,7 @@ func (g *graph) sssr() [][]int {
 			nRingBonds++
 		}
 	}
+	w.rings = w.rings[:0]
 	if nRingBonds == 0 {
 		return nil
 	}
@@ -126,43 +176,38 @@ func (g *graph) sssr() [][]int {
 		}
 	}
 	comps := 0
-	seen := make([]bool, g.n)
+	w.seen = grow(w.seen, g.n)
+	seen := w.seen
+	clear(seen)
+	q := w.q[:0]
 	for s := 0; s < g.n; s++ {
 		if !ringAtom[s] || seen[s] {
 			continue
 		}
 		comps++
-		q := []int{s}
+		q = append(q[:0], s)
 		seen[s] = true
-		for len(q) > 0 {
-			v := q[0]
-			q = q[1:]
-			for k, w := range g.adj[v] {
-				if g.inRing[g.bondOf[v][k]] && !seen[w] {
-					seen[w] = true
-					q = append(q, w)
+		for h := 0; h < len(q); h++ {
+			v := q[h]
+			for k, x := range g.adj[v] {
+				if g.inRing[g.bondOf[v][k]] && !seen[x] {
+					seen[x] = true
+					q = append(q, x)
 				}
 			}
 		}
 	}
 	need := nRingBonds - nRingAtoms + comps
 
-	type cand struct {
-		atoms []int // ring order
-		key   []int // sorted atoms
-		bits  []uint64
-	}
 	words := (len(g.bonds) + 63) / 64
-	var cands []cand
-	seenKey := map[string]bool{} // dedup only; never iterated
-	parent := make([]int, g.n)
-	parentBond := make([]int, g.n)
-	depth := make([]int, g.n)
-	onX := make([]int, g.n) // onX[v] == stamp: v is on the current path r … x
+	cands := w.cands[:0]
+	candAtoms, candKeys, candBits := w.candAtoms[:0], w.candKeys[:0], w.candBits[:0]
+	w.parent, w.parentBond, w.depth, w.onX = grow(w.parent, g.n), grow(w.parentBond, g.n), grow(w.depth, g.n), grow(w.onX, g.n)
+	parent, parentBond, depth := w.parent, w.parentBond, w.depth
+	onX := w.onX // onX[v] == stamp: v is on the current path r … x
+	clear(onX)
 	stamp := 0
-	// Buffers reused across roots and candidate bonds.
-	var q, px, py, cyc, key []int
-	var kb []byte
+	px, py, cyc := w.px, w.py, w.cyc
 	pathTo := func(p []int, x int) []int { // x … r
 		p = p[:0]
 		for v := x; v >= 0; v = parent[v] {
@@ -181,13 +226,13 @@ func (g *graph) sssr() [][]int {
 		q = append(q[:0], r)
 		for h := 0; h < len(q); h++ {
 			v := q[h]
-			for k, w := range g.adj[v] {
+			for k, x := range g.adj[v] {
 				b := g.bondOf[v][k]
-				if !g.inRing[b] || depth[w] >= 0 {
+				if !g.inRing[b] || depth[x] >= 0 {
 					continue
 				}
-				depth[w], parent[w], parentBond[w] = depth[v]+1, v, b
-				q = append(q, w)
+				depth[x], parent[x], parentBond[x] = depth[v]+1, v, b
+				q = append(q, x)
 			}
 		}
 		for b, isRing := range g.inRing {
@@ -220,51 +265,69 @@ func (g *graph) sssr() [][]int {
 				cyc = append(cyc, px[i])
 			}
 			cyc = append(cyc, py[:len(py)-1]...)
-			key = append(key[:0], cyc...)
+			off := len(candKeys)
+			candKeys = append(candKeys, cyc...)
+			key := candKeys[off:]
 			slices.Sort(key)
-			kb = appendKey(kb[:0], key)
-			if seenKey[string(kb)] {
+			dup := false
+			for _, c := range cands { // dedup on the sorted atoms
+				if c.size == len(key) && slices.Equal(candKeys[c.off:c.off+c.size], key) {
+					dup = true
+					break
+				}
+			}
+			if dup {
+				candKeys = candKeys[:off]
 				continue
 			}
-			seenKey[string(kb)] = true
-			bits := make([]uint64, words)
+			candAtoms = append(candAtoms, cyc...)
+			bit := len(candBits)
+			for range words {
+				candBits = append(candBits, 0)
+			}
+			bits := candBits[bit:]
 			for i, v := range cyc {
-				w := cyc[(i+1)%len(cyc)]
-				bi := g.bondIndex(v, w)
+				u := cyc[(i+1)%len(cyc)]
+				bi := g.bondIndex(v, u)
 				bits[bi/64] |= 1 << (bi % 64)
 			}
-			cands = append(cands, cand{atoms: slices.Clone(cyc), key: slices.Clone(key), bits: bits})
+			cands = append(cands, ringCand{off: off, size: len(cyc), bit: bit})
 		}
 	}
-	slices.SortStableFunc(cands, func(a, b cand) int {
-		if len(a.key) != len(b.key) {
-			return len(a.key) - len(b.key)
+	w.px, w.py, w.cyc, w.q = px, py, cyc, q
+	w.cands, w.candAtoms, w.candKeys, w.candBits = cands, candAtoms, candKeys, candBits
+	slices.SortStableFunc(cands, func(a, b ringCand) int {
+		if a.size != b.size {
+			return a.size - b.size
 		}
-		return slices.Compare(a.key, b.key)
+		return slices.Compare(candKeys[a.off:a.off+a.size], candKeys[b.off:b.off+b.size])
 	})
 	// Gaussian elimination: keep a candidate if it is independent of those kept so far.
-	var basis [][]uint64 // reduced rows with distinct pivots
-	var pivots []int
-	var out [][]int
+	basis := w.basis[:0] // reduced rows with distinct pivots, words each
+	pivots := w.pivots[:0]
+	flat, ringOff := w.flat[:0], w.ringOff[:0]
 	for _, c := range cands {
-		if len(out) == need {
+		if len(ringOff) == need {
 			break
 		}
-		v := slices.Clone(c.bits)
-		for i, row := range basis {
+		off := len(basis)
+		basis = append(basis, candBits[c.bit:c.bit+words]...)
+		v := basis[off:]
+		for i := range pivots {
+			row := basis[i*words : (i+1)*words]
 			p := pivots[i]
 			if v[p/64]&(1<<(p%64)) != 0 {
-				for w := range v {
-					v[w] ^= row[w]
+				for k := range v {
+					v[k] ^= row[k]
 				}
 			}
 		}
 		p := -1
-		for w := range v {
-			if v[w] != 0 {
+		for k := range v {
+			if v[k] != 0 {
 				for bit := 0; bit < 64; bit++ {
-					if v[w]&(1<<bit) != 0 {
-						p = w*64 + bit
+					if v[k]&(1<<bit) != 0 {
+						p = k*64 + bit
 						break
 					}
 				}
@@ -272,21 +335,31 @@ func (g *graph) sssr() [][]int {
 			}
 		}
 		if p < 0 {
+			basis = basis[:off]
 			continue
 		}
 		// keep rows reduced on the new pivot so later reductions stay correct
-		for i, row := range basis {
+		for i := range pivots {
+			row := basis[i*words : (i+1)*words]
 			if row[p/64]&(1<<(p%64)) != 0 {
-				for w := range row {
-					basis[i][w] ^= v[w]
+				for k := range row {
+					row[k] ^= v[k]
 				}
 			}
 		}
-		basis = append(basis, v)
 		pivots = append(pivots, p)
-		out = append(out, canonicalRing(c.atoms))
+		ringOff = append(ringOff, len(flat))
+		flat = appendCanonicalRing(flat, candAtoms[c.off:c.off+c.size])
 	}
-	return out
+	w.basis, w.pivots, w.flat, w.ringOff = basis, pivots, flat, ringOff
+	for k, o := range ringOff {
+		e := len(flat)
+		if k+1 < len(ringOff) {
+			e = ringOff[k+1]
+		}
+		w.rings = append(w.rings, flat[o:e:e])
+	}
+	return w.rings
 }
 
 func (g *graph) bondIndex(a, b int) int {
@@ -299,7 +372,10 @@ func (g *graph) bondIndex(a, b int) int {
 }
 
 // canonicalRing rotates a ring to start at its lowest atom and go towards the lower neighbour.
-func canonicalRing(r []int) []int {
+func canonicalRing(r []int) []int { return appendCanonicalRing(make([]int, 0, len(r)), r) }
+
+// appendCanonicalRing appends the canonical rotation of r (see canonicalRing) to out.
+func appendCanonicalRing(out, r []int) []int {
 	n := len(r)
 	lo := 0
 	for i := range r {
@@ -307,7 +383,6 @@ func canonicalRing(r []int) []int {
 			lo = i
 		}
 	}
-	out := make([]int, 0, n)
 	if r[(lo+1)%n] < r[(lo+n-1)%n] {
 		for i := 0; i < n; i++ {
 			out = append(out, r[(lo+i)%n])
@@ -318,12 +393,4 @@ func canonicalRing(r []int) []int {
 		}
 	}
 	return out
-}
-
-// appendKey appends the bytes of key (4 per atom index) to b: the dedup key of a ring.
-func appendKey(b []byte, key []int) []byte {
-	for _, v := range key {
-		b = append(b, byte(v>>24), byte(v>>16), byte(v>>8), byte(v))
-	}
-	return b
 }

@@ -32,7 +32,7 @@ func (l *layouter) stereoMark(bi, from int) byte {
 // ezRules collects the rules of every acyclic double bond with a marked neighbour bond on
 // each end.
 func (l *layouter) ezRules() []ezRule {
-	var out []ezRule
+	out := l.ez[:0]
 	for bi, b := range l.m.Bonds {
 		if b.Order != 2 || l.g.inRing[bi] {
 			continue
@@ -89,7 +89,9 @@ func (l *layouter) ruleHolds(r ezRule) bool {
 // applyEZ mirrors the far side of each double bond whose drawing contradicts its marks
 // across the bond's line.
 func (l *layouter) applyEZ(comp []int) {
-	in := make([]bool, l.g.n)
+	l.inComp = grow(l.inComp, l.g.n)
+	in := l.inComp
+	clear(in)
 	for _, a := range comp {
 		in[a] = true
 	}

@@ -2,6 +2,7 @@ package ppp_test
 
 import (
 	"fmt"
+	"runtime"
 	"testing"
 	"time"
 
@@ -79,6 +80,118 @@ func BenchmarkPipeline(b *testing.B) {
 			b.ReportMetric(float64(b.N)/tHuckel.Seconds(), "huckel_molecules/s")
 			b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel")
 			b.ReportMetric(float64(iters)/float64(b.N), "scf_cycles")
+		})
+	}
+}
+
+// BenchmarkPipelineCPU is BenchmarkPipeline timed by the CPU clock of the benchmark's
+// thread (Linux; elsewhere the wall clock): on a machine shared with other jobs the wall
+// clock charges either pipeline with the time the thread waited for a core, so its
+// molecules/s and ratio swing with the load; thread CPU time does not (GC work done by
+// other threads is not charged). Each iteration runs `cpuBatch` molecules through the PPP
+// pipeline, then `cpuBatch` through the Hückel pipeline, reading the clock three times, so
+// the clock reads cost under 1 % (allocs/op and B/op are per cpuBatch pairs).
+// Run: go test ./huckel/ppp -run XXX -bench PipelineCPU -cpu 1
+func BenchmarkPipelineCPU(b *testing.B) {
+	const cpuBatch = 8
+	hp, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		b.Fatal(err)
+	}
+	pp, err := presets.PPPParams(presets.DefaultPPP)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, smi := range benchMolecules {
+		m0, _ := smiles.Parse(smi)
+		ps0, err := huckel.Perceive(m0, hp)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(fmt.Sprintf("centres=%d", len(ps0.Centres)), func(b *testing.B) {
+			runtime.LockOSThread() // the thread clock must stay with this goroutine
+			defer runtime.UnlockOSThread()
+			s := ppp.NewSolver(pp)
+			var hs huckel.Solver
+			var o, h huckel.Orbitals
+			var tPPP, tHuckel time.Duration
+			b.ReportAllocs()
+			for b.Loop() {
+				t0 := threadCPU()
+				for range cpuBatch {
+					m, err := smiles.Parse(smi)
+					if err != nil {
+						b.Fatal(err)
+					}
+					ps, err := huckel.Perceive(m, hp)
+					if err != nil {
+						b.Fatal(err)
+					}
+					if err := s.Solve(ps, &o); err != nil {
+						b.Fatal(err)
+					}
+				}
+				t1 := threadCPU()
+				for range cpuBatch {
+					m, err := smiles.Parse(smi)
+					if err != nil {
+						b.Fatal(err)
+					}
+					ps, err := huckel.Perceive(m, hp)
+					if err != nil {
+						b.Fatal(err)
+					}
+					if err := hs.Solve(ps, &h); err != nil {
+						b.Fatal(err)
+					}
+				}
+				t2 := threadCPU()
+				tPPP += t1 - t0
+				tHuckel += t2 - t1
+			}
+			if !threadCPUClock {
+				b.Log("no thread CPU clock on this system: wall clock")
+			}
+			n := float64(b.N * cpuBatch)
+			b.ReportMetric(n/tPPP.Seconds(), "ppp_cpu_molecules/s")
+			b.ReportMetric(n/tHuckel.Seconds(), "huckel_cpu_molecules/s")
+			b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel_cpu")
+		})
+	}
+}
+
+// BenchmarkSolve measures Solver.Solve alone (2D layout and SCF, reused Solver and
+// Orbitals) on the perceived π systems of benchMolecules; cpu_ns/solve is the thread CPU
+// time per solve (see BenchmarkPipelineCPU).
+// Run: go test ./huckel/ppp -run XXX -bench Solve -cpu 1
+func BenchmarkSolve(b *testing.B) {
+	hp, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		b.Fatal(err)
+	}
+	pp, err := presets.PPPParams(presets.DefaultPPP)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, smi := range benchMolecules {
+		m, _ := smiles.Parse(smi)
+		ps, err := huckel.Perceive(m, hp)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) {
+			runtime.LockOSThread()
+			defer runtime.UnlockOSThread()
+			s := ppp.NewSolver(pp)
+			var o huckel.Orbitals
+			b.ReportAllocs()
+			t0 := threadCPU()
+			for b.Loop() {
+				if err := s.Solve(ps, &o); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(threadCPU()-t0)/float64(b.N), "cpu_ns/solve")
 		})
 	}
 }

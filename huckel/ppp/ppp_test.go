@@ -605,7 +605,8 @@ func TestDipoleHOMO(t *testing.T) {
 }
 
 // TestSolveAtAllocs: once warm, a solve at given coordinates (Hückel start, SCF loop,
-// final diagonalisation) allocates nothing when the Solver and Orbitals are reused.
+// final diagonalisation), and a Solve with its 2D layout, allocate nothing when the Solver
+// and Orbitals are reused.
 func TestSolveAtAllocs(t *testing.T) {
 	hp, pp := params(t)
 	m, _ := smiles.Parse("C=CC(=O)c1ccccc1")
@@ -628,5 +629,16 @@ func TestSolveAtAllocs(t *testing.T) {
 		}
 	}); a != 0 {
 		t.Errorf("%.0f allocations per warm solve", a)
+	}
+	// Solve adds the 2D layout, by the Solver's reused depict.Workspace: still nothing.
+	if err := s.Solve(ps, &o); err != nil {
+		t.Fatal(err)
+	}
+	if a := testing.AllocsPerRun(20, func() {
+		if err := s.Solve(ps, &o); err != nil {
+			t.Fatal(err)
+		}
+	}); a != 0 {
+		t.Errorf("%.0f allocations per warm Solve (layout included)", a)
 	}
 }

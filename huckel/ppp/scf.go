@@ -66,8 +66,8 @@ type Stats struct {
 }
 
 // Solver runs PPP-SCF calculations with workspaces that grow but never shrink: once warm,
-// the SCF loop allocates nothing (the 2D layout of Solve allocates per molecule; SolveAt
-// with caller-owned coordinates does not). The zero value is not usable: build one with
+// Solve (2D layout by a reused depict.Workspace, SCF) allocates nothing for an ordinary
+// substrate, and neither does SolveAt with caller-owned coordinates. The zero value is not usable: build one with
 // NewSolver. A Solver is not safe for concurrent use: give each goroutine its own.
 type Solver struct {
 	p *Params
@@ -84,7 +84,9 @@ type Solver struct {
 	fragOff, fragM, fragE, pkO []int // per fragment: first local index, size, electrons, packed offset
 	u, g, z                    []float64
 	xy                         []depict.Point
-	gam                        []float64 // n×n γ, permuted order
+	lay                        depict.Workspace // the 2D layout of Solve
+	atomXY                     []depict.Point   // layout positions per atom
+	gam                        []float64        // n×n γ, permuted order
 	// packed block-diagonal matrices (fragment blocks m×m, row-major, one after another)
 	hc, f, fx, pd, pNew, c, eps, occ, e []float64
 	fHist, eHist                        []float64                      // diisDepth packed matrices each
@@ -95,6 +97,9 @@ type Solver struct {
 	a, w, work, tmp, ct, ft             []float64
 	q                                   [1]float64
 	lv                                  []int
+	// cT[f]: fragment f's block of c holds Cᵀ (a row per level), as the pseudo-diagonalisation
+	// leaves it, so that SCF cycles need no transposes; a full diagonalisation leaves C.
+	cT []bool
 }
 
 // NewSolver returns a Solver for parameter set p (which must be complete: see Parse).
@@ -150,17 +155,18 @@ func (s *Solver) Solve(ps *huckel.PiSystem, into *huckel.Orbitals) error {
 		}
 		return fmt.Errorf("ppp: %w: the π system has no molecule to lay out (use SolveAt with coordinates)", ErrGeometry)
 	}
-	lay, err := depict.Layout(ps.Mol)
+	pos, err := s.lay.LayoutInto(ps.Mol, s.atomXY)
 	if err != nil {
 		return fmt.Errorf("ppp: %s: %w: %v", molName(ps), ErrGeometry, err)
 	}
+	s.atomXY = pos
 	n := len(ps.Centres)
 	if cap(s.xy) < n {
 		s.xy = make([]depict.Point, n)
 	}
 	s.xy = s.xy[:n]
 	for i, c := range ps.Centres {
-		s.xy[i] = lay.Pos[c.Atom]
+		s.xy[i] = pos[c.Atom]
 	}
 	scaleLayout(ps, s.xy, s.p.BondLength)
 	return s.SolveAt(ps, s.xy, into)
@@ -218,6 +224,13 @@ func molName(ps *huckel.PiSystem) string {
 func growF(b []float64, n int) []float64 {
 	if cap(b) < n {
 		return make([]float64, n, n+n/2)
+	}
+	return b[:n]
+}
+
+func growB(b []bool, n int) []bool {
+	if cap(b) < n {
+		return make([]bool, n, n+n/2)
 	}
 	return b[:n]
 }
@@ -349,6 +362,8 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 // with the Hückel density.
 func (s *Solver) start(ps *huckel.PiSystem) error {
 	clear(s.c)
+	s.cT = growB(s.cT, len(s.fragM))
+	clear(s.cT)
 	if s.denseStart(ps) {
 		s.occupy()
 		s.density(s.pd)
@@ -458,6 +473,27 @@ func (s *Solver) density(p []float64) {
 		blk := p[po : po+m*m]
 		clear(blk)
 		cb := s.c[po : po+m*m]
+		if s.cT[f] { // rows of cb are the levels: the same sums over contiguous rows
+			for k := 0; k < m; k++ {
+				nk := s.occ[o+k]
+				if nk == 0 {
+					continue
+				}
+				ck := cb[k*m : k*m+m]
+				for i, cik := range ck {
+					ci := nk * cik
+					if ci == 0 {
+						continue
+					}
+					row := blk[i*m : i*m+m]
+					row = row[:len(ck)]
+					for j, cjk := range ck {
+						row[j] += ci * cjk
+					}
+				}
+			}
+			continue
+		}
 		for k := 0; k < m; k++ {
 			nk := s.occ[o+k]
 			if nk == 0 {
@@ -490,6 +526,8 @@ func (s *Solver) fock(p, f []float64) float64 {
 			pi := p[po+i*m : po+i*m+m]
 			fi := f[po+i*m : po+i*m+m]
 			hi := s.hc[po+i*m : po+i*m+m]
+			gf := gi[o : o+m] // γ to the centres of this fragment
+			fi, hi, gf = fi[:len(pi)], hi[:len(pi)], gf[:len(pi)]
 			// Coulomb from every centre (all fragments).
 			v := 0.5 * pi[i] * gi[o+i]
 			for f2, m2 := range s.fragM {
@@ -502,11 +540,11 @@ func (s *Solver) fock(p, f []float64) float64 {
 				}
 			}
 			fi[i] += v
-			for j := 0; j < m; j++ {
+			for j, pij := range pi {
 				if j != i {
-					fi[j] -= 0.5 * pi[j] * gi[o+j]
+					fi[j] -= 0.5 * pij * gf[j]
 				}
-				en += pi[j] * (hi[j] + fi[j])
+				en += pij * (hi[j] + fi[j])
 			}
 		}
 	}
@@ -520,16 +558,35 @@ func (s *Solver) commutator(f, p, e []float64) float64 {
 	for fr, m := range s.fragM {
 		po := s.pkO[fr]
 		fb, pb, eb := f[po:po+m*m], p[po:po+m*m], e[po:po+m*m]
-		clear(eb)
+		// (FP)_ij = Σ_k F_ik P_kj, summed over k ascending from +0 (zero F_ik skipped: a ±0
+		// term would leave the sum unchanged). Four columns at a time in registers.
 		for i := 0; i < m; i++ {
 			ei := eb[i*m : i*m+m]
-			for k, fik := range fb[i*m : i*m+m] {
-				if fik == 0 {
-					continue
+			fi := fb[i*m : i*m+m]
+			j := 0
+			for ; j+3 < m; j += 4 {
+				a0, a1, a2, a3 := 0.0, 0.0, 0.0, 0.0
+				for k, fik := range fi {
+					if fik == 0 {
+						continue
+					}
+					pk := pb[k*m+j : k*m+j+4]
+					a0 += fik * pk[0]
+					a1 += fik * pk[1]
+					a2 += fik * pk[2]
+					a3 += fik * pk[3]
 				}
-				for j, pkj := range pb[k*m : k*m+m] {
-					ei[j] += fik * pkj
+				ei[j], ei[j+1], ei[j+2], ei[j+3] = a0, a1, a2, a3
+			}
+			for ; j < m; j++ {
+				a := 0.0
+				for k, fik := range fi {
+					if fik == 0 {
+						continue
+					}
+					a += fik * pb[k*m+j]
 				}
+				ei[j] = a
 			}
 		}
 		for i := 0; i < m; i++ {
@@ -585,11 +642,18 @@ func (s *Solver) iterate(ps *huckel.PiSystem) error {
 		s.occupy()
 		s.density(s.pNew)
 		dP = 0
-		for i := 0; i < pk; i++ {
-			if damped {
-				s.pNew[i] = (1-damping)*s.pNew[i] + damping*s.pd[i]
+		pNew, pd := s.pNew[:pk], s.pd[:pk]
+		if damped {
+			for i := range pNew {
+				pNew[i] = (1-damping)*pNew[i] + damping*pd[i]
 			}
-			dP = max(dP, math.Abs(s.pNew[i]-s.pd[i]))
+		}
+		for i, x := range pNew {
+			// max(dP, |ΔP_ij|) as the builtin gives it (a NaN sticks), without its
+			// signed-zero handling: both operands are ≥ +0 or NaN.
+			if d := math.Abs(x - pd[i]); d > dP || d != d {
+				dP = d
+			}
 		}
 		if math.IsNaN(dP) {
 			break
@@ -609,8 +673,24 @@ func (s *Solver) extrapolate(pk int) {
 	b := s.bmat[:dim*dim]
 	last := (s.hist - 1) % diisDepth // the slot just written: update its row of ⟨e_i, e_j⟩
 	el := s.eHist[last*pk : (last+1)*pk]
-	for j := 0; j < k; j++ {
+	j := 0
+	// Two products at a time: two independent sums, each in its own order, overlap in the
+	// pipeline where one sum would wait on every addition.
+	for ; j+1 < k; j += 2 {
+		e0 := s.eHist[j*pk : (j+1)*pk]
+		e1 := s.eHist[(j+1)*pk : (j+2)*pk]
+		e0, e1 = e0[:len(el)], e1[:len(el)]
+		v0, v1 := 0.0, 0.0
+		for t, x := range el {
+			v0 += x * e0[t]
+			v1 += x * e1[t]
+		}
+		s.bdot[last*diisDepth+j], s.bdot[j*diisDepth+last] = v0, v0
+		s.bdot[last*diisDepth+j+1], s.bdot[(j+1)*diisDepth+last] = v1, v1
+	}
+	if j < k {
 		ej := s.eHist[j*pk : (j+1)*pk]
+		ej = ej[:len(el)]
 		v := 0.0
 		for t, x := range el {
 			v += x * ej[t]
@@ -646,8 +726,9 @@ func (s *Solver) extrapolate(pk int) {
 	for i := 0; i < k; i++ {
 		ci := s.coefs[i]
 		fi := s.fHist[i*pk : (i+1)*pk]
-		for t := range s.f {
-			s.f[t] += ci * fi[t]
+		f := s.f[:len(fi)]
+		for t, x := range fi {
+			f[t] += ci * x
 		}
 	}
 }
@@ -708,25 +789,12 @@ func (s *Solver) diagonalise(occVirt bool) error {
 		}
 		if occVirt && m <= pseudoMax {
 			if nocc := s.closedShell(f); nocc > 0 && nocc < m {
-				s.tmp = growF(s.tmp, m*m)
-				tmp := s.tmp[:m*m]
-				// tmp = F C, row-oriented so the inner loops run over contiguous memory.
-				clear(tmp)
-				for i := 0; i < m; i++ {
-					ti := tmp[i*m : i*m+m]
-					for k, fik := range fb[i*m : i*m+m] {
-						if fik == 0 {
-							continue
-						}
-						for j, ckj := range cb[k*m : k*m+m] {
-							ti[j] += fik * ckj
-						}
-					}
-				}
-				s.pseudoDiag(tmp, cb, eps, m, nocc) // sorts the levels too
+				s.pseudoDiag(fb, cb, eps, m, nocc, s.cT[f]) // sorts the levels too
+				s.cT[f] = true
 				continue
 			}
 		}
+		s.cT[f] = false
 		copy(cb, fb)
 		s.w = growF(s.w, m)
 		if symEig(cb, m, eps, s.w[:m]) {
@@ -765,20 +833,53 @@ func (s *Solver) closedShell(f int) int {
 }
 
 // pseudoDiag is the SCF-cycle step for a closed-shell block: the pseudo-diagonalisation of
-// J. J. P. Stewart, P. Császár, P. Pulay (J. Comput. Chem. 1982, 3, 227). With fc = F·C,
+// J. J. P. Stewart, P. Császár, P. Pulay (J. Comput. Chem. 1982, 3, 227). With fc = F·C
+// (f the m×m block of F, c of C),
 // it forms the diagonal and the occupied–virtual block of Cᵀ F C and applies to the
 // columns of C, for every occupied i and virtual v, the 2×2 rotation that would zero
 // (CᵀFC)_iv. The density depends only on the occupied space, so this is all a Roothaan
 // step needs; the rotations keep C orthonormal, the neglected couplings between
 // rotations vanish as the SCF converges, and the final diagonalisation is a full one.
-// eps receives the diagonal (the level order for aufbau).
-func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
-	// Work on transposed copies, so that the columns of C and F·C are contiguous rows
-	// (the same arithmetic in the same order as on the columns).
-	s.ct, s.ft = growF(s.ct, m*m), growF(s.ft, m*m)
-	ct, ft := s.ct[:m*m], s.ft[:m*m]
-	transpose(ct, c, m)
-	transpose(ft, fc, m)
+// eps receives the diagonal (the level order for aufbau). The rotations work on Cᵀ, so
+// that the levels are contiguous rows, and leave Cᵀ in c; cT says c holds Cᵀ already.
+func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int, cT bool) {
+	s.ft = growF(s.ft, m*m)
+	ft := s.ft[:m*m]
+	ct := c
+	if !cT {
+		s.ct = growF(s.ct, m*m)
+		ct = s.ct[:m*m]
+		transpose(ct, c, m)
+	}
+	// (F·C)ᵀ directly: element (j, i) is row i of F dotted with row j of Cᵀ, summed over k
+	// ascending from +0 as the row-oriented product F·C summed it (that product skipped
+	// the zero F_ik; adding a ±0 term leaves a sum that starts at +0 bit-identical). Four
+	// elements at a time: four independent sums overlap in the pipeline.
+	for i := 0; i < m; i++ {
+		fi := f[i*m : i*m+m]
+		j := 0
+		for ; j+3 < m; j += 4 {
+			c0, c1, c2, c3 := ct[j*m:j*m+m], ct[(j+1)*m:(j+1)*m+m], ct[(j+2)*m:(j+2)*m+m], ct[(j+3)*m:(j+3)*m+m]
+			c0, c1, c2, c3 = c0[:len(fi)], c1[:len(fi)], c2[:len(fi)], c3[:len(fi)]
+			v0, v1, v2, v3 := 0.0, 0.0, 0.0, 0.0
+			for k, x := range fi {
+				v0 += x * c0[k]
+				v1 += x * c1[k]
+				v2 += x * c2[k]
+				v3 += x * c3[k]
+			}
+			ft[j*m+i], ft[(j+1)*m+i], ft[(j+2)*m+i], ft[(j+3)*m+i] = v0, v1, v2, v3
+		}
+		for ; j < m; j++ {
+			cj := ct[j*m : j*m+m]
+			cj = cj[:len(fi)]
+			v := 0.0
+			for k, x := range fi {
+				v += x * cj[k]
+			}
+			ft[j*m+i] = v
+		}
+	}
 	for k := 0; k < m; k++ {
 		ck, fk := ct[k*m:k*m+m], ft[k*m:k*m+m]
 		v := 0.0
@@ -791,6 +892,7 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 		ci := ct[i*m : i*m+m]
 		for v := nocc; v < m; v++ {
 			fv := ft[v*m : v*m+m]
+			fv = fv[:len(ci)]
 			fiv := 0.0
 			for r, x := range ci {
 				fiv += x * fv[r]
@@ -806,6 +908,7 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			cs := 1 / math.Sqrt(t*t+1)
 			sn := t * cs
 			cv := ct[v*m : v*m+m]
+			cv = cv[:len(ci)]
 			for r, x := range ci {
 				y := cv[r]
 				ci[r] = cs*x - sn*y
@@ -813,7 +916,7 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			}
 		}
 	}
-	// Sort the levels (rows of Cᵀ) ascending, then copy back.
+	// Sort the levels (rows of Cᵀ) ascending.
 	for i := 1; i < m; i++ {
 		for j := i; j > 0 && eps[j] < eps[j-1]; j-- {
 			eps[j], eps[j-1] = eps[j-1], eps[j]
@@ -823,7 +926,9 @@ func (s *Solver) pseudoDiag(fc, c, eps []float64, m, nocc int) {
 			}
 		}
 	}
-	transpose(c, ct, m)
+	if !cT {
+		copy(c, ct)
+	}
 }
 
 // transpose writes the transpose of the m×m matrix src into dst.
