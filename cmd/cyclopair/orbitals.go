@@ -149,6 +149,12 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		sc.Buffer(make([]byte, 64*1024), 1<<20)
 		line := 0
 		batch := newOrbitalsBatch(p, opts, mod)
+		if opts.format == "json" {
+			batch.format = func(r *orbitalsResult) {
+				j := toJSON(r, p, cal)
+				r.line = append(appendOrbitalsJSON(nil, &j), '\n')
+			}
+		}
 		for sc.Scan() {
 			line++
 			text := sc.Text()
@@ -207,6 +213,9 @@ type orbitalsResult struct {
 	in  orbitalsInput
 	ps  *huckel.PiSystem
 	orb *huckel.Orbitals
+	// line is the result's JSON line, formatted by the batch worker that solved it so the
+	// writer only copies bytes (nil when the output is not JSON).
+	line []byte
 }
 
 // computeOrbitals parses, perceives and solves one input. Errors are formatted as
@@ -264,6 +273,9 @@ type orbitalsBatch struct {
 	res     []*orbitalsResult
 	errs    []error
 	solvers []huckel.Method // one per worker
+	// format, when set, turns a solved result into its output bytes on the worker, so the
+	// formatting runs on all cores instead of the single writer (JSON Lines).
+	format func(*orbitalsResult)
 }
 
 const orbitalsBatchSize = 512
@@ -302,6 +314,9 @@ func (b *orbitalsBatch) run(emit func(orbitalsInput, *orbitalsResult, error) err
 					return
 				}
 				b.res[i], b.errs[i] = computeOrbitals(b.ins[i], b.p, b.opts, b.solvers[w])
+				if b.errs[i] == nil && b.format != nil {
+					b.format(b.res[i])
+				}
 			}
 		}()
 	}

@@ -181,6 +181,10 @@ func (ow *orbitalsWriter) write(r *orbitalsResult) error {
 	ow.n++
 	switch ow.format {
 	case "json":
+		if r.line != nil {
+			_, err := ow.w.Write(r.line)
+			return err
+		}
 		j := toJSON(r, ow.p, ow.cal)
 		ow.buf = append(appendOrbitalsJSON(ow.buf[:0], &j), '\n')
 		_, err := ow.w.Write(ow.buf)
