@@ -39,6 +39,11 @@ type Partner struct {
 	eHuckel float64
 	// freePi is the unactivated partner's π system (nil when not activated).
 	freePi *huckel.PiSystem
+	// noConj skips the conjugation loss of every unit (left NaN): set only for the
+	// side-channel partners (analyseSide), whose preferred orientation and score read the
+	// localisation but never the conjugation loss, which was about half of their
+	// preparation (a second set of residue solves on the alkyl-free π system).
+	noConj bool
 }
 
 // slot layout of unitData: for a diene a,b,c,d; for a dipole a,b,c,- ; for a 2π unit
@@ -308,7 +313,9 @@ func (p *Partner) unitData(u Unit, ui int, w *locWork) (unitData, error) {
 		return d, err
 	}
 	d.loc = loc
-	if d.conj, err = p.conjugationLoss(u, p.sides[ui], w, loc); err != nil {
+	if p.noConj {
+		d.conj = math.NaN()
+	} else if d.conj, err = p.conjugationLoss(u, p.sides[ui], w, loc); err != nil {
 		return d, err
 	}
 	tEnd := len(u.Atoms) - 1

@@ -150,7 +150,13 @@ type sideResult struct {
 // analyseSide prepares m as a 2π partner and analyses it with diene.
 func analyseSide(kind, what string, diene *Partner, m *molecule.Molecule, opts *Options) sideResult {
 	r := sideResult{kind: kind, what: what}
-	sp, err := NewPartnerFromMolecule(m.Name, m, RoleDienophile, opts)
+	// The partner is read by preferredGap only (scores and gaps, never the conjugation
+	// loss): it skips that term's solves.
+	sp := &Partner{Name: m.Name, SMILES: m.Source, Role: RoleDienophile, Mol: m, Activation: "none", Active: m, noConj: true}
+	if sp.Name == "" {
+		sp.Name = sp.SMILES
+	}
+	err := sp.prepare(opts)
 	if err != nil {
 		if errors.Is(err, ErrNoUnit) {
 			r.skip = true
