@@ -64,6 +64,17 @@ const (
 	// preferred orientation's product (the screen's table, CSV, Markdown and SD formats),
 	// where the stereo forms of the other orientations were most of a row's cost.
 	DetailBest
+	// DetailRow is DetailBest without the preferred orientation's StereoProducts and
+	// FollowUp (left nil): it keeps its Product and IsolatedProduct (the side-channel check
+	// analyses the isolated product), computed with only the stereo searches that decide
+	// the isolated product (isolatedProduct). When at most MaxListedOrientations
+	// candidates were scored it lists the preferred orientation alone, as the other
+	// candidates need not then be told apart (so the regio fractions the rate model's
+	// ratio annotation puts on the orientations, and FractionInterval, are not those of the
+	// full list). For the row formats that show the preferred orientation's product, label
+	// and figures and the Pair's own fields only (the screen's table, CSV, Markdown and SD
+	// formats); margins, verdicts, warnings, side channels and rate are as with DetailAll.
+	DetailRow
 )
 
 // AnalyzeDetail is Analyze computing the per-orientation extras the detail level asks for.
@@ -196,7 +207,14 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	// rest is stated in a warning.
 	var listed []int
 	unlisted := 0
-	for i := range cands {
+	n := len(cands)
+	if detail == DetailRow && n <= MaxListedOrientations {
+		// Every distinct adduct would be listed, so no warning counts the rest, and the row
+		// formats read only the preferred orientation: the other candidates need not be told
+		// apart (the margins below compare the few they need).
+		n = 1
+	}
+	for i := range cands[:n] {
 		dup := false
 		for _, j := range listed {
 			if keys.same(i, j) {
@@ -218,7 +236,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			o = orientation(c)
 		}
 		o.Preferred = i == 0
-		if detail == DetailBest && i != 0 {
+		if detail != DetailAll && i != 0 {
 			pair.Orientations = append(pair.Orientations, o)
 			continue
 		}
@@ -228,6 +246,11 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
 		pm, bonds := keys.mol(i), o.Bonds // the adduct canonical() was computed from
 		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
+		if detail == DetailRow {
+			o.IsolatedProduct = isolatedProduct(diene, dienophile, du, eu, bonds, pm, product, endoPref)
+			pair.Orientations = append(pair.Orientations, o)
+			continue
+		}
 		o.StereoProducts, o.FollowUp, o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, product, endoPref)
 		pair.Orientations = append(pair.Orientations, o)
 	}

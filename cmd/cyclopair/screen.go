@@ -299,7 +299,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	so := cfg.ScreenOptions()
 	so.Exhaustive = o.exhaustive
 	if format != "html" && render.Format(format).BestOnly() {
-		so.Detail = fmo.DetailBest // the rows print only the preferred orientation
+		so.Detail = fmo.DetailRow // the rows print only the preferred orientation's product
 	}
 	so.Progress = prog.Add
 	so.Selected = func(n int64) {

@@ -93,6 +93,7 @@ func TestAnalyzeAtActivatedMatchesFullFree(t *testing.T) {
 								p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, p.Activations[a], g, w)
 						}
 						checkDetailBest(t, p, d, e, a, want)
+						checkDetailRow(t, p, d, e, a, want)
 						rows++
 					}
 				}
@@ -130,6 +131,47 @@ func checkDetailBest(t *testing.T, p *Prepared, d, e, a int, want *fmo.Pair) {
 	w, _ := json.Marshal(&blank)
 	if string(g) != string(w) {
 		t.Fatalf("%s + %s (%s): DetailBest row differs from the full row\n got %s\nwant %s",
+			p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, p.Activations[a], g, w)
+	}
+}
+
+// checkDetailRow: a row analysed at fmo.DetailRow equals the full row want in every field the
+// row formats print: the preferred orientation (without its stereo forms and follow-up
+// steps, which no row format prints, but with its product and isolated product) and every
+// field of the Pair itself (margins, verdicts, warnings with the side channels, rate); when
+// every candidate would be listed it lists the preferred orientation alone, so the regio
+// fractions (not printed by those formats) are left out of the comparison.
+func checkDetailRow(t *testing.T, p *Prepared, d, e, a int, want *fmo.Pair) {
+	t.Helper()
+	got, err := p.AnalyzeAtDetail(d, e, a, fmo.DetailRow)
+	if err != nil {
+		t.Fatalf("%d/%d/%d: DetailRow failed: %v", d, e, a, err)
+	}
+	if len(got.Orientations) == 0 || got.Orientations[0].Product == "" || got.Orientations[0].IsolatedProduct == "" {
+		t.Fatalf("%d/%d/%d: DetailRow lacks the preferred product: %+v", d, e, a, got.Orientations)
+	}
+	if len(got.Orientations) != 1 && len(got.Orientations) != len(want.Orientations) {
+		t.Fatalf("%d/%d/%d: DetailRow lists %d orientations, want 1 or %d", d, e, a, len(got.Orientations), len(want.Orientations))
+	}
+	blank := *want
+	blank.Orientations = slices.Clone(want.Orientations[:len(got.Orientations)])
+	for i := range blank.Orientations {
+		o := &blank.Orientations[i]
+		if i > 0 {
+			o.Product, o.IsolatedProduct = "", ""
+		}
+		o.StereoProducts, o.FollowUp = nil, nil
+	}
+	g2 := *got
+	g2.Orientations = slices.Clone(got.Orientations)
+	if len(got.Orientations) == 1 {
+		g2.Orientations[0].Fraction, blank.Orientations[0].Fraction = 0, 0
+		g2.FractionInterval, blank.FractionInterval = nil, nil
+	}
+	g, _ := json.Marshal(&g2)
+	w, _ := json.Marshal(&blank)
+	if string(g) != string(w) {
+		t.Fatalf("%s + %s (%s): DetailRow row differs from the full row\n got %s\nwant %s",
 			p.Dienes[d].SMILES, p.Dienophiles[e].SMILES, p.Activations[a], g, w)
 	}
 }

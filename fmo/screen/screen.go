@@ -21,8 +21,8 @@ type ScreenOptions struct {
 	Exhaustive bool
 	Activate   *fmo.ActivateOptions // nil: defaults (pyrrolidine for iminium, the set's O=LA for Lewis)
 	// Detail is how much of each row's Pair the full analysis fills (fmo.DetailAll, the
-	// zero value, or fmo.DetailBest for outputs that show only the preferred orientation's
-	// product); the rows and their order do not depend on it.
+	// zero value, or fmo.DetailBest / fmo.DetailRow for outputs that show only the preferred
+	// orientation's product); the rows and their order do not depend on it.
 	Detail fmo.Detail
 	// Progress, if not nil, is called concurrently from workers with the number of pairs
 	// just scored.
