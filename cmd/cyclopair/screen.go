@@ -233,6 +233,16 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 		// environment decides when set.
 		defer debug.SetGCPercent(debug.SetGCPercent(50))
 	}
+	if cfg.Top == 0 && len(lib.Dienes)+len(lib.Dienophiles) < 10_000 && os.Getenv("GOGC") == "" {
+		// Every passing pair gets the full analysis (--top 0): the rows make short-lived
+		// garbage (adducts, canonical searches, side-channel partners) over a small live
+		// heap (partners of fewer than 10,000 molecules, the ranked pairs), and at the
+		// default target the collector was about a quarter of the CPU. A target of 400 %
+		// trades a few tens of MB for it: measured on 200 × 200 of the bench library (CSV),
+		// 18.6 → 14.2 s CPU and 46 → 80 MB max RSS in one run. GOGC in the environment
+		// decides when set.
+		defer debug.SetGCPercent(debug.SetGCPercent(400))
+	}
 	prepProg := newProgress(s.rawErr, s.errIsTerminal, "prepare", int64(len(lib.Dienes)+len(lib.Dienophiles)*(1+len(cfg.Activations))))
 	prep, err := cfg.Prepare(ctx, prepProg.Add)
 	prepProg.Stop()
