@@ -15,9 +15,11 @@ import (
 // elements over the bonds, the Weisfeiler–Lehman scheme: B. Weisfeiler, A. Leman, Nauchno-
 // Tekhnicheskaya Informatsia 1968, 2(9), 12), which is equal for isomorphic graphs. Two
 // adducts whose invariants differ are different graphs, so their canonical SMILES differ too
-// (a SMILES string fixes the elements and connectivity of the graph it writes); the answers
-// are those of comparing canonical SMILES throughout. The invariant ignores bond orders,
-// charges, hydrogens and aromaticity, so it is coarser than the canonical SMILES, never finer.
+// (a SMILES string fixes the elements, isotopes, charges, hydrogen counts and connectivity
+// of the graph it writes); the answers are those of comparing canonical SMILES throughout.
+// The atoms start from those labels (atomColour); the invariant ignores bond orders and
+// aromaticity (which differ between Kekulé structures of one compound), so it is coarser
+// than the canonical SMILES, never finer.
 
 // When two invariants are equal the adducts are usually the same compound (the two
 // orientations of a symmetric partner, symmetry-equivalent units), and proving that by two
@@ -269,8 +271,9 @@ func mix64(x uint64) uint64 {
 	return x
 }
 
-// graphInvariant is equal for isomorphic molecules (elements and connectivity): three rounds
-// of colour refinement with commutative neighbour sums, then a commutative sum over atoms.
+// graphInvariant is equal for isomorphic molecules (atom labels of atomColour and
+// connectivity): colour refinement with commutative neighbour sums to the stable partition,
+// then a commutative sum over atoms.
 func graphInvariant(m *molecule.Molecule) uint64 {
 	h, _ := graphColours(m)
 	return h
@@ -281,13 +284,25 @@ func graphInvariant(m *molecule.Molecule) uint64 {
 func graphColours(m *molecule.Molecule) (uint64, []uint64) {
 	c := make([]uint64, 2*len(m.Atoms))
 	for i := range m.Atoms {
-		c[i] = maphash.String(invSeed, m.Atoms[i].Element)
+		a := &m.Atoms[i]
+		c[i] = atomColour(a.Element, a.Isotope, a.Charge, a.HCount)
 	}
 	return refineColours(c, func(f func(a, b int)) {
 		for _, b := range m.Bonds {
 			f(b.A, b.B)
 		}
 	})
+}
+
+// atomColour is an atom's initial colour: element, isotope, charge and hydrogen count, the
+// labels smiles.Canonical ranks atoms by (and writes) and which no Kekulé structure changes,
+// so adducts that differ only in where a double bond and its hydrogens sit (the same
+// skeleton) get different invariants instead of two canonical SMILES.
+func atomColour(element string, isotope, charge, hcount int) uint64 {
+	h := maphash.String(invSeed, element)
+	h = mix64(h ^ uint64(int64(isotope))*0x9e3779b97f4a7c15)
+	h = mix64(h ^ uint64(int64(charge)+0x100)*0xbf58476d1ce4e5b9)
+	return mix64(h ^ uint64(int64(hcount)+0x10000)*0x94d049bb133111eb)
 }
 
 // adductColours is graphColours of buildProduct(dp, ep, di, ei, o) computed from the
@@ -298,11 +313,14 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 	off := len(dm.Atoms)
 	n := off + len(em.Atoms)
 	c := make([]uint64, 2*n)
+	ds, es := dp.sides[di], ep.sides[ei] // the adduct's charges, as buildProduct sets them
 	for i := range dm.Atoms {
-		c[i] = maphash.String(invSeed, dm.Atoms[i].Element)
+		a := &dm.Atoms[i]
+		c[i] = atomColour(a.Element, a.Isotope, ds.charge[i], a.HCount)
 	}
 	for i := range em.Atoms {
-		c[off+i] = maphash.String(invSeed, em.Atoms[i].Element)
+		a := &em.Atoms[i]
+		c[off+i] = atomColour(a.Element, a.Isotope, es.charge[i], a.HCount)
 	}
 	nb := productBonds(dp.Units[di], ep.Units[ei], o)
 	return refineColours(c, func(f func(a, b int)) {
@@ -317,13 +335,24 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 	})
 }
 
-// refineColours runs three rounds of colour refinement with commutative neighbour sums on
-// the initial colours in the first half of c (the second half is work space) over the
-// bonds that bonds visits, then sums over atoms.
+// refineColours runs colour refinement with commutative neighbour sums on the initial
+// colours in the first half of c (the second half is work space) over the bonds that bonds
+// visits until a round splits no class (at most one round per atom), then sums over atoms.
+// Refining to the stable partition rather than a fixed three rounds tells apart adducts
+// that differ far from any distinctive atom (regio-isomers on a large ring system), and
+// makes the colour classes small enough for searchBounded where the three-round classes
+// still lumped atoms that no symmetry relates: both were canonical SMILES computed only to
+// compare two adducts. The number of rounds depends only on the class counts, which are
+// the same for isomorphic graphs, so equal graphs still get equal invariants and colours;
+// every class remains a union of classes of smiles.Canonical's refined partition (its
+// refinement starts from finer atom labels and also splits by neighbour classes to
+// stability, and a hash collision can only merge classes), which is what searchBounded
+// relies on.
 func refineColours(c []uint64, bonds func(f func(a, b int))) (uint64, []uint64) {
 	n := len(c) / 2
 	cur, nxt := c[:n], c[n:]
-	for range 3 {
+	classes := countClasses(cur)
+	for range max(n, 3) {
 		for i := range nxt {
 			nxt[i] = cur[i] * 0x9e3779b97f4a7c15
 		}
@@ -334,11 +363,30 @@ func refineColours(c []uint64, bonds func(f func(a, b int))) (uint64, []uint64) 
 		for i := range nxt {
 			nxt[i] = mix64(nxt[i])
 		}
+		k := countClasses(nxt)
+		if k <= classes {
+			break // stable: cur's partition (nxt's colours are a relabelling of it)
+		}
 		cur, nxt = nxt, cur
+		classes = k
 	}
 	var h uint64
 	for _, v := range cur {
 		h += mix64(v ^ 0x5851f42d4c957f2d)
 	}
 	return h, cur
+}
+
+// countClasses is the number of distinct values in c.
+func countClasses(c []uint64) int {
+	var buf [128]uint64
+	s := append(buf[:0], c...)
+	slices.Sort(s)
+	k := 0
+	for i, v := range s {
+		if i == 0 || v != s[i-1] {
+			k++
+		}
+	}
+	return k
 }
