@@ -145,3 +145,44 @@ func TestCalibrateRatesWritesDomain(t *testing.T) {
 		}
 	}
 }
+
+// screen --in-domain prints only rates the model can vouch for: on the demo file every CSV
+// row then has rate_in_domain true and the header states the filter; under --method ppp,
+// where the rate model does not apply, the flag is a usage error naming the reason.
+func TestScreenInDomainFlag(t *testing.T) {
+	name, data := presets.DemoFile()
+	path := filepath.Join(t.TempDir(), filepath.Base(name))
+	if err := os.WriteFile(path, data, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errOut, code := runCLI(t, "", "screen", path, "--in-domain", "--top", "0", "--format", "csv")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	recs, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := -1
+	for i, h := range recs[0] {
+		if h == "rate_in_domain" {
+			col = i
+		}
+	}
+	if col < 0 || len(recs) < 2 {
+		t.Fatalf("no rate_in_domain column or no rows: %v", recs[0])
+	}
+	for _, r := range recs[1:] {
+		if r[col] != "true" {
+			t.Errorf("row %v: rate_in_domain %q under --in-domain", r[:7], r[col])
+		}
+	}
+	tab, _, code := runCLI(t, "", "screen", path, "--in-domain")
+	if code != 0 || !strings.Contains(tab, "# filters: rate inside the model's applicability domain only") || strings.Contains(tab, "extrapolated") {
+		t.Errorf("table under --in-domain (exit %d) lacks the filter line or shows extrapolated rates:\n%s", code, tab)
+	}
+	_, errOut, code = runCLI(t, "", "screen", path, "--in-domain", "--method", "ppp", "--rank-by", "score")
+	if code != 2 || !strings.Contains(errOut, "--in-domain") || !strings.Contains(errOut, "Hückel descriptors") {
+		t.Errorf("--in-domain with --method ppp: exit %d, %q", code, errOut)
+	}
+}

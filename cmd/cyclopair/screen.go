@@ -37,6 +37,7 @@ type screenOptions struct {
 	minRegioMargin float64
 	maxGap         float64
 	allowedOnly    bool
+	inDomain       bool
 	format         string
 	workers        int
 	shard          string
@@ -122,6 +123,7 @@ func addScreenFlags(cmd *cobra.Command, o *screenOptions) {
 	f.Float64Var(&o.minRegioMargin, "min-regio-margin", 0, "keep only pairs whose regio margin is at least `X` |β|")
 	f.Float64Var(&o.maxGap, "max-gap", 0, "keep only pairs whose controlling gap is at most `X` |β|")
 	f.BoolVar(&o.allowedOnly, "allowed-only", false, "keep only symmetry-allowed pairings")
+	f.BoolVar(&o.inDomain, "in-domain", false, "keep only pairs whose predicted rate is inside the rate model's applicability domain (not extrapolated)")
 	f.StringVar(&o.format, "format", "table", "output `format`: table, csv, json (JSON Lines), markdown, html, sdf (each row's product as an SD record)")
 	f.IntVar(&o.workers, "workers", 0, "`N` worker goroutines (0: all cores)")
 	f.StringVar(&o.shard, "shard", "", "screen only shard `i/n` of the pair space (outputs of 1..n concatenate when unranked)")
@@ -186,6 +188,9 @@ func screenRequest(s *streams, o *screenOptions, data []byte) screen.Request {
 	}
 	if changed("allowed-only") {
 		req.AllowedOnly = &o.allowedOnly
+	}
+	if changed("in-domain") {
+		req.InDomain = &o.inDomain
 	}
 	return req
 }
@@ -301,7 +306,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	space := prep.Space()
 	lo, hi := cfg.Shard.Range(space.Len())
 	if cfg.Top == 0 && hi-lo > 100_000 {
-		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (milliseconds each); --top K prints only the best K\n", hi-lo)
+		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (about half a millisecond of CPU each; 160,000 rows take minutes); --top K prints only the best K\n", hi-lo)
 	}
 	prog := newProgress(s.rawErr, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)

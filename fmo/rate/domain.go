@@ -170,7 +170,14 @@ func Leverage(a [][]float64, x []float64) float64 {
 
 // leverageOf is the leverage of descriptor vector v in d.
 func (d *Domain) leverageOf(v [NumTerms]float64) float64 {
-	return Leverage(d.LevInv, append([]float64{1}, pick(v, d.LevTerms)...))
+	var x [NumTerms + 1]float64 // [1, v of the leverage terms], without allocating
+	x[0] = 1
+	n := 1
+	for _, j := range d.LevTerms {
+		x[n] = v[j]
+		n++
+	}
+	return Leverage(d.LevInv, x[:n])
 }
 
 // DomainCheck is the applicability-domain verdict on one prediction.
@@ -222,6 +229,26 @@ func termValue(j int, v float64) float64 {
 	return v
 }
 
+// domainTol is the tolerance of the domain's range and leverage tests: the model file's
+// rounding.
+const domainTol = 1e-6
+
+// Inside reports CheckDomain(d).In without building the reasons: no allocation, for the
+// screen's in_domain filter, which asks it of every pair that passes the other filters.
+func (m *Model) Inside(d *Descriptors) bool {
+	if d.Gap <= 0 || d.FirstOrder || m.Domain == nil {
+		return false
+	}
+	dom := m.Domain
+	v := d.Vector()
+	for j := range NumTerms {
+		if m.rangeTermUsed(j) && !(v[j] >= dom.Min[j]-domainTol && v[j] <= dom.Max[j]+domainTol) {
+			return false
+		}
+	}
+	return len(dom.LevInv) == 0 || !(dom.leverageOf(v) > dom.Warning+domainTol)
+}
+
 // CheckDomain places descriptors d against the model's domain.
 func (m *Model) CheckDomain(d *Descriptors) DomainCheck {
 	v := d.Vector()
@@ -238,7 +265,7 @@ func (m *Model) CheckDomain(d *Descriptors) DomainCheck {
 		c.In = false
 		return c
 	}
-	const tol = 1e-6 // the model file's rounding
+	const tol = domainTol
 	for j := range NumTerms {
 		if !m.rangeTermUsed(j) {
 			continue

@@ -221,3 +221,71 @@ func TestBuildDomainCollinear(t *testing.T) {
 		t.Errorf("gap range %g to %g, want -0.7 to -0.5", d.Min[TermGap], d.Max[TermGap])
 	}
 }
+
+// Inside is CheckDomain's verdict without the reasons (the screen filter's fast path): the two
+// must agree on every fitted row and on rows moved in and out of the domain one descriptor at
+// a time (each descriptor scaled from 0.5× to 2× and shifted by ±0.5), with and without
+// the first-order flag and the Lewis-acid activation, and under a model without a domain.
+func TestInsideAgreesWithCheckDomain(t *testing.T) {
+	m, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	k, err := presets.Kinetics()
+	if err != nil {
+		t.Fatal(err)
+	}
+	opts, err := fmo.DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	obs, err := Observe(k, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	noDomain := *m
+	noDomain.Domain = nil
+	in, out := 0, 0
+	check := func(name string, mm *Model, d *Descriptors) {
+		t.Helper()
+		c := mm.CheckDomain(d)
+		if got := mm.Inside(d); got != c.In {
+			t.Errorf("%s: Inside %v, CheckDomain.In %v (%s)", name, got, c.In, c.Note())
+		}
+		if c.In {
+			in++
+		} else {
+			out++
+		}
+	}
+	for _, s := range obs {
+		for _, r := range s.Rows {
+			d := r.D
+			check(s.ID+"/"+r.Name, m, &d)
+			check(s.ID+"/"+r.Name+" (no domain)", &noDomain, &d)
+			for _, f := range []float64{0.5, 0.9, 1.1, 2} {
+				for _, dx := range []float64{-0.5, 0, 0.5} {
+					v := d
+					v.Gap = d.Gap*f + dx
+					v.Frontier = d.Frontier * f
+					check(s.ID+"/"+r.Name+" (gap, frontier moved)", m, &v)
+					v = d
+					v.DieneConjugation = d.DieneConjugation*f + dx
+					v.Conformation.SCis = d.Conformation.SCis * f
+					v.Conformation.Reach = d.Conformation.Reach*f + dx
+					check(s.ID+"/"+r.Name+" (diene moved)", m, &v)
+				}
+			}
+			v := d
+			v.FirstOrder = true
+			check(s.ID+"/"+r.Name+" (first order)", m, &v)
+			v = d
+			v.Activation = fmo.ActivateLewis
+			check(s.ID+"/"+r.Name+" (lewis)", m, &v)
+		}
+	}
+	if in == 0 || out == 0 {
+		t.Errorf("%d inside, %d outside: the test must see both verdicts", in, out)
+	}
+	t.Logf("%d descriptor sets inside, %d outside", in, out)
+}

@@ -73,6 +73,9 @@ func filterRange(f *substrates.Filter, b *fmo.QuickBound, thr float64) (all, non
 		}
 		all = false // the margin has no useful lower bound
 	}
+	if f.InDomain {
+		all = false // the rate model's domain is decided pair by pair
+	}
 	if f.MaxGap > 0 {
 		if b.Gap[0] > f.MaxGap+eps {
 			return false, true
@@ -346,7 +349,7 @@ func (j *preparedJob) bounded(ctx context.Context, workers, top int, lo, hi int6
 							}
 							q := quick.Score(diene, v)
 							loc.kernel++
-							if !passes(&j.flt, &q) {
+							if !j.passes(int(d), &q) {
 								continue
 							}
 							loc.passN++

@@ -55,9 +55,12 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 		{MaxGap: 0.9},
 		{MinRegioMargin: 0.01},
 		{Demand: "normal", MaxGap: 1.2, MinRegioMargin: 0.002},
+		{InDomain: true},
+		{InDomain: true, Demand: "normal", MaxGap: 1.0},
 	}
 	pruned, total := int64(0), int64(0)
 	ratePruned, rateTotal := int64(0), int64(0)
+	inDomainRows := 0 // rows selected under an in_domain filter: that filter must be exercised
 	for _, seed := range []uint64{3, 17} {
 		lib := testsupport.SyntheticLibrary(70, 90, seed)
 		lib.Activations = []string{fmo.ActivateNone, fmo.ActivateLewis, fmo.ActivateIminium}
@@ -85,6 +88,9 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 					if gst.Scored != wst.Scored || gst.Missing != wst.Missing || gst.Passed != wst.Passed {
 						t.Errorf("%s: counts %+v, exhaustive %+v", name, gst, wst)
 					}
+					if flt.InDomain {
+						inDomainRows += len(want)
+					}
 					if len(want) == 0 && fi == 0 {
 						t.Errorf("%s: empty selection", name)
 					}
@@ -108,6 +114,9 @@ func TestBoundedEqualsExhaustive(t *testing.T) {
 		t.Errorf("top 1 without filters: only %d of %d pairs skipped", pruned, total)
 	}
 	t.Logf("rate, top 1 without filters: %d of %d pairs skipped", ratePruned, rateTotal)
+	if inDomainRows == 0 {
+		t.Error("no pair passed an in_domain filter: the filter's bound path is not exercised")
+	}
 }
 
 // Bound admissibility, directly: for random pairs, every QuickScore number lies in the ranges
@@ -155,4 +164,48 @@ func TestQuickBoundAdmissible(t *testing.T) {
 	if n < 1000 {
 		t.Errorf("only %d pairs checked", n)
 	}
+}
+
+// The in_domain filter keeps exactly the pairs whose printed rate is inside the rate model's
+// applicability domain: on the demo (whose unfiltered top 20 holds eight extrapolated Lewis-
+// acid quinone and anthracene rows), every row the filtered screen prints carries
+// rate.in_domain true, the rows it drops are the out-of-domain ones of the full screen, and
+// the filter removes some rows but not all.
+func TestInDomainFilter(t *testing.T) {
+	p := demoPrepared(t)
+	rows := func(flt substrates.Filter) []*fmo.Pair {
+		var out []*fmo.Pair
+		_, err := p.Screen(context.Background(), ScreenOptions{RankBy: RankRate, Filter: flt, Workers: 2},
+			func(r ScreenRow) error { out = append(out, r.Pair); return nil }, func(f ScreenFailure) { t.Errorf("failure %v", f) })
+		if err != nil {
+			t.Fatal(err)
+		}
+		return out
+	}
+	all, kept := rows(substrates.Filter{}), rows(substrates.Filter{InDomain: true})
+	in := 0
+	for _, r := range all {
+		if r.Rate == nil {
+			t.Fatalf("%s + %s: no rate", r.DieneName, r.DienophileName)
+		}
+		if r.Rate.InDomain {
+			in++
+		}
+	}
+	if len(kept) != in || in == 0 || in == len(all) {
+		t.Fatalf("filtered screen prints %d rows; the full screen has %d rows, %d inside the domain", len(kept), len(all), in)
+	}
+	j := 0
+	for _, r := range all {
+		if !r.Rate.InDomain {
+			continue
+		}
+		k := kept[j]
+		j++
+		if k.DieneName != r.DieneName || k.DienophileName != r.DienophileName || k.Activation != r.Activation || !k.Rate.InDomain {
+			t.Errorf("row %d: filtered %s + %s (%s, in domain %v), want %s + %s (%s)", j, k.DieneName, k.DienophileName,
+				k.Activation, k.Rate.InDomain, r.DieneName, r.DienophileName, r.Activation)
+		}
+	}
+	t.Logf("demo: %d of %d pairs inside the rate model's domain", in, len(all))
 }

@@ -42,6 +42,7 @@ type Request struct {
 	MinRegioMargin *float64
 	MaxGap         *float64
 	AllowedOnly    *bool
+	InDomain       *bool // keep only pairs whose rate is inside the model's applicability domain
 
 	Params      string // parameter set name or file; "" keeps the file's (else the default)
 	Calibration string // "default" or a calibration file; "" keeps the file's (else default)
@@ -165,6 +166,13 @@ func Resolve(req Request) (*Config, error) {
 			return nil, fmt.Errorf("%s: rank_by: rate: %v", c.Library.Where("rank_by"), rate.ErrMethod)
 		}
 		c.RankBy = RankScore // the default key under another method (see DEVELOPERS.md)
+	}
+	if c.Method != huckel.MethodHuckel && c.Filter.InDomain {
+		// the domain is the rate model's, which does not apply under another method
+		if req.InDomain != nil {
+			return nil, usage("--in-domain: %v", rate.ErrMethod)
+		}
+		return nil, fmt.Errorf("%s: filter: in_domain: %v", c.Library.Where("filter"), rate.ErrMethod)
 	}
 	switch {
 	case req.Amine != "":
@@ -335,6 +343,9 @@ func (c *Config) settings(req Request) error {
 	}
 	if req.AllowedOnly != nil {
 		c.Filter.AllowedOnly = *req.AllowedOnly
+	}
+	if req.InDomain != nil {
+		c.Filter.InDomain = *req.InDomain
 	}
 	return nil
 }

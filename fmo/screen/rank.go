@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"cyclopair/fmo"
+	"cyclopair/fmo/rate"
 	"cyclopair/fmo/substrates"
 )
 
@@ -81,6 +82,20 @@ func rankValue(key RankKey, q *fmo.Quick) float64 {
 		return -q.Best
 	}
 	return q.GapNormal
+}
+
+// passes applies the QuickScore filters to pair q of diene d and, with the in_domain filter,
+// the rate model's applicability domain (rate.Model.Inside on the pair's QuickScore
+// descriptors: the same verdict the printed row's rate carries).
+func (j *preparedJob) passes(d int, q *fmo.Quick) bool {
+	if !passes(&j.flt, q) {
+		return false
+	}
+	if !j.flt.InDomain {
+		return true
+	}
+	fd := rate.FromQuick(q, j.p.dieneConf[d][q.DieneUnit], q.Activation)
+	return j.p.rate.Inside(&fd)
 }
 
 // passes applies the filters that QuickScore can decide.

@@ -93,7 +93,7 @@ func (j *preparedJob) scoreChunk(_ int, lo, hi int64, out []chunkScore) {
 			} else {
 				key = rankValue(j.rank, &q)
 			}
-			out[i] = chunkScore{key: key, pass: passes(&j.flt, &q), ok: true}
+			out[i] = chunkScore{key: key, pass: j.passes(d, &q), ok: true}
 		}
 		if a++; a == na {
 			a = 0

@@ -72,6 +72,9 @@ type Filter struct {
 	MinRegioMargin float64 // |β|; 0 keeps all
 	MaxGap         float64 // controlling gap at most this, |β|; 0 = no limit
 	AllowedOnly    bool    // keep only symmetry-allowed pairings
+	// InDomain keeps only pairs whose predicted rate lies inside the rate model's
+	// applicability domain (fmo/rate: not extrapolated).
+	InDomain bool
 }
 
 // Describe lists the filters in force in words, in a fixed order.
@@ -88,6 +91,9 @@ func (f Filter) Describe() []string {
 	}
 	if f.AllowedOnly {
 		out = append(out, "symmetry-allowed only")
+	}
+	if f.InDomain {
+		out = append(out, "rate inside the model's applicability domain only")
 	}
 	return out
 }

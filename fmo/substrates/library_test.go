@@ -31,7 +31,7 @@ dienophiles:
 activations: [none, lewis, lewis]
 params: streitwieser1961
 calibration: default
-filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.5, allowed_only: true}
+filter: {demand: normal, min_regio_margin: 0.01, max_gap: 1.5, allowed_only: true, in_domain: true}
 rank_by: stabilization
 top: 7
 `
@@ -57,7 +57,7 @@ func TestLoadLibraryGood(t *testing.T) {
 	if got := strings.Join(lib.Activations, ","); got != "none,lewis" {
 		t.Errorf("activations = %q (duplicates must collapse)", got)
 	}
-	want := Filter{Demand: "normal", MinRegioMargin: 0.01, MaxGap: 1.5, AllowedOnly: true}
+	want := Filter{Demand: "normal", MinRegioMargin: 0.01, MaxGap: 1.5, AllowedOnly: true, InDomain: true}
 	if lib.Filter != want || lib.RankBy != "stabilization" || lib.Top != 7 || lib.Params != "streitwieser1961" || lib.Calibration != "default" || lib.Title != "test screen" {
 		t.Errorf("settings = %+v", lib)
 	}

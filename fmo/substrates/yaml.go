@@ -142,6 +142,7 @@ type fileSchema struct {
 		MinRegioMargin float64 `yaml:"min_regio_margin"`
 		MaxGap         float64 `yaml:"max_gap"`
 		AllowedOnly    bool    `yaml:"allowed_only"`
+		InDomain       bool    `yaml:"in_domain"`
 	} `yaml:"filter"`
 	RankBy string `yaml:"rank_by"`
 	Top    int    `yaml:"top"`
@@ -158,7 +159,7 @@ type entrySchema struct {
 var (
 	topKeys    = []string{"title", "description", "dienes", "dienophiles", "activations", "amine", "params", "params_file", "calibration", "method", "ppp_params", "filter", "rank_by", "top"}
 	entryKeys  = []string{"name", "smiles", "pin", "notes", "preset"}
-	filterKeys = []string{"demand", "min_regio_margin", "max_gap", "allowed_only"}
+	filterKeys = []string{"demand", "min_regio_margin", "max_gap", "allowed_only", "in_domain"}
 )
 
 func strictDecode(data []byte) error {
@@ -404,6 +405,8 @@ func (w *walker) filter(n *yaml.Node) Filter {
 			}
 		case "allowed_only":
 			f.AllowedOnly, _ = w.bool(v, path, &w.fatal)
+		case "in_domain":
+			f.InDomain, _ = w.bool(v, path, &w.fatal)
 		default:
 			w.fail(k, "filter", ErrUnknownKey, fmt.Sprintf("unknown key %q", k.Value),
 				"known keys: "+strings.Join(filterKeys, ", ")+suggest(k.Value, filterKeys))

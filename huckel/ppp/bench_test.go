@@ -26,62 +26,47 @@ var benchMolecules = []string{
 // same loop so that machine load affects both alike. x_huckel is PPP time / Hückel time.
 // Run: go test ./huckel/ppp -run XXX -bench Pipeline -cpu 1
 func BenchmarkPipeline(b *testing.B) {
-	hp, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		b.Fatal(err)
-	}
-	pp, err := presets.PPPParams(presets.DefaultPPP)
-	if err != nil {
-		b.Fatal(err)
-	}
-	for _, smi := range benchMolecules {
-		m0, _ := smiles.Parse(smi)
-		ps0, err := huckel.Perceive(m0, hp)
-		if err != nil {
-			b.Fatal(err)
-		}
-		b.Run(fmt.Sprintf("centres=%d", len(ps0.Centres)), func(b *testing.B) {
-			s := ppp.NewSolver(pp)
-			var hs huckel.Solver
-			var o, h huckel.Orbitals
-			var tPPP, tHuckel time.Duration
-			iters := 0
-			b.ReportAllocs()
-			for b.Loop() {
-				t0 := time.Now()
-				m, err := smiles.Parse(smi)
-				if err != nil {
-					b.Fatal(err)
-				}
-				ps, err := huckel.Perceive(m, hp)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if err := s.Solve(ps, &o); err != nil {
-					b.Fatal(err)
-				}
-				t1 := time.Now()
-				m, err = smiles.Parse(smi)
-				if err != nil {
-					b.Fatal(err)
-				}
-				ps, err = huckel.Perceive(m, hp)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if err := hs.Solve(ps, &h); err != nil {
-					b.Fatal(err)
-				}
-				tPPP += t1.Sub(t0)
-				tHuckel += time.Since(t1)
-				iters += s.Stats().Iterations
+	eachBenchMolecule(b, func(b *testing.B, smi string, _ *huckel.PiSystem, hp *huckel.Params, pp *ppp.Params) {
+		s := ppp.NewSolver(pp)
+		var hs huckel.Solver
+		var o, h huckel.Orbitals
+		var tPPP, tHuckel time.Duration
+		iters := 0
+		b.ReportAllocs()
+		for b.Loop() {
+			t0 := time.Now()
+			m, err := smiles.Parse(smi)
+			if err != nil {
+				b.Fatal(err)
 			}
-			b.ReportMetric(float64(b.N)/tPPP.Seconds(), "ppp_molecules/s")
-			b.ReportMetric(float64(b.N)/tHuckel.Seconds(), "huckel_molecules/s")
-			b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel")
-			b.ReportMetric(float64(iters)/float64(b.N), "scf_cycles")
-		})
-	}
+			ps, err := huckel.Perceive(m, hp)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if err := s.Solve(ps, &o); err != nil {
+				b.Fatal(err)
+			}
+			t1 := time.Now()
+			m, err = smiles.Parse(smi)
+			if err != nil {
+				b.Fatal(err)
+			}
+			ps, err = huckel.Perceive(m, hp)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if err := hs.Solve(ps, &h); err != nil {
+				b.Fatal(err)
+			}
+			tPPP += t1.Sub(t0)
+			tHuckel += time.Since(t1)
+			iters += s.Stats().Iterations
+		}
+		b.ReportMetric(float64(b.N)/tPPP.Seconds(), "ppp_molecules/s")
+		b.ReportMetric(float64(b.N)/tHuckel.Seconds(), "huckel_molecules/s")
+		b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel")
+		b.ReportMetric(float64(iters)/float64(b.N), "scf_cycles")
+	})
 }
 
 // BenchmarkPipelineCPU is BenchmarkPipeline timed by the CPU clock of the benchmark's
@@ -94,70 +79,55 @@ func BenchmarkPipeline(b *testing.B) {
 // Run: go test ./huckel/ppp -run XXX -bench PipelineCPU -cpu 1
 func BenchmarkPipelineCPU(b *testing.B) {
 	const cpuBatch = 8
-	hp, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		b.Fatal(err)
-	}
-	pp, err := presets.PPPParams(presets.DefaultPPP)
-	if err != nil {
-		b.Fatal(err)
-	}
-	for _, smi := range benchMolecules {
-		m0, _ := smiles.Parse(smi)
-		ps0, err := huckel.Perceive(m0, hp)
-		if err != nil {
-			b.Fatal(err)
+	eachBenchMolecule(b, func(b *testing.B, smi string, _ *huckel.PiSystem, hp *huckel.Params, pp *ppp.Params) {
+		runtime.LockOSThread() // the thread clock must stay with this goroutine
+		defer runtime.UnlockOSThread()
+		s := ppp.NewSolver(pp)
+		var hs huckel.Solver
+		var o, h huckel.Orbitals
+		var tPPP, tHuckel time.Duration
+		b.ReportAllocs()
+		for b.Loop() {
+			t0 := threadCPU()
+			for range cpuBatch {
+				m, err := smiles.Parse(smi)
+				if err != nil {
+					b.Fatal(err)
+				}
+				ps, err := huckel.Perceive(m, hp)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if err := s.Solve(ps, &o); err != nil {
+					b.Fatal(err)
+				}
+			}
+			t1 := threadCPU()
+			for range cpuBatch {
+				m, err := smiles.Parse(smi)
+				if err != nil {
+					b.Fatal(err)
+				}
+				ps, err := huckel.Perceive(m, hp)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if err := hs.Solve(ps, &h); err != nil {
+					b.Fatal(err)
+				}
+			}
+			t2 := threadCPU()
+			tPPP += t1 - t0
+			tHuckel += t2 - t1
 		}
-		b.Run(fmt.Sprintf("centres=%d", len(ps0.Centres)), func(b *testing.B) {
-			runtime.LockOSThread() // the thread clock must stay with this goroutine
-			defer runtime.UnlockOSThread()
-			s := ppp.NewSolver(pp)
-			var hs huckel.Solver
-			var o, h huckel.Orbitals
-			var tPPP, tHuckel time.Duration
-			b.ReportAllocs()
-			for b.Loop() {
-				t0 := threadCPU()
-				for range cpuBatch {
-					m, err := smiles.Parse(smi)
-					if err != nil {
-						b.Fatal(err)
-					}
-					ps, err := huckel.Perceive(m, hp)
-					if err != nil {
-						b.Fatal(err)
-					}
-					if err := s.Solve(ps, &o); err != nil {
-						b.Fatal(err)
-					}
-				}
-				t1 := threadCPU()
-				for range cpuBatch {
-					m, err := smiles.Parse(smi)
-					if err != nil {
-						b.Fatal(err)
-					}
-					ps, err := huckel.Perceive(m, hp)
-					if err != nil {
-						b.Fatal(err)
-					}
-					if err := hs.Solve(ps, &h); err != nil {
-						b.Fatal(err)
-					}
-				}
-				t2 := threadCPU()
-				tPPP += t1 - t0
-				tHuckel += t2 - t1
-			}
-			if !threadCPUClock {
-				b.Log("no thread CPU clock on this system: wall clock")
-			}
-			n := float64(b.N * cpuBatch)
-			b.ReportMetric(n/tPPP.Seconds(), "ppp_cpu_molecules/s")
-			b.ReportMetric(n/tHuckel.Seconds(), "huckel_cpu_molecules/s")
-			b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel_cpu")
-		})
-	}
+		if !threadCPUClock {
+			b.Log("no thread CPU clock on this system: wall clock")
+		}
+		n := float64(b.N * cpuBatch)
+		b.ReportMetric(n/tPPP.Seconds(), "ppp_cpu_molecules/s")
+		b.ReportMetric(n/tHuckel.Seconds(), "huckel_cpu_molecules/s")
+		b.ReportMetric(tPPP.Seconds()/tHuckel.Seconds(), "x_huckel_cpu")
+	})
 }
 
 // BenchmarkSolve measures Solver.Solve alone (2D layout and SCF, reused Solver and
@@ -165,6 +135,25 @@ func BenchmarkPipelineCPU(b *testing.B) {
 // time per solve (see BenchmarkPipelineCPU).
 // Run: go test ./huckel/ppp -run XXX -bench Solve -cpu 1
 func BenchmarkSolve(b *testing.B) {
+	eachBenchMolecule(b, func(b *testing.B, _ string, ps *huckel.PiSystem, _ *huckel.Params, pp *ppp.Params) {
+		runtime.LockOSThread()
+		defer runtime.UnlockOSThread()
+		s := ppp.NewSolver(pp)
+		var o huckel.Orbitals
+		b.ReportAllocs()
+		t0 := threadCPU()
+		for b.Loop() {
+			if err := s.Solve(ps, &o); err != nil {
+				b.Fatal(err)
+			}
+		}
+		b.ReportMetric(float64(threadCPU()-t0)/float64(b.N), "cpu_ns/solve")
+	})
+}
+
+// eachBenchMolecule runs f as a sub-benchmark "centres=N" for every benchMolecules entry,
+// with the default Hückel and PPP parameter sets and the molecule's perceived π system.
+func eachBenchMolecule(b *testing.B, f func(b *testing.B, smi string, ps *huckel.PiSystem, hp *huckel.Params, pp *ppp.Params)) {
 	hp, err := presets.Params(presets.DefaultParams)
 	if err != nil {
 		b.Fatal(err)
@@ -174,24 +163,14 @@ func BenchmarkSolve(b *testing.B) {
 		b.Fatal(err)
 	}
 	for _, smi := range benchMolecules {
-		m, _ := smiles.Parse(smi)
+		m, err := smiles.Parse(smi)
+		if err != nil {
+			b.Fatal(err)
+		}
 		ps, err := huckel.Perceive(m, hp)
 		if err != nil {
 			b.Fatal(err)
 		}
-		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) {
-			runtime.LockOSThread()
-			defer runtime.UnlockOSThread()
-			s := ppp.NewSolver(pp)
-			var o huckel.Orbitals
-			b.ReportAllocs()
-			t0 := threadCPU()
-			for b.Loop() {
-				if err := s.Solve(ps, &o); err != nil {
-					b.Fatal(err)
-				}
-			}
-			b.ReportMetric(float64(threadCPU()-t0)/float64(b.N), "cpu_ns/solve")
-		})
+		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) { f(b, smi, ps, hp, pp) })
 	}
 }
