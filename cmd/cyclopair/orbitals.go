@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"runtime"
+	"slices"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -116,7 +117,7 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 	failed, total := 0, 0
 	var single error
 	handle := func(in orbitalsInput) error {
-		res, err := computeOrbitals(in, p, opts, solver)
+		res, err := computeOrbitals(in, p, opts, solver, nil)
 		return emit(in, res, err)
 	}
 	emit = func(in orbitalsInput, res *orbitalsResult, err error) error {
@@ -130,7 +131,7 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 			fmt.Fprintf(s.err, "cyclopair: %v\n", err)
 			return nil
 		}
-		for _, w := range res.orb.Warnings {
+		for _, w := range res.warnings() {
 			fmt.Fprintf(s.err, "cyclopair: %s: warning: %s\n", errtext.Clip(in.smiles), w)
 		}
 		return out.write(res)
@@ -152,7 +153,8 @@ func runOrbitals(s *streams, opts *orbitalsOptions, args []string) error {
 		if opts.format == "json" {
 			batch.format = func(r *orbitalsResult) {
 				j := toJSON(r, p, cal)
-				r.line = append(appendOrbitalsJSON(nil, &j), '\n')
+				buf := jsonLines.Get().(*[]byte)
+				r.line = append(appendOrbitalsJSON((*buf)[:0], &j), '\n')
 			}
 		}
 		for sc.Scan() {
@@ -214,14 +216,26 @@ type orbitalsResult struct {
 	ps  *huckel.PiSystem
 	orb *huckel.Orbitals
 	// line is the result's JSON line, formatted by the batch worker that solved it so the
-	// writer only copies bytes (nil when the output is not JSON).
+	// writer only copies bytes (nil when the output is not JSON). Such a result keeps no
+	// orbitals (orb is nil: the worker reuses its own) and carries their warnings in warn.
 	line []byte
+	warn []string
+}
+
+// warnings are the solved molecule's warnings, for stderr.
+func (r *orbitalsResult) warnings() []string {
+	if r.orb == nil {
+		return r.warn
+	}
+	return r.orb.Warnings
 }
 
 // computeOrbitals parses, perceives and solves one input. Errors are formatted as
 // "<SMILES>: [line N, ]<position>: <what> (<hint>)", with the SMILES excerpt and caret on
 // the following lines for syntax errors.
-func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver huckel.Method) (*orbitalsResult, error) {
+//
+// into, when not nil, receives the orbitals (reusing its buffers); nil allocates new ones.
+func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, solver huckel.Method, into *huckel.Orbitals) (*orbitalsResult, error) {
 	where := errtext.Clip(in.smiles)
 	if in.line > 0 {
 		where = fmt.Sprintf("%s: line %d", where, in.line)
@@ -249,7 +263,10 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 	if len(ps.Centres) == 0 {
 		return nil, fmt.Errorf("%s: %s", where, noPiSystem(ps, "compute"))
 	}
-	o := new(huckel.Orbitals)
+	o := into
+	if o == nil {
+		o = new(huckel.Orbitals)
+	}
 	if err := solver.Solve(ps, o); err != nil {
 		return nil, fmt.Errorf("%s: %v (try without --omega or with a smaller value)", where, err)
 	}
@@ -261,6 +278,11 @@ func computeOrbitals(in orbitalsInput, p *huckel.Params, opts *orbitalsOptions, 
 func indent(s string) string {
 	return "  " + strings.ReplaceAll(s, "\n", "\n  ")
 }
+
+// jsonLines recycles the JSON line buffers the batch workers format into and the writer
+// empties (orbitalsWriter.write): without it every line grew from nothing, and growing and
+// clearing the slices was a quarter of the CPU of 5,000 molecules as JSON.
+var jsonLines = sync.Pool{New: func() any { b := make([]byte, 0, 8<<10); return &b }}
 
 // orbitalsBatch computes the molecules of a stdin batch on all cores (one solver workspace
 // per worker) and hands the results on in input order, so output and messages are the same
@@ -308,14 +330,20 @@ func (b *orbitalsBatch) run(emit func(orbitalsInput, *orbitalsResult, error) err
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			var orb *huckel.Orbitals // reused when the worker formats the result itself
+			if b.format != nil {
+				orb = new(huckel.Orbitals)
+			}
 			for {
 				i := int(next.Add(1) - 1)
 				if i >= n {
 					return
 				}
-				b.res[i], b.errs[i] = computeOrbitals(b.ins[i], b.p, b.opts, b.solvers[w])
-				if b.errs[i] == nil && b.format != nil {
-					b.format(b.res[i])
+				b.res[i], b.errs[i] = computeOrbitals(b.ins[i], b.p, b.opts, b.solvers[w], orb)
+				if r := b.res[i]; b.errs[i] == nil && b.format != nil {
+					b.format(r)
+					r.warn = slices.Clone(r.orb.Warnings)
+					r.orb, r.ps = nil, nil
 				}
 			}
 		}()

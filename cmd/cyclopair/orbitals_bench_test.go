@@ -43,7 +43,7 @@ func BenchmarkOrbitalsBatch(b *testing.B) {
 	var records []orbitalsJSON
 	solver := new(huckel.Solver)
 	for _, x := range ins {
-		r, err := computeOrbitals(x, p, opts, solver)
+		r, err := computeOrbitals(x, p, opts, solver, nil)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -70,7 +70,7 @@ func BenchmarkOrbitalsBatch(b *testing.B) {
 		t3 := time.Now()
 		var out bytes.Buffer
 		for _, x := range ins {
-			r, _ := computeOrbitals(x, p, opts, solver)
+			r, _ := computeOrbitals(x, p, opts, solver, nil)
 			line, _ := json.Marshal(toJSON(r, p, cal))
 			out.Write(line)
 		}

@@ -183,6 +183,9 @@ func (ow *orbitalsWriter) write(r *orbitalsResult) error {
 	case "json":
 		if r.line != nil {
 			_, err := ow.w.Write(r.line)
+			line := r.line[:0]
+			r.line = nil
+			jsonLines.Put(&line)
 			return err
 		}
 		j := toJSON(r, ow.p, ow.cal)

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"math"
+	"strings"
 	"testing"
 
 	"cyclopair/huckel"
@@ -38,14 +39,14 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 		{smiles: "C1=CC=C1", name: "cyclobutadiene"}, {smiles: "[CH2-]C=C"}, {smiles: "C=CC=C.C=O", name: "two\tparts\n"},
 		{smiles: "O=C1C=CC(=O)C=C1", name: "p-benzoquinone \u2028 \xff"}, {smiles: "c1ccc2ccccc2c1"},
 	} {
-		res, err := computeOrbitals(in, p, opts, solver)
+		res, err := computeOrbitals(in, p, opts, solver, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
 		check(toJSON(res, p, cal))
 	}
 	omega := &orbitalsOptions{omega: 1.4, omegaSet: true}
-	res, err := computeOrbitals(orbitalsInput{smiles: "C=C[CH2+]"}, p, omega, solver)
+	res, err := computeOrbitals(orbitalsInput{smiles: "C=C[CH2+]"}, p, omega, solver, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -58,4 +59,40 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 	check(orbitalsJSON{SMILES: "\x01\x1f", PiEnergy: num(math.NaN()), Omega: num(math.Inf(-1)), Calibration: calJSON(cal)})
 	check(orbitalsJSON{HOMO: &frontierJSON{Index: 2, X: -0.0000001}, SOMO: &frontierJSON{Set: []int{}},
 		Levels: []levelJSON{{X: 1, Coefficients: nil}, {Coefficients: []num{0.5, -0.5}}}, Centres: []centreJSON{{Element: "N", Type: "N2"}}, Warnings: []string{"w<1>"}})
+}
+
+// The stdin batch formats JSON on its workers, which reuse one Orbitals each: a molecule's
+// warnings must still be its own. Cyclobutadiene (half-filled degenerate pair: an open-shell
+// warning) between closed-shell molecules warns once per cyclobutadiene line, and only there.
+func TestOrbitalsBatchWarningsStayWithTheirMolecule(t *testing.T) {
+	var in strings.Builder
+	n := 0
+	for i := range 600 { // more than one batch, so every worker solves both kinds
+		if i%7 == 3 {
+			in.WriteString("C1=CC=C1 cbd\n")
+			n++
+		} else {
+			in.WriteString("C=CC=C butadiene\n")
+		}
+	}
+	out, errOut, code := runCLI(t, in.String(), "orbitals", "-", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	lines := strings.Split(strings.TrimSpace(errOut), "\n")
+	if len(lines) != n {
+		t.Fatalf("%d warning lines for %d cyclobutadiene inputs:\n%s", len(lines), n, errOut)
+	}
+	for _, l := range lines {
+		if !strings.HasPrefix(l, "cyclopair: C1=CC=C1: warning: ") {
+			t.Errorf("warning on the wrong molecule: %s", l)
+		}
+	}
+	for i, l := range strings.Split(strings.TrimSpace(out), "\n") {
+		cbd := strings.Contains(l, `"name":"cbd"`)
+		warned := !strings.Contains(l, `"warnings":[]`)
+		if cbd != warned {
+			t.Errorf("JSON line %d: cyclobutadiene %v, warnings shown %v: %.200s", i+1, cbd, warned, l)
+		}
+	}
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -640,5 +641,44 @@ func TestSolveAtAllocs(t *testing.T) {
 		}
 	}); a != 0 {
 		t.Errorf("%.0f allocations per warm Solve (layout included)", a)
+	}
+}
+
+// A reused Orbitals carries no warning of the molecule solved before it: an open-shell
+// system (cyclobutadiene, half-filled degenerate pair: a warning) followed by a closed-shell
+// one (butadiene) leaves the second with the warnings of a fresh solve (none).
+func TestSolveReusedOrbitalsWarnings(t *testing.T) {
+	hp, err := presets.Params(presets.DefaultParams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pp, err := presets.PPPParams(presets.DefaultPPP)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := ppp.NewSolver(pp)
+	var reused huckel.Orbitals
+	warned := false
+	for _, smi := range []string{"C1=CC=C1", "C=CC=C"} {
+		m, err := smiles.Parse(smi)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ps, err := huckel.Perceive(m, hp)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var fresh huckel.Orbitals
+		errF, errR := s.Solve(ps, &fresh), s.Solve(ps, &reused)
+		if (errF == nil) != (errR == nil) {
+			t.Fatalf("%s: fresh error %v, reused %v", smi, errF, errR)
+		}
+		if !slices.Equal(fresh.Warnings, reused.Warnings) {
+			t.Errorf("%s: warnings %q with a reused Orbitals, %q fresh", smi, reused.Warnings, fresh.Warnings)
+		}
+		warned = warned || len(fresh.Warnings) > 0
+	}
+	if !warned {
+		t.Error("no molecule of the test gave a warning: the reuse is not exercised")
 	}
 }
