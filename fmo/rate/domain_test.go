@@ -64,18 +64,7 @@ func TestDomainFittedRows(t *testing.T) {
 	if m.Domain == nil {
 		t.Fatal("the bundled model stores no applicability domain")
 	}
-	k, err := presets.Kinetics()
-	if err != nil {
-		t.Fatal(err)
-	}
-	opts, err := fmo.DefaultOptions()
-	if err != nil {
-		t.Fatal(err)
-	}
-	obs, err := Observe(k, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
+	obs := bundledObs(t)
 	n, flagged, hMax := 0, 0, 0.0
 	for _, s := range obs {
 		if !s.InModel() {
@@ -231,18 +220,7 @@ func TestInsideAgreesWithCheckDomain(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	k, err := presets.Kinetics()
-	if err != nil {
-		t.Fatal(err)
-	}
-	opts, err := fmo.DefaultOptions()
-	if err != nil {
-		t.Fatal(err)
-	}
-	obs, err := Observe(k, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
+	obs := bundledObs(t)
 	noDomain := *m
 	noDomain.Domain = nil
 	in, out := 0, 0
@@ -288,4 +266,23 @@ func TestInsideAgreesWithCheckDomain(t *testing.T) {
 		t.Errorf("%d inside, %d outside: the test must see both verdicts", in, out)
 	}
 	t.Logf("%d descriptor sets inside, %d outside", in, out)
+}
+
+// bundledObs is the bundled kinetics set observed under the default options (descriptors of
+// every row), as the fit sees it.
+func bundledObs(t *testing.T) []SeriesObs {
+	t.Helper()
+	k, err := presets.Kinetics()
+	if err != nil {
+		t.Fatal(err)
+	}
+	opts, err := fmo.DefaultOptions()
+	if err != nil {
+		t.Fatal(err)
+	}
+	obs, err := Observe(k, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return obs
 }

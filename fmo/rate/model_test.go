@@ -113,18 +113,7 @@ func TestConformation(t *testing.T) {
 // A series the data file marks outside_model is listed and predicted but does not move the
 // fit: the coefficients are those of the fit without it, and its statistics say why.
 func TestOutsideModelNotFitted(t *testing.T) {
-	k, err := presets.Kinetics()
-	if err != nil {
-		t.Fatal(err)
-	}
-	opts, err := fmo.DefaultOptions()
-	if err != nil {
-		t.Fatal(err)
-	}
-	obs, err := Observe(k, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
+	obs := bundledObs(t)
 	var without []SeriesObs
 	outside := ""
 	for _, s := range obs {
