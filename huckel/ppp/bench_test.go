@@ -35,29 +35,9 @@ func BenchmarkPipeline(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			t0 := time.Now()
-			m, err := smiles.Parse(smi)
-			if err != nil {
-				b.Fatal(err)
-			}
-			ps, err := huckel.Perceive(m, hp)
-			if err != nil {
-				b.Fatal(err)
-			}
-			if err := s.Solve(ps, &o); err != nil {
-				b.Fatal(err)
-			}
+			runPipeline(b, smi, hp, s, &o)
 			t1 := time.Now()
-			m, err = smiles.Parse(smi)
-			if err != nil {
-				b.Fatal(err)
-			}
-			ps, err = huckel.Perceive(m, hp)
-			if err != nil {
-				b.Fatal(err)
-			}
-			if err := hs.Solve(ps, &h); err != nil {
-				b.Fatal(err)
-			}
+			runPipeline(b, smi, hp, &hs, &h)
 			tPPP += t1.Sub(t0)
 			tHuckel += time.Since(t1)
 			iters += s.Stats().Iterations
@@ -90,31 +70,11 @@ func BenchmarkPipelineCPU(b *testing.B) {
 		for b.Loop() {
 			t0 := threadCPU()
 			for range cpuBatch {
-				m, err := smiles.Parse(smi)
-				if err != nil {
-					b.Fatal(err)
-				}
-				ps, err := huckel.Perceive(m, hp)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if err := s.Solve(ps, &o); err != nil {
-					b.Fatal(err)
-				}
+				runPipeline(b, smi, hp, s, &o)
 			}
 			t1 := threadCPU()
 			for range cpuBatch {
-				m, err := smiles.Parse(smi)
-				if err != nil {
-					b.Fatal(err)
-				}
-				ps, err := huckel.Perceive(m, hp)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if err := hs.Solve(ps, &h); err != nil {
-					b.Fatal(err)
-				}
+				runPipeline(b, smi, hp, &hs, &h)
 			}
 			t2 := threadCPU()
 			tPPP += t1 - t0
@@ -172,5 +132,21 @@ func eachBenchMolecule(b *testing.B, f func(b *testing.B, smi string, ps *huckel
 			b.Fatal(err)
 		}
 		b.Run(fmt.Sprintf("centres=%d", len(ps.Centres)), func(b *testing.B) { f(b, smi, ps, hp, pp) })
+	}
+}
+
+// runPipeline takes smi through SMILES parsing, perception with hp and method's solve into
+// into: one molecule of the pipeline benchmarks.
+func runPipeline(b *testing.B, smi string, hp *huckel.Params, method huckel.Method, into *huckel.Orbitals) {
+	m, err := smiles.Parse(smi)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ps, err := huckel.Perceive(m, hp)
+	if err != nil {
+		b.Fatal(err)
+	}
+	if err := method.Solve(ps, into); err != nil {
+		b.Fatal(err)
 	}
 }
