@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"cyclopair/huckel/molecule"
+	"cyclopair/huckel/smiles"
 )
 
 // Telling candidate adducts apart cheaply. Analyze compares the candidate adducts of a pair
@@ -36,6 +37,17 @@ import (
 // for two Kekulé structures of one compound, which Canonical treats as equal), the
 // canonical SMILES decide as before.
 
+// Regio-isomers on one skeleton (the new double bond and its hydrogens on different
+// atoms) have equal invariants but are not isomorphic, and used to fall back to two
+// canonical SMILES. Once the invariants agree, same therefore compares a second invariant
+// of the built adducts (bondInvariant): the same refinement with each bond labelled by the
+// type smiles.Canonical ranks it by (smiles.BondTypes: the Kekulé order, or one common
+// type for the bonds whose order differs between Kekulé structures, so every Kekulé
+// structure of a compound gets the same labels). Equal canonical SMILES mean one graph
+// with these labels (Canonical writes a Kekulé structure of the molecule, whose bond
+// types are the molecule's), so different bond invariants mean different canonical
+// SMILES: the answer is still that of comparing canonical SMILES.
+
 // productKeys holds the candidate adducts of one analysis, built, hashed and canonicalised
 // on demand.
 type productKeys struct {
@@ -45,6 +57,7 @@ type productKeys struct {
 	inv     []uint64
 	colours [][]uint64 // per adduct: each atom's invariant colour
 	invDone []bool
+	bondInv []uint64 // bondInvariant of each built adduct, 0 before it is computed
 	key     []string
 	keyDone []bool
 	iso     isoScratch
@@ -52,7 +65,7 @@ type productKeys struct {
 
 func newProductKeys(n int, build func(i int) *molecule.Molecule, colour func(i int) (uint64, []uint64)) *productKeys {
 	return &productKeys{build: build, colour: colour, mols: make([]*molecule.Molecule, n), inv: make([]uint64, n),
-		colours: make([][]uint64, n), invDone: make([]bool, n), key: make([]string, n), keyDone: make([]bool, n)}
+		colours: make([][]uint64, n), invDone: make([]bool, n), bondInv: make([]uint64, n), key: make([]string, n), keyDone: make([]bool, n)}
 }
 
 func (p *productKeys) mol(i int) *molecule.Molecule {
@@ -74,6 +87,14 @@ func (p *productKeys) invariant(i int) uint64 {
 	return p.inv[i]
 }
 
+// bondInv is bondInvariant of adduct i (built on demand), never 0.
+func (p *productKeys) bondInvariant(i int) uint64 {
+	if p.bondInv[i] == 0 {
+		p.bondInv[i] = bondInvariant(p.mol(i)) | 1
+	}
+	return p.bondInv[i]
+}
+
 func (p *productKeys) canonical(i int) string {
 	if !p.keyDone[i] {
 		p.key[i], p.keyDone[i] = productKey(p.mol(i)), true
@@ -89,9 +110,14 @@ func (p *productKeys) same(i, j int) bool {
 	if p.invariant(i) != p.invariant(j) {
 		return false
 	}
-	if !(p.keyDone[i] && p.keyDone[j]) && searchBounded(p.colours[i]) &&
-		p.iso.isomorphic(p.mol(i), p.mol(j), p.colours[i], p.colours[j]) {
+	if p.keyDone[i] && p.keyDone[j] {
+		return p.key[i] == p.key[j]
+	}
+	if searchBounded(p.colours[i]) && p.iso.isomorphic(p.mol(i), p.mol(j), p.colours[i], p.colours[j]) {
 		return true
+	}
+	if p.bondInvariant(i) != p.bondInvariant(j) {
+		return false
 	}
 	return p.canonical(i) == p.canonical(j)
 }
@@ -287,11 +313,28 @@ func graphColours(m *molecule.Molecule) (uint64, []uint64) {
 		a := &m.Atoms[i]
 		c[i] = atomColour(a.Element, a.Isotope, a.Charge, a.HCount)
 	}
-	return refineColours(c, func(f func(a, b int)) {
+	return refineColours(c, func(f func(a, b int, t uint64)) {
 		for _, b := range m.Bonds {
-			f(b.A, b.B)
+			f(b.A, b.B, 0)
 		}
 	})
+}
+
+// bondInvariant is graphInvariant with every bond labelled by its smiles.BondTypes type:
+// equal for molecules with equal canonical SMILES (see above).
+func bondInvariant(m *molecule.Molecule) uint64 {
+	c := make([]uint64, 2*len(m.Atoms))
+	for i := range m.Atoms {
+		a := &m.Atoms[i]
+		c[i] = atomColour(a.Element, a.Isotope, a.Charge, a.HCount)
+	}
+	types := smiles.BondTypes(m)
+	h, _ := refineColours(c, func(f func(a, b int, t uint64)) {
+		for bi, b := range m.Bonds {
+			f(b.A, b.B, uint64(types[bi]))
+		}
+	})
+	return h
 }
 
 // atomColour is an atom's initial colour: element, isotope, charge and hydrogen count, the
@@ -323,21 +366,21 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 		c[off+i] = atomColour(a.Element, a.Isotope, es.charge[i], a.HCount)
 	}
 	nb := productBonds(dp.Units[di], ep.Units[ei], o)
-	return refineColours(c, func(f func(a, b int)) {
+	return refineColours(c, func(f func(a, b int, t uint64)) {
 		for _, b := range dm.Bonds {
-			f(b.A, b.B)
+			f(b.A, b.B, 0)
 		}
 		for _, b := range em.Bonds {
-			f(b.A+off, b.B+off)
+			f(b.A+off, b.B+off, 0)
 		}
-		f(nb[0][0], nb[0][1]+off)
-		f(nb[1][0], nb[1][1]+off)
+		f(nb[0][0], nb[0][1]+off, 0)
+		f(nb[1][0], nb[1][1]+off, 0)
 	})
 }
 
 // refineColours runs colour refinement with commutative neighbour sums on the initial
 // colours in the first half of c (the second half is work space) over the bonds that bonds
-// visits until a round splits no class (at most one round per atom), then sums over atoms.
+// visits (each with a label t, 0 for none, mixed into what it adds to both ends) until a round splits no class (at most one round per atom), then sums over atoms.
 // Refining to the stable partition rather than a fixed three rounds tells apart adducts
 // that differ far from any distinctive atom (regio-isomers on a large ring system), and
 // makes the colour classes small enough for searchBounded where the three-round classes
@@ -348,7 +391,7 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 // refinement starts from finer atom labels and also splits by neighbour classes to
 // stability, and a hash collision can only merge classes), which is what searchBounded
 // relies on.
-func refineColours(c []uint64, bonds func(f func(a, b int))) (uint64, []uint64) {
+func refineColours(c []uint64, bonds func(f func(a, b int, t uint64))) (uint64, []uint64) {
 	n := len(c) / 2
 	cur, nxt := c[:n], c[n:]
 	classes := countClasses(cur)
@@ -356,9 +399,10 @@ func refineColours(c []uint64, bonds func(f func(a, b int))) (uint64, []uint64) 
 		for i := range nxt {
 			nxt[i] = cur[i] * 0x9e3779b97f4a7c15
 		}
-		bonds(func(a, b int) {
-			nxt[a] += mix64(cur[b])
-			nxt[b] += mix64(cur[a])
+		bonds(func(a, b int, t uint64) {
+			t *= 0xd6e8feb86659fd93
+			nxt[a] += mix64(cur[b] ^ t)
+			nxt[b] += mix64(cur[a] ^ t)
 		})
 		for i := range nxt {
 			nxt[i] = mix64(nxt[i])

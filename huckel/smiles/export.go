@@ -48,3 +48,14 @@ func Kekulize(m *molecule.Molecule, need []bool) int {
 func AromaticSystem(m *molecule.Molecule, need []bool, start int) []int {
 	return aromaticSystem(m, need, start)
 }
+
+// BondTypes returns the bond types Canonical ranks by, one per bond of m: the Kekulé order
+// (1–3), or 4 for a bond whose order may differ between Kekulé structures of m (a bond of
+// the alternation graph described at Canonical). Every Kekulé structure of a molecule gets
+// the same types, so two molecules with equal canonical SMILES have the same graph with
+// these bond labels; a finer test than the graph without bond orders that never tells
+// apart what Canonical takes as equal.
+func BondTypes(m *molecule.Molecule) []int8 {
+	t, _ := alternation(m)
+	return t
+}
