@@ -99,16 +99,8 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 		}
 		left := s.fragE[f]
 		for j := 0; j < m && left > 0; {
-			e := j + 1
-			for e < m && s.x[e-1]-s.x[e] < DegeneracyTol {
-				e++
-			}
+			e, mean := degenerateRun(s.x[:m], j)
 			d := e - j
-			mean := 0.0
-			for k := j; k < e; k++ {
-				mean += s.x[k]
-			}
-			mean /= float64(d)
 			occ := 0.0
 			if left >= 2*d {
 				occ = 2

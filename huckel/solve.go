@@ -425,16 +425,8 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 		}
 		// Degenerate sets, fixed basis and signs, written into the level slots.
 		for j := 0; j < m; {
-			e := j + 1
-			for e < m && s.levelX[e-1]-s.levelX[e] < DegeneracyTol {
-				e++
-			}
+			e, mean := degenerateRun(s.levelX[:m], j)
 			d := e - j
-			mean := 0.0
-			for k := j; k < e; k++ {
-				mean += s.levelX[k]
-			}
-			mean /= float64(d)
 			if d > 1 {
 				s.fixDegenerate(m, m-e, d)
 			}
@@ -716,4 +708,18 @@ func (o *Orbitals) Gap() (float64, bool) {
 		return 0, false
 	}
 	return o.Levels[o.HOMO].X - o.Levels[o.LUMO].X, true
+}
+
+// degenerateRun returns the end e (exclusive) of the degenerate set of the descending levels
+// x that starts at j — neighbours closer than DegeneracyTol — and the mean of x over it. Solve
+// and EnergySolver share it, so their level energies agree bit for bit.
+func degenerateRun(x []float64, j int) (e int, mean float64) {
+	e = j + 1
+	for e < len(x) && x[e-1]-x[e] < DegeneracyTol {
+		e++
+	}
+	for k := j; k < e; k++ {
+		mean += x[k]
+	}
+	return e, mean / float64(e-j)
 }
