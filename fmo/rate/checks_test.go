@@ -6,13 +6,15 @@ import (
 	"cyclopair/fmo"
 )
 
-func predict(t *testing.T, m *Model, opts *fmo.Options, diene, dienophile, mode string) float64 {
+// analysePair analyses one pair under opts (with the dienophile activated by mode) and
+// returns the partners and the pair's rate descriptors.
+func analysePair(t *testing.T, opts *fmo.Options, diene, dienophile, mode string) (d, e *fmo.Partner, desc Descriptors) {
 	t.Helper()
 	d, err := fmo.NewPartner(diene, diene, fmo.RoleDiene, opts)
 	if err != nil {
 		t.Fatal(err)
 	}
-	e, err := fmo.NewPartner(dienophile, dienophile, fmo.RoleDienophile, opts)
+	e, err = fmo.NewPartner(dienophile, dienophile, fmo.RoleDienophile, opts)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -25,10 +27,15 @@ func predict(t *testing.T, m *Model, opts *fmo.Options, diene, dienophile, mode 
 	if err != nil {
 		t.Fatal(err)
 	}
-	desc, err := FromPair(p, d.Mol)
-	if err != nil {
+	if desc, err = FromPair(p, d.Mol); err != nil {
 		t.Fatal(err)
 	}
+	return d, e, desc
+}
+
+func predict(t *testing.T, m *Model, opts *fmo.Options, diene, dienophile, mode string) float64 {
+	t.Helper()
+	d, e, desc := analysePair(t, opts, diene, dienophile, mode)
 	est := m.Predict(&desc)
 	// QuickScore path gives the same central value
 	q := fmo.QuickScore(d, e, opts)

@@ -92,27 +92,7 @@ func analyse(t *testing.T, diene, dienophile, mode string) Descriptors {
 	if err != nil {
 		t.Fatal(err)
 	}
-	d, err := fmo.NewPartner("diene", diene, fmo.RoleDiene, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
-	e, err := fmo.NewPartner("dienophile", dienophile, fmo.RoleDienophile, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if mode != fmo.ActivateNone {
-		if e, err = e.WithActivation(mode, nil, opts); err != nil {
-			t.Fatal(err)
-		}
-	}
-	p, err := fmo.Analyze(d, e, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
-	desc, err := FromPair(p, d.Mol)
-	if err != nil {
-		t.Fatal(err)
-	}
+	_, _, desc := analysePair(t, opts, diene, dienophile, mode)
 	return desc
 }
 
