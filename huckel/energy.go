@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 
+	"cyclopair/huckel/internal/grow"
+
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/lapack"
 	lapackgonum "gonum.org/v1/gonum/lapack/gonum"
@@ -50,7 +52,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 	}
 	n := len(ps.Centres)
 	nf := len(ps.Fragments)
-	s.fragE = growI(s.fragE, nf)
+	s.fragE = grow.Slice(s.fragE, nf)
 	clear(s.fragE)
 	for i := range ps.Centres {
 		c := &ps.Centres[i]
@@ -59,7 +61,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 		}
 		s.fragE[c.Fragment] += c.Electrons
 	}
-	s.loc = growI(s.loc, n)
+	s.loc = grow.Slice(s.loc, n)
 	for _, frag := range ps.Fragments {
 		for li, c := range frag {
 			s.loc[c] = li
@@ -74,7 +76,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 		if s.fragE[f] > 2*m {
 			return solveEnergy(ps)
 		}
-		s.a = growF(s.a, m*m)
+		s.a = grow.Slice(s.a, m*m)
 		clear(s.a)
 		for li, c := range frag {
 			s.a[li*m+li] = ps.Centres[c].H
@@ -93,7 +95,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 			return solveEnergy(ps)
 		}
 		// s.d ascending; levels in descending x as Solve lists them.
-		s.x = growF(s.x, m)
+		s.x = grow.Slice(s.x, m)
 		for j := 0; j < m; j++ {
 			s.x[j] = s.d[m-1-j]
 		}
@@ -151,7 +153,7 @@ func solveEnergy(ps *PiSystem) (float64, error) {
 // through mat.EigenSym) with its eigenvector steps (dorgtr, rotations in dsteqr) left out.
 func (s *EnergySolver) eigenvalues(m int) bool {
 	var impl lapackgonum.Implementation
-	s.d = growF(s.d, m)
+	s.d = grow.Slice(s.d, m)
 	if m == 1 {
 		s.d[0] = s.a[0]
 		return true
@@ -173,9 +175,9 @@ func (s *EnergySolver) eigenvalues(m int) bool {
 		impl.Dlascl(lapack.UpperTri, 0, 0, 1, sigma, m, m, s.a, m)
 	}
 	nb := impl.Ilaenv(1, "DSYTRD", "U", m, -1, -1, -1)
-	s.e = growF(s.e, m)
-	s.tau = growF(s.tau, m)
-	s.work = growF(s.work, max(1, nb*m))
+	s.e = grow.Slice(s.e, m)
+	s.tau = grow.Slice(s.tau, m)
+	s.work = grow.Slice(s.work, max(1, nb*m))
 	impl.Dsytrd(blas.Upper, m, s.a, m, s.d, s.e, s.tau, s.work, len(s.work))
 	if !impl.Dsteqr(lapack.EVCompNone, m, s.d, s.e, nil, 1, nil) {
 		return false
@@ -199,7 +201,7 @@ func (ps *PiSystem) WithoutInto(dst *PiSystem, centres ...int) {
 	}
 	n := len(ps.Centres)
 	nb := len(ps.Bonds)
-	dst.scratch = growI(dst.scratch, n+2*n+1+2*nb)
+	dst.scratch = grow.Slice(dst.scratch, n+2*n+1+2*nb)
 	newIdx, fragBuf := dst.scratch[:n], dst.scratch[n:]
 	for i := range newIdx {
 		newIdx[i] = 0

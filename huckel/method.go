@@ -1,5 +1,7 @@
 package huckel
 
+import "cyclopair/huckel/internal/grow"
+
 // Method names carried in Orbitals.Method (and in the "method" key of JSON output).
 const (
 	MethodHuckel = "huckel" // simple Hückel (this package's Solver)
@@ -40,7 +42,7 @@ func (o *Orbitals) LevelEV(i int, c Calibration) float64 {
 func (o *Orbitals) ResetLevels(ps *PiSystem) {
 	n := len(ps.Centres)
 	o.Pi = ps
-	o.coef = growF(o.coef, n*n)
+	o.coef = grow.Slice(o.coef, n*n)
 	clear(o.coef)
 	if cap(o.Levels) < n {
 		o.Levels = make([]Level, n)
@@ -49,9 +51,9 @@ func (o *Orbitals) ResetLevels(ps *PiSystem) {
 	for i := range o.Levels {
 		o.Levels[i] = Level{Coeffs: o.coef[i*n : (i+1)*n : (i+1)*n]}
 	}
-	o.Charges = growF(o.Charges, n)
-	o.BondOrders = growF(o.BondOrders, n*n)
+	o.Charges = grow.Slice(o.Charges, n)
+	o.BondOrders = grow.Slice(o.BondOrders, n*n)
 	clear(o.BondOrders)
-	o.H = growF(o.H, n)
+	o.H = grow.Slice(o.H, n)
 	o.Warnings = o.Warnings[:0]
 }

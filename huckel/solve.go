@@ -6,6 +6,8 @@ import (
 	"math"
 	"slices"
 
+	"cyclopair/huckel/internal/grow"
+
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/lapack"
@@ -164,7 +166,7 @@ func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
 		return err
 	}
 	n := len(ps.Centres)
-	s.h = growF(s.h, n)
+	s.h = grow.Slice(s.h, n)
 	for i := range ps.Centres {
 		s.h[i] = ps.Centres[i].H
 	}
@@ -183,7 +185,7 @@ func (s *Solver) Solve(ps *PiSystem, into *Orbitals) error {
 			return err
 		}
 	}
-	into.H = growF(into.H, n)
+	into.H = grow.Slice(into.H, n)
 	copy(into.H, s.h)
 	return nil
 }
@@ -215,10 +217,10 @@ func omegaResidual(ps *PiSystem, h []float64, into *Orbitals, r []float64) (maxA
 func (s *Solver) omegaIterate(ps *PiSystem, into *Orbitals) error {
 	n := len(ps.Centres)
 	w := &s.omega
-	w.r, w.rNew = growF(w.r, n), growF(w.rNew, n)
-	w.dh, w.dr, w.qr = growF(w.dh, omegaDepth*n), growF(w.dr, omegaDepth*n), growF(w.qr, omegaDepth*n)
+	w.r, w.rNew = grow.Slice(w.r, n), grow.Slice(w.rNew, n)
+	w.dh, w.dr, w.qr = grow.Slice(w.dh, omegaDepth*n), grow.Slice(w.dr, omegaDepth*n), grow.Slice(w.qr, omegaDepth*n)
 	w.cols = 0
-	s.hNew = growF(s.hNew, n)
+	s.hNew = grow.Slice(s.hNew, n)
 	rMax, rNorm := omegaResidual(ps, s.h, into, w.r)
 	if rMax < OmegaTol {
 		return nil
@@ -352,7 +354,7 @@ func norm(a []float64) float64 { return math.Sqrt(dot(a, a)) }
 
 func (s *Solver) checkElectrons(ps *PiSystem) error {
 	nf := len(ps.Fragments)
-	s.fragE = growI(s.fragE, nf)
+	s.fragE = grow.Slice(s.fragE, nf)
 	clear(s.fragE)
 	for i := range ps.Centres {
 		c := &ps.Centres[i]
@@ -373,7 +375,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 	n := len(ps.Centres)
 	into.Pi = ps
 	into.Method, into.EVDirect, into.AlphaEV, into.BetaEV = MethodHuckel, false, 0, 0
-	into.coef = growF(into.coef, n*n)
+	into.coef = grow.Slice(into.coef, n*n)
 	clear(into.coef)
 	if cap(into.Levels) < n {
 		into.Levels = make([]Level, n)
@@ -381,7 +383,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 	into.Levels = into.Levels[:n]
 	into.Warnings = into.Warnings[:0]
 	into.Partial = false
-	s.loc = growI(s.loc, n)
+	s.loc = grow.Slice(s.loc, n)
 	for _, frag := range ps.Fragments {
 		for li, c := range frag {
 			s.loc[c] = li
@@ -399,8 +401,8 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 				f, ErrElectrons, s.fragE[f], m)
 		}
 		electrons += s.fragE[f]
-		s.a = growF(s.a, m*m)
-		s.w = growF(s.w, m)
+		s.a = grow.Slice(s.a, m*m)
+		s.w = grow.Slice(s.w, m)
 		clear(s.a)
 		for li, c := range frag {
 			s.a[li*m+li] = h[c]
@@ -419,7 +421,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 			return err
 		}
 		// s.w ascending, column c of s.a (row-major m×m) is vector c.
-		s.levelX = growF(s.levelX, m)
+		s.levelX = grow.Slice(s.levelX, m)
 		for j := 0; j < m; j++ {
 			s.levelX[j] = s.w[m-1-j]
 		}
@@ -497,11 +499,11 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 		into.SOMO = into.HOMO
 	}
 	// Charges and bond orders.
-	into.Charges = growF(into.Charges, n)
+	into.Charges = grow.Slice(into.Charges, n)
 	for i := range ps.Centres {
 		into.Charges[i] = float64(ps.Centres[i].Electrons + ps.Centres[i].FormalCharge)
 	}
-	into.BondOrders = growF(into.BondOrders, n*n)
+	into.BondOrders = grow.Slice(into.BondOrders, n*n)
 	clear(into.BondOrders)
 	for i := range into.Levels {
 		l := &into.Levels[i]
@@ -570,7 +572,7 @@ func (s *Solver) eigen(m int) error {
 	}
 	a := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: s.a[:m*m]}
 	lapack64.Syev(lapack.EVCompute, a, s.w[:m], s.q[:], -1)
-	s.work = growF(s.work, int(s.q[0]))
+	s.work = grow.Slice(s.work, int(s.q[0]))
 	if !lapack64.Syev(lapack.EVCompute, a, s.w[:m], s.work, len(s.work)) {
 		return fmt.Errorf("huckel: %w on a %d×%d matrix", ErrEigen, m, m)
 	}
@@ -580,7 +582,7 @@ func (s *Solver) eigen(m int) error {
 // fixDegenerate replaces columns c0..c0+d-1 of the m×m eigenvector matrix s.a with the
 // deterministic basis of their span: Gram–Schmidt of P·e_0, P·e_1, … (P the projector).
 func (s *Solver) fixDegenerate(m, c0, d int) {
-	s.proj = growF(s.proj, m*m)
+	s.proj = grow.Slice(s.proj, m*m)
 	for r := 0; r < m; r++ {
 		for c := 0; c < m; c++ {
 			v := 0.0
@@ -590,7 +592,7 @@ func (s *Solver) fixDegenerate(m, c0, d int) {
 			s.proj[r*m+c] = v
 		}
 	}
-	s.tmp = growF(s.tmp, m*d)
+	s.tmp = grow.Slice(s.tmp, m*d)
 	got := 0
 	for e := 0; e < m && got < d; e++ {
 		u := s.tmp[got*m : (got+1)*m]
@@ -651,20 +653,6 @@ func fixSign(c []float64, frag []int) {
 			c[i] = -c[i]
 		}
 	}
-}
-
-func growF(b []float64, n int) []float64 {
-	if cap(b) < n {
-		return make([]float64, n, n+n/2)
-	}
-	return b[:n]
-}
-
-func growI(b []int, n int) []int {
-	if cap(b) < n {
-		return make([]int, n, n+n/2)
-	}
-	return b[:n]
 }
 
 // Coefficient returns the coefficient of the given level on the atom with index atom (in

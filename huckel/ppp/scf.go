@@ -8,6 +8,7 @@ import (
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/depict"
+	"cyclopair/huckel/internal/grow"
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
@@ -221,27 +222,6 @@ func molName(ps *huckel.PiSystem) string {
 	return "molecule"
 }
 
-func growF(b []float64, n int) []float64 {
-	if cap(b) < n {
-		return make([]float64, n, n+n/2)
-	}
-	return b[:n]
-}
-
-func growB(b []bool, n int) []bool {
-	if cap(b) < n {
-		return make([]bool, n, n+n/2)
-	}
-	return b[:n]
-}
-
-func growI(b []int, n int) []int {
-	if cap(b) < n {
-		return make([]int, n, n+n/2)
-	}
-	return b[:n]
-}
-
 // SolveAt is Solve at caller-given coordinates: xy[i] is the position (Å) of centre i.
 func (s *Solver) SolveAt(ps *huckel.PiSystem, xy []depict.Point, into *huckel.Orbitals) error {
 	s.stats = Stats{}
@@ -275,8 +255,8 @@ func (s *Solver) SolveAt(ps *huckel.PiSystem, xy []depict.Point, into *huckel.Or
 func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 	n := len(ps.Centres)
 	nf := len(ps.Fragments)
-	s.perm, s.inv = growI(s.perm, n), growI(s.inv, n)
-	s.fragOff, s.fragM, s.fragE, s.pkO = growI(s.fragOff, nf), growI(s.fragM, nf), growI(s.fragE, nf), growI(s.pkO, nf+1)
+	s.perm, s.inv = grow.Slice(s.perm, n), grow.Slice(s.inv, n)
+	s.fragOff, s.fragM, s.fragE, s.pkO = grow.Slice(s.fragOff, nf), grow.Slice(s.fragM, nf), grow.Slice(s.fragE, nf), grow.Slice(s.pkO, nf+1)
 	a, pk := 0, 0
 	for f, frag := range ps.Fragments {
 		s.fragOff[f], s.fragM[f], s.pkO[f], s.fragE[f] = a, len(frag), pk, 0
@@ -290,7 +270,7 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 	if a != n {
 		panic(fmt.Sprintf("ppp: fragments cover %d of %d centres", a, n))
 	}
-	s.u, s.g, s.z = growF(s.u, n), growF(s.g, n), growF(s.z, n)
+	s.u, s.g, s.z = grow.Slice(s.u, n), grow.Slice(s.g, n), grow.Slice(s.z, n)
 	for i := range ps.Centres {
 		c := &ps.Centres[i]
 		par, ok := s.p.Lookup(c.Type)
@@ -311,7 +291,7 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 		}
 	}
 	// γ (full, permuted) and core–core repulsion.
-	s.gam = growF(s.gam, n*n)
+	s.gam = grow.Slice(s.gam, n*n)
 	ecc := 0.0
 	for i := 0; i < n; i++ {
 		s.gam[i*n+i] = s.g[i]
@@ -326,7 +306,7 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 	s.stats.CoreEV = ecc
 	// Core Hamiltonian, packed blocks: U_i − Σ_{j≠i} Z_j γ_ij on the diagonal, β_ij = k·β(r)
 	// for π bonds.
-	s.hc = growF(s.hc, pk)
+	s.hc = grow.Slice(s.hc, pk)
 	clear(s.hc)
 	for f := range s.fragM {
 		m, o, po := s.fragM[f], s.fragOff[f], s.pkO[f]
@@ -351,10 +331,10 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 		s.hc[po+j*m+i] += v
 	}
 	for _, buf := range []*[]float64{&s.f, &s.fx, &s.pd, &s.pNew, &s.c, &s.e} {
-		*buf = growF(*buf, pk)
+		*buf = grow.Slice(*buf, pk)
 	}
-	s.eps, s.occ = growF(s.eps, n), growF(s.occ, n)
-	s.fHist, s.eHist = growF(s.fHist, diisDepth*pk), growF(s.eHist, diisDepth*pk)
+	s.eps, s.occ = grow.Slice(s.eps, n), grow.Slice(s.occ, n)
+	s.fHist, s.eHist = grow.Slice(s.fHist, diisDepth*pk), grow.Slice(s.eHist, diisDepth*pk)
 	return nil
 }
 
@@ -362,7 +342,7 @@ func (s *Solver) setup(ps *huckel.PiSystem, xy []depict.Point) error {
 // with the Hückel density.
 func (s *Solver) start(ps *huckel.PiSystem) error {
 	clear(s.c)
-	s.cT = growB(s.cT, len(s.fragM))
+	s.cT = grow.Slice(s.cT, len(s.fragM))
 	clear(s.cT)
 	if s.denseStart(ps) {
 		s.occupy()
@@ -376,7 +356,7 @@ func (s *Solver) start(ps *huckel.PiSystem) error {
 			return err
 		}
 	} else {
-		s.lv = growI(s.lv, len(s.fragM))
+		s.lv = grow.Slice(s.lv, len(s.fragM))
 		next := s.lv
 		clear(next)
 		scale := math.Abs(s.p.Beta0)
@@ -426,7 +406,7 @@ func (s *Solver) denseStart(ps *huckel.PiSystem) bool {
 	for f, m := range s.fragM {
 		o, po := s.fragOff[f], s.pkO[f]
 		cb, eps := s.c[po:po+m*m], s.eps[o:o+m]
-		s.w = growF(s.w, m)
+		s.w = grow.Slice(s.w, m)
 		if !symEig(cb, m, eps, s.w[:m]) {
 			clear(s.c)
 			return false
@@ -796,16 +776,16 @@ func (s *Solver) diagonalise(occVirt bool) error {
 		}
 		s.cT[f] = false
 		copy(cb, fb)
-		s.w = growF(s.w, m)
+		s.w = grow.Slice(s.w, m)
 		if symEig(cb, m, eps, s.w[:m]) {
 			sortColumns(eps, cb, m)
 			continue
 		}
-		s.a = growF(s.a, m*m)
+		s.a = grow.Slice(s.a, m*m)
 		copy(s.a, fb)
 		sym := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: s.a[:m*m]}
 		lapack64.Syev(lapack.EVCompute, sym, s.w, s.q[:], -1)
-		s.work = growF(s.work, int(s.q[0]))
+		s.work = grow.Slice(s.work, int(s.q[0]))
 		if !lapack64.Syev(lapack.EVCompute, sym, s.w, s.work, len(s.work)) {
 			return fmt.Errorf("ppp: %w on a %d×%d Fock matrix", huckel.ErrEigen, m, m)
 		}
@@ -843,11 +823,11 @@ func (s *Solver) closedShell(f int) int {
 // eps receives the diagonal (the level order for aufbau). The rotations work on Cᵀ, so
 // that the levels are contiguous rows, and leave Cᵀ in c; cT says c holds Cᵀ already.
 func (s *Solver) pseudoDiag(f, c, eps []float64, m, nocc int, cT bool) {
-	s.ft = growF(s.ft, m*m)
+	s.ft = grow.Slice(s.ft, m*m)
 	ft := s.ft[:m*m]
 	ct := c
 	if !cT {
-		s.ct = growF(s.ct, m*m)
+		s.ct = grow.Slice(s.ct, m*m)
 		ct = s.ct[:m*m]
 		transpose(ct, c, m)
 	}
@@ -1057,8 +1037,8 @@ func (s *Solver) finish(ps *huckel.PiSystem, into *huckel.Orbitals) error {
 // of their span used by huckel.Solve: Gram–Schmidt of the projections of e_0, e_1, … in
 // local (ascending centre) order.
 func (s *Solver) fixDegenerate(c []float64, m, k, d int) {
-	s.tmp = growF(s.tmp, m*d)
-	s.a = growF(s.a, m*m)
+	s.tmp = grow.Slice(s.tmp, m*d)
+	s.a = grow.Slice(s.a, m*m)
 	proj := s.a[:m*m]
 	for r := 0; r < m; r++ {
 		for q := 0; q < m; q++ {
