@@ -62,8 +62,9 @@ func TestOrbitalsJSONEncoder(t *testing.T) {
 }
 
 // The stdin batch formats JSON on its workers, which reuse one Orbitals each: a molecule's
-// warnings must still be its own. Cyclobutadiene (half-filled degenerate pair: an open-shell
-// warning) between closed-shell molecules warns once per cyclobutadiene line, and only there.
+// warnings must still be its own. Cyclobutadiene (Hückel closed form x = 2, 0, 0, −2: two
+// electrons in the degenerate pair at x = 0, an open-shell warning; A. Streitwieser, Molecular
+// Orbital Theory for Organic Chemists, Wiley 1961, from memory) between closed-shell molecules warns once per cyclobutadiene line, and only there.
 func TestOrbitalsBatchWarningsStayWithTheirMolecule(t *testing.T) {
 	var in strings.Builder
 	n := 0

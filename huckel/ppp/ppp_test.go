@@ -645,7 +645,8 @@ func TestSolveAtAllocs(t *testing.T) {
 }
 
 // A reused Orbitals carries no warning of the molecule solved before it: an open-shell
-// system (cyclobutadiene, half-filled degenerate pair: a warning) followed by a closed-shell
+// system (cyclobutadiene: square D4h π system with a half-filled degenerate pair, the
+// textbook open shell of Hückel and SCF alike, from memory: a warning) followed by a closed-shell
 // one (butadiene) leaves the second with the warnings of a fresh solve (none).
 func TestSolveReusedOrbitalsWarnings(t *testing.T) {
 	hp, err := presets.Params(presets.DefaultParams)
