@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"cyclopair/huckel/internal/eigmemo"
 	"cyclopair/huckel/internal/grow"
 
 	"gonum.org/v1/gonum/blas"
@@ -34,6 +35,8 @@ type EnergySolver struct {
 	a, d, e, tau, work, x []float64
 	loc, fragE            []int
 	occ                   []energyLevel
+	key                   []float64    // the matrix being solved, kept for memo
+	memo                  eigmemo.Memo // fragment eigenvalues by matrix (exact, see eigmemo)
 }
 
 // energyLevel is one occupied level as Solve's sorted level list would hold it.
@@ -91,7 +94,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 			}
 			s.a[i*m+j] += b.K
 		}
-		if !s.eigenvalues(m) {
+		if !s.values(m) {
 			return solveEnergy(ps)
 		}
 		// s.d ascending; levels in descending x as Solve lists them.
@@ -151,6 +154,26 @@ func solveEnergy(ps *PiSystem) (float64, error) {
 // eigenvalues puts the eigenvalues of the symmetric m×m matrix whose upper triangle is in
 // s.a (row-major) into s.d in ascending order: the dsyev of gonum (the routine Solve reaches
 // through mat.EigenSym) with its eigenvector steps (dorgtr, rotations in dsteqr) left out.
+// values leaves in s.d the eigenvalues of the m×m matrix in s.a, ascending, as eigenvalues
+// computes them, looking them up in s.memo first (the same numbers, bit for bit).
+func (s *EnergySolver) values(m int) bool {
+	if m < eigmemo.MinOrder {
+		return s.eigenvalues(m)
+	}
+	h := eigmemo.Hash(s.a[:m*m])
+	if d, ok := s.memo.Get(h, s.a[:m*m]); ok {
+		s.d = grow.Slice(s.d, m)
+		copy(s.d, d)
+		return true
+	}
+	s.key = append(s.key[:0], s.a[:m*m]...)
+	if !s.eigenvalues(m) {
+		return false
+	}
+	s.memo.Put(h, s.key, s.d[:m])
+	return true
+}
+
 func (s *EnergySolver) eigenvalues(m int) bool {
 	var impl lapackgonum.Implementation
 	s.d = grow.Slice(s.d, m)

@@ -6,6 +6,7 @@ import (
 	"math"
 	"slices"
 
+	"cyclopair/huckel/internal/eigmemo"
 	"cyclopair/huckel/internal/grow"
 
 	"gonum.org/v1/gonum/blas"
@@ -117,6 +118,8 @@ type Solver struct {
 	proj, tmp  []float64  // degenerate-set basis construction
 	fragE      []int      // electrons per fragment
 	levelX     []float64  // per-fragment scratch: eigenvalues in descending order
+	key, val   []float64  // memo scratch: the matrix being solved, its stored result
+	memo       eigmemo.Memo
 }
 
 // Solve fills into with the solution of ps, reusing into's slices. On error into is left
@@ -417,7 +420,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 			}
 			s.a[i*m+j] += b.K
 		}
-		if err := s.eigen(m); err != nil {
+		if err := s.eigenMemo(m); err != nil {
 			return err
 		}
 		// s.w ascending, column c of s.a (row-major m×m) is vector c.
@@ -530,6 +533,28 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 
 // eigen diagonalises the m×m upper triangle in s.a in place: eigenvalues ascending in s.w,
 // eigenvectors in the columns of s.a.
+// eigenMemo is eigen looking the result up in s.memo first: the eigenvalues in s.w and
+// the vectors in s.a are then the numbers eigen would compute, bit for bit (eigmemo).
+func (s *Solver) eigenMemo(m int) error {
+	if s.useMat || m < eigmemo.MinOrder {
+		return s.eigen(m)
+	}
+	mm := m * m
+	h := eigmemo.Hash(s.a[:mm])
+	if r, ok := s.memo.Get(h, s.a[:mm]); ok {
+		copy(s.w[:m], r[:m])
+		copy(s.a[:mm], r[m:])
+		return nil
+	}
+	s.key = append(s.key[:0], s.a[:mm]...)
+	if err := s.eigen(m); err != nil {
+		return err
+	}
+	s.val = append(append(s.val[:0], s.w[:m]...), s.a[:mm]...)
+	s.memo.Put(h, s.key, s.val)
+	return nil
+}
+
 func (s *Solver) eigen(m int) error {
 	if s.useMat {
 		sym := mat.NewSymDense(m, append([]float64(nil), s.a[:m*m]...))

@@ -514,3 +514,48 @@ func TestTwoCentreClosedForm(t *testing.T) {
 		checkInvariants(t, "two-centre", ps, &into)
 	}
 }
+
+// A Solver that has seen a fragment before (its eigen memo) gives the orbitals a fresh
+// Solver gives, bit for bit: random systems with repeated fragments, solved twice.
+func TestSolverMemoBitIdentical(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(7, 2026))
+	var warm huckel.Solver
+	var got, want huckel.Orbitals
+	for trial := range 300 {
+		var cs []huckel.Centre
+		var bs []huckel.PiBond
+		size := 3 + rnd.IntN(12)
+		for copyN := range 1 + rnd.IntN(3) {
+			base := len(cs)
+			for i := range size {
+				cs = append(cs, huckel.Centre{Atom: base + i, H: float64(rnd.IntN(5)) / 4, Electrons: 1})
+				if i > 0 {
+					bs = append(bs, huckel.PiBond{I: base + i - 1, J: base + i, K: 1 - float64((i+copyN)%2)/4})
+				}
+			}
+		}
+		ps := huckel.NewPiSystem(cs, bs)
+		for round := range 2 {
+			var fresh huckel.Solver
+			if err := fresh.Solve(ps, &want); err != nil {
+				t.Fatal(err)
+			}
+			if err := warm.Solve(ps, &got); err != nil {
+				t.Fatal(err)
+			}
+			if len(got.Levels) != len(want.Levels) || got.PiEnergy != want.PiEnergy {
+				t.Fatalf("trial %d round %d: %d levels E %v, fresh %d levels E %v", trial, round, len(got.Levels), got.PiEnergy, len(want.Levels), want.PiEnergy)
+			}
+			for i := range want.Levels {
+				if got.Levels[i].X != want.Levels[i].X || got.Levels[i].Occupancy != want.Levels[i].Occupancy {
+					t.Fatalf("trial %d round %d level %d: %v vs fresh %v", trial, round, i, got.Levels[i].X, want.Levels[i].X)
+				}
+				for c := range want.Levels[i].Coeffs {
+					if math.Float64bits(got.Levels[i].Coeffs[c]) != math.Float64bits(want.Levels[i].Coeffs[c]) {
+						t.Fatalf("trial %d round %d level %d c%d: %v vs fresh %v", trial, round, i, c, got.Levels[i].Coeffs[c], want.Levels[i].Coeffs[c])
+					}
+				}
+			}
+		}
+	}
+}
