@@ -64,10 +64,11 @@ const (
 	// preferred orientation's product (the screen's table, CSV, Markdown and SD formats),
 	// where the stereo forms of the other orientations were most of a row's cost.
 	DetailBest
-	// DetailRow is DetailBest without the preferred orientation's StereoProducts and
-	// FollowUp (left nil): it keeps its Product and IsolatedProduct (the side-channel check
-	// analyses the isolated product), computed with only the stereo searches that decide
-	// the isolated product (isolatedProduct). When at most MaxListedOrientations
+	// DetailRow is DetailBest without the preferred orientation's StereoProducts, FollowUp
+	// (left nil) and IsolatedProduct (left empty): it keeps its Product, and no stereo
+	// search runs at all. The side-channel check analyses the isolated product's
+	// constitution as built from the partners (isolatedConstitution), which gives the full
+	// analysis's side-channel figures to rounding. When at most MaxListedOrientations
 	// candidates were scored it lists the preferred orientation alone, as the other
 	// candidates need not then be told apart (so the regio fractions the rate model's
 	// ratio annotation puts on the orientations, and FractionInterval, are not those of the
@@ -246,8 +247,10 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
 		pm, bonds := keys.mol(i), o.Bonds // the adduct canonical() was computed from
 		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
+		if i == 0 {
+			o.isolated, o.isolatedSteps = isolatedConstitution(diene, du, bonds, pm)
+		}
 		if detail == DetailRow {
-			o.IsolatedProduct = isolatedProduct(diene, dienophile, du, eu, bonds, pm, product, endoPref)
 			pair.Orientations = append(pair.Orientations, o)
 			continue
 		}

@@ -47,6 +47,8 @@
 // sp atoms excludes nitriles as dienophiles.
 package fmo
 
+import "cyclopair/huckel/molecule"
+
 // Energy is a quantity in units of |β| and in eV (through the calibration named in the Pair).
 type Energy struct {
 	Beta float64 `json:"beta"`
@@ -108,6 +110,12 @@ type Orientation struct {
 	// DieneConjugationLoss is the 4π partner's localisation energy without hyperconjugative
 	// alkyl pseudo-atoms (Partner.UnitConjugationLoss), for the rate model; not in the JSON.
 	DieneConjugationLoss float64 `json:"-"`
+
+	// isolated is the isolated product's constitution as built (partner atom order, no
+	// configuration), kept on the preferred orientation for the side-channel check;
+	// isolatedSteps says whether follow-up steps led to it from the primary adduct.
+	isolated      *molecule.Molecule
+	isolatedSteps bool
 }
 
 // RateEstimate is a predicted rate from the fitted model of fmo/rate: log10 of the rate

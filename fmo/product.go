@@ -177,45 +177,21 @@ func productForms(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Mo
 	return stereo, steps, iso
 }
 
-// isolatedProduct is productForms' third result alone, the same string: it runs only the
-// stereo searches that decide it. With follow-up steps the primary adduct's stereo forms are
-// not needed at all, and with endoPref neither the exo form nor the exo follow-up; without
-// steps the exo form is needed only when the endo form alone cannot decide (not endoPref).
-func isolatedProduct(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Molecule, key string, endoPref bool) string {
-	en := stereoAdduct(dp, ep, du, eu, bonds, pm, true)
-	var ex *molecule.Molecule
-	exo := func() *molecule.Molecule {
-		if ex == nil {
-			ex = stereoAdduct(dp, ep, du, eu, bonds, pm, false)
-		}
-		return ex
+// isolatedConstitution is the isolated product of adduct pm (built by buildProduct with
+// bonds) without configuration: pm itself when no follow-up step applies, else the product
+// of the steps (followUp on pm; the steps do not depend on the configuration). steps says
+// whether any applied. Atoms stay in partner order.
+func isolatedConstitution(dp *Partner, du Unit, bonds [2][2]int, pm *molecule.Molecule) (m *molecule.Molecule, steps bool) {
+	if du.Kind != UnitDiene {
+		return pm, false
 	}
-	if du.Kind == UnitDiene {
-		off := len(dp.Mol.Atoms)
-		ring := []int{du.Atoms[0], du.Atoms[1], du.Atoms[2], du.Atoms[3], bonds[1][1] + off, bonds[0][1] + off}
-		steps, endoFinal := followUp(en, ring)
-		if len(steps) > 0 {
-			iso := relativeStereo(endoFinal)
-			if endoPref {
-				return iso
-			}
-			if _, exoFinal := followUp(exo(), ring); relativeStereo(exoFinal) != iso {
-				_, plain := followUp(pm, ring)
-				return smiles.Canonical(plain)
-			}
-			return iso
-		}
+	off := len(dp.Mol.Atoms)
+	ring := []int{du.Atoms[0], du.Atoms[1], du.Atoms[2], du.Atoms[3], bonds[1][1] + off, bonds[0][1] + off}
+	st, plain := followUp(pm, ring)
+	if len(st) == 0 {
+		return pm, false
 	}
-	// productForms' primary: the endo form when preferred or when both forms agree (key
-	// itself when neither carries a relative configuration), else key.
-	if !hasChiral(en) && !hasChiral(exo()) {
-		return key
-	}
-	es := relativeStereo(en)
-	if endoPref || relativeStereo(exo()) == es {
-		return es
-	}
-	return key
+	return plain, true
 }
 
 // relativeStereo is the canonical SMILES of m's relative configuration: of the two mirror

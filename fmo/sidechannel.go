@@ -3,6 +3,7 @@ package fmo
 import (
 	"errors"
 	"fmt"
+	"math"
 	"sync"
 
 	"cyclopair/huckel/molecule"
@@ -42,7 +43,9 @@ func controllingGap(p *Pair) Energy {
 //     vinylcyclohexenes);
 //   - product_as_dienophile: the preferred adduct's remaining π bonds acting as the 2π
 //     partner toward the same 4π partner (a second cycloaddition, e.g. the bis-adduct of a
-//     quinone), only when the adduct has a reacting 2π unit.
+//     quinone), only when the adduct has a reacting 2π unit. The adduct is the isolated
+//     product's constitution as Analyze built it from the partners (their atom order and
+//     Kekulé structures); dienophile is the pair's 2π partner or its unactivated form.
 //
 // A channel's gap is the controlling gap (the smaller of normal and inverse) at the reacting
 // units the pair analysis itself prefers for that side reaction — the same ranking score,
@@ -67,7 +70,7 @@ func SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options) []SideC
 // SideChannelsWithin is SideChannels with a competition margin of margin |β|
 // (DefaultSideChannelBeta when margin ≤ 0).
 func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64) []SideChannel {
-	return sideChannels(diene, pair, opts, margin, nil)
+	return sideChannels(diene, dienophile, pair, opts, margin, nil)
 }
 
 // SideChannelCache memoises the part of the side-channel check that depends on the 4π
@@ -75,27 +78,31 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 // dienophiles solves that side reaction once per diene instead of once per row. It is safe for
 // concurrent use; the zero value is ready. Results are the same with or without it.
 //
-// It also keeps the second-adduct check of recent rows, keyed by the 4π partner and the
-// adduct's SMILES: the activated variants of one dienophile give the same adduct (products
-// are built from the unactivated molecules), so a screen over several activations checks
-// each adduct once. That part holds at most sideAdductCap entries (it is emptied when full),
-// so memory does not grow with the number of rows.
+// It also keeps the second-adduct check of recent rows, keyed by the 4π partner, the 2π
+// partner passed to SideChannels and the two bonds that join them: the activated variants of
+// one dienophile give the same adduct (products are built from the unactivated molecules),
+// so a screen over several activations checks each adduct once as long as it passes the
+// unactivated partner. That part holds at most sideAdductCap entries (it is emptied when
+// full), so memory does not grow with the number of rows.
 type SideChannelCache struct {
 	mu      sync.Mutex
 	m       map[*Partner]*sideOnce
 	adducts map[adductKey]*sideOnce
 }
 
+// adductKey names an adduct by its partners and the two bonds that join them: the
+// dienophile is the unactivated partner (or any variant with the same molecule), since
+// products are built from the unactivated molecules.
 type adductKey struct {
-	diene   *Partner
-	product string
+	diene, dienophile *Partner
+	bonds             [2][2]int
+	smiles            string // the isolated product's SMILES where the note names it
 }
 
 // sideAdductCap bounds the adduct part of SideChannelCache.
 const sideAdductCap = 4096
 
-func (c *SideChannelCache) adduct(diene *Partner, prodSMILES string, f func() sideResult) sideResult {
-	k := adductKey{diene, prodSMILES}
+func (c *SideChannelCache) adduct(k adductKey, f func() sideResult) sideResult {
 	c.mu.Lock()
 	if c.adducts == nil || len(c.adducts) >= sideAdductCap {
 		c.adducts = make(map[adductKey]*sideOnce)
@@ -118,7 +125,7 @@ type sideOnce struct {
 // SideChannels is the package-level SideChannels with the dimerisation looked up in (and
 // stored into) the cache.
 func (c *SideChannelCache) SideChannels(diene, dienophile *Partner, pair *Pair, opts *Options) []SideChannel {
-	return sideChannels(diene, pair, opts, DefaultSideChannelBeta, c)
+	return sideChannels(diene, dienophile, pair, opts, DefaultSideChannelBeta, c)
 }
 
 func (c *SideChannelCache) dimerisation(diene *Partner, opts *Options) sideResult {
@@ -144,7 +151,6 @@ type sideResult struct {
 	gap        Energy
 	site       string
 	score      float64
-	parseErr   error // the adduct SMILES did not parse back (product_as_dienophile only)
 }
 
 // analyseSide prepares m as a 2π partner and analyses it with diene.
@@ -188,7 +194,7 @@ func dimerisation(diene *Partner, opts *Options) sideResult {
 	return analyseSide(SideDieneDimerisation, diene.Name+" dimerisation", diene, self, opts)
 }
 
-func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cache *SideChannelCache) []SideChannel {
+func sideChannels(diene, dienophile *Partner, pair *Pair, opts *Options, margin float64, cache *SideChannelCache) []SideChannel {
 	if diene == nil || pair == nil || len(pair.Orientations) == 0 {
 		panic("fmo.SideChannels: nil diene or unanalysed pair")
 	}
@@ -206,7 +212,7 @@ func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cac
 			out = append(out, SideChannel{Kind: r.kind, Note: r.what + ": not checked: " + r.failed})
 			return
 		}
-		sc := SideChannel{Kind: r.kind, Gap: r.gap, Margin: r.gap.Beta - ref.Beta, ScoreMargin: refScore - r.score}
+		sc := SideChannel{Kind: r.kind, Gap: r.gap, Margin: snapTie(r.gap.Beta - ref.Beta), ScoreMargin: snapTie(refScore - r.score)}
 		sc.Competes = sc.Margin <= margin && sc.ScoreMargin <= margin
 		verdict := "does not compete"
 		switch {
@@ -230,30 +236,63 @@ func sideChannels(diene *Partner, pair *Pair, opts *Options, margin float64, cac
 	// The remaining π bonds of the isolated product (after any loss of N₂, CO₂ or an
 	// alcohol: the bridged N=N of a tetrazine adduct is gone before a second diene could
 	// meet it) with the 4π partner.
-	prodSMILES := pair.Orientations[0].IsolatedProduct
-	if prodSMILES == "" {
-		prodSMILES = pair.Orientations[0].Product
-	}
-	check := func() sideResult {
-		pm, err := smiles.Parse(prodSMILES)
-		if err != nil {
-			return sideResult{kind: SideProductDienophile, parseErr: err}
+	o := &pair.Orientations[0]
+	var check func() sideResult
+	key := adductKey{diene: diene, dienophile: dienophile, bonds: o.Bonds}
+	switch {
+	case o.IsolatedProduct != "" || o.isolated == nil:
+		// The isolated product as its SMILES reads (the full analysis, or a Pair decoded
+		// from JSON): the note's atom numbers are those of the SMILES it shows.
+		prodSMILES := o.IsolatedProduct
+		if prodSMILES == "" {
+			prodSMILES = o.Product
 		}
-		pm.Name = "adduct " + prodSMILES
-		return analyseSide(SideProductDienophile, "adduct "+prodSMILES+" as dienophile toward "+diene.Name, diene, pm, opts)
+		key.smiles = prodSMILES // the configuration in it may differ between activations
+		check = func() sideResult {
+			pm, err := smiles.Parse(prodSMILES)
+			if err != nil {
+				return sideResult{kind: SideProductDienophile, what: "adduct " + prodSMILES, failed: err.Error()}
+			}
+			pm.Name = "adduct " + prodSMILES
+			return analyseSide(SideProductDienophile, pm.Name+" as dienophile toward "+diene.Name, diene, pm, opts)
+		}
+	default:
+		// fmo.DetailRow writes no isolated-product SMILES (its stereo searches were most
+		// of a row's cost): the constitution as built, in partner atom order. Its π system
+		// is the same up to the order of the centres, so gaps and scores agree with the
+		// SMILES route to rounding; only the note's atom numbers refer to that order.
+		what := "adduct " + o.Product
+		if o.isolatedSteps {
+			what = "isolated product of adduct " + o.Product
+		}
+		iso := o.isolated
+		check = func() sideResult {
+			pm := iso.Clone()
+			pm.Name = what
+			return analyseSide(SideProductDienophile, what+" as dienophile toward "+diene.Name, diene, pm, opts)
+		}
 	}
-	var r sideResult
-	if cache != nil {
-		r = cache.adduct(diene, prodSMILES, check)
+	if cache != nil && dienophile != nil {
+		add(cache.adduct(key, check))
 	} else {
-		r = check()
-	}
-	if r.parseErr != nil {
-		out = append(out, SideChannel{Kind: SideProductDienophile, Note: "adduct " + prodSMILES + ": not checked: " + r.parseErr.Error()})
-	} else {
-		add(r)
+		add(check())
 	}
 	return out
+}
+
+// tieTol (|β|) is the rounding noise of a gap or score difference: two solves of one π
+// system with its centres in different orders agree to about 1e-15 |β|, far below the
+// 0.001 |β| the reports print. A side channel whose gap equals the pair's (the adduct keeps a
+// π unit identical to the one that reacted) must not read "above" or "below" by the sign of
+// that noise.
+const tieTol = 1e-9
+
+// snapTie returns 0 for a difference within tieTol of zero, else d.
+func snapTie(d float64) float64 {
+	if math.Abs(d) <= tieTol {
+		return 0
+	}
+	return d
 }
 
 // preferredGap analyses diene (4π) with side (2π) and returns the controlling gap at the
@@ -312,7 +351,10 @@ func (p *Pair) AttachSideChannels(channels []SideChannel) {
 			continue
 		}
 		cmp := fmt.Sprintf("below the pair's %.3f |β|", ref)
-		if c.Margin > 0 {
+		switch {
+		case c.Margin == 0:
+			cmp = fmt.Sprintf("equal to the pair's %.3f |β|", ref)
+		case c.Margin > 0:
 			cmp = fmt.Sprintf("only %.3f |β| above the pair's %.3f |β|", c.Margin, ref)
 		}
 		var w string

@@ -38,9 +38,9 @@ const (
 
 // BestOnly reports whether the format shows no orientation of a row but the preferred one
 // (its product SMILES, label and figures) and the pair's own fields: such rows can be
-// analysed at fmo.DetailRow, which skips the stereo forms and follow-up steps (only the
-// isolated product is computed, for the side-channel check) and, where every adduct would
-// be listed, the other orientations. JSON (and
+// analysed at fmo.DetailRow, which skips the stereo forms, the follow-up steps and the
+// isolated product's SMILES (the side-channel check reads the adduct as built) and, where
+// every adduct would be listed, the other orientations. JSON (and
 // the HTML report, which is not a Format) print every orientation.
 func (f Format) BestOnly() bool {
 	switch f {
