@@ -4,8 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
-	"sync"
 
 	"cyclopair/huckel"
 	"cyclopair/huckel/molecule"
@@ -103,7 +103,7 @@ func (p *Partner) prepare(opts *Options) error {
 	if method == nil {
 		// The default Hückel solver keeps only workspace between solves (the orbitals go
 		// into orb): reuse one from a pool instead of growing a new one per partner.
-		s := huckelSolvers.Get().(*huckel.Solver)
+		s := huckelSolvers.Get()
 		defer huckelSolvers.Put(s)
 		method = func() huckel.Method { return s }
 	}
@@ -132,7 +132,7 @@ func (p *Partner) prepare(opts *Options) error {
 	p.Units = units
 	p.sides = sides
 	p.data = make([]unitData, len(units))
-	w := locWorkPool.Get().(*locWork)
+	w := locWorkPool.Get()
 	defer w.release()
 	for i, u := range units {
 		d, err := p.unitData(u, i, w)
@@ -268,10 +268,41 @@ func (w *locWork) ringsOf(pi *huckel.PiSystem) [][6]int {
 	return benzenoidRings(pi)
 }
 
-var locWorkPool = sync.Pool{New: func() any { return new(locWork) }}
+var locWorkPool = newFreeList(func() *locWork { return new(locWork) })
 
 // huckelSolvers holds Hückel solver workspaces for prepare.
-var huckelSolvers = sync.Pool{New: func() any { return new(huckel.Solver) }}
+var huckelSolvers = newFreeList(func() *huckel.Solver { return new(huckel.Solver) })
+
+// freeList keeps up to GOMAXPROCS+2 idle workspaces across garbage collections: a
+// sync.Pool empties at every collection, which would throw away the solvers' eigen memos
+// (huckel/internal/eigmemo, up to 2 MiB each) that make a screen's repeated fragments
+// cheap. Get never blocks: with every kept workspace in use it makes a new one.
+type freeList[T any] struct {
+	idle chan *T
+	make func() *T
+}
+
+func newFreeList[T any](f func() *T) *freeList[T] {
+	return &freeList[T]{idle: make(chan *T, runtime.GOMAXPROCS(0)+2), make: f}
+}
+
+// Get returns an idle workspace or a new one.
+func (l *freeList[T]) Get() *T {
+	select {
+	case x := <-l.idle:
+		return x
+	default:
+		return l.make()
+	}
+}
+
+// Put keeps x for the next Get, or drops it when enough are kept.
+func (l *freeList[T]) Put(x *T) {
+	select {
+	case l.idle <- x:
+	default:
+	}
+}
 
 // release forgets the partner (its π system must not stay reachable from the pool) and
 // returns w to the pool.
