@@ -210,6 +210,9 @@ func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool)
 		}
 		depth := len(path)
 		for k, c := range cell {
+			if pruneTwins && twinOfAny(m, btype, chiral, c, cell[:k]) {
+				continue // its subtree is an image of a twin's, already searched
+			}
 			next := slices.Clone(rank)
 			r.individualise(next, c)
 			r.refine(next)
@@ -235,6 +238,56 @@ func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool)
 		r.individualise(rank, cell[0])
 		r.refine(rank)
 	}
+}
+
+// pruneTwins switches twinOfAny's pruning on (off only in the test that compares both).
+var pruneTwins = true
+
+// twinOfAny reports whether atom c is a twin of one of the atoms done: same labels
+// (element, isotope, charge, hydrogens, map, no kept configuration) and the same
+// neighbours through bonds of the same order and ranking type, apart from each other
+// (the two methyls of an NMe2, the fluorines of a CF3). Swapping two twins and fixing every
+// other atom is an automorphism of the labelled graph that fixes every atom individualised
+// so far (twins in one tied cell were never individualised), so it maps the subtree of one
+// twin onto the other's: the same leaf strings, the same minimum. Skipping it is the
+// automorphism pruning of canonicalSearch, found without descending.
+func twinOfAny(m *molecule.Molecule, btype []int8, chiral []int8, c int, done []int) bool {
+	for _, d := range done {
+		if twins(m, btype, chiral, c, d) {
+			return true
+		}
+	}
+	return false
+}
+
+func twins(m *molecule.Molecule, btype []int8, chiral []int8, u, v int) bool {
+	a, b := &m.Atoms[u], &m.Atoms[v]
+	if a.Element != b.Element || a.Isotope != b.Isotope || a.Charge != b.Charge || a.HCount != b.HCount || a.Map != b.Map {
+		return false
+	}
+	if chiral != nil && (chiral[u] != 0 || chiral[v] != 0) {
+		return false
+	}
+	nu, nv := m.Neighbors(u), m.Neighbors(v)
+	if len(nu) != len(nv) {
+		return false
+	}
+	for _, e := range nu {
+		if e.To == v {
+			continue
+		}
+		found := false
+		for _, f := range nv {
+			if f.To == e.To && m.Bonds[f.Bond].Order == m.Bonds[e.Bond].Order && btype[f.Bond] == btype[e.Bond] {
+				found = true
+				break
+			}
+		}
+		if !found {
+			return false
+		}
+	}
+	return true
 }
 
 // maxCanonicalLeaves bounds the search of Canonical (see its Limitations).

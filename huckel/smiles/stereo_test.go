@@ -169,3 +169,50 @@ func TestCanonicalStereoMirror(t *testing.T) {
 		t.Errorf("only %d inputs with two or more marks", n)
 	}
 }
+
+// TestTwinPruningChangesNothing: skipping the twins of an already searched atom
+// (twinOfAny) leaves every canonical string as the full search writes it, with and without
+// configurations and for the mirror image, on the fixture molecules, renumberings of them,
+// and molecules rich in twins (tert-butyl, CF3, NMe2, gem-dimethyl next to stereocentres).
+func TestTwinPruningChangesNothing(t *testing.T) {
+	inputs := []string{"CC(C)(C)C(F)(F)F", "CN(C)c1ccc(N(C)C)cc1", "C[C@H](N(C)C)[C@@H](C(C)(C)C)C(F)(F)F",
+		"CC1(C)C[C@H](O)[C@@H](C(C)(C)C)C1", "FC(F)(F)C(F)(F)C(F)(F)F", "C1CC2CCC1CC2", "C12C3C4C1C5C2C3C45",
+		"O=[N+]([O-])C(C)(C)[N+](=O)[O-]", "CC(C)(C)[Si](C)(C)OC=CC(=C)O[Si](C)(C)C(C)(C)C"}
+	fx := loadFixture(t)
+	for _, rec := range fx.Molecules {
+		inputs = append(inputs, rec.Smiles)
+	}
+	rng := rand.New(rand.NewPCG(3, 9))
+	defer func() { pruneTwins = true }()
+	checked := 0
+	for _, s := range inputs {
+		m, err := Parse(s)
+		if err != nil {
+			continue
+		}
+		for k := range 2 {
+			mm := m
+			if k == 1 {
+				mm = permute(m, rng)
+			}
+			var got, want [4]string
+			for _, prune := range []bool{true, false} {
+				pruneTwins = prune
+				out := &got
+				if !prune {
+					out = &want
+				}
+				out[0] = Canonical(mm)
+				out[1] = CanonicalStereo(mm)
+				out[2], out[3] = CanonicalStereoMirror(mm)
+			}
+			if got != want {
+				t.Errorf("%s (renumbering %d): with twin pruning %q, full search %q", s, k, got, want)
+			}
+			checked++
+		}
+	}
+	if checked < 600 {
+		t.Errorf("only %d molecules checked", checked)
+	}
+}
