@@ -322,7 +322,7 @@ func (p *Partner) unitData(u Unit, ui int, w *locWork) (unitData, error) {
 		d.slots[i] = -1
 	}
 	copy(d.slots[:], u.Atoms)
-	if u.Kind == UnitPi {
+	if u.Kind == UnitPi && !p.noConj { // a side-channel partner's score reads no endo term
 		d.slots[2] = p.endoSubstituent(u, u.Atoms[0], u.Atoms[1])
 		d.slots[3] = p.endoSubstituent(u, u.Atoms[1], u.Atoms[0])
 	}
