@@ -249,6 +249,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
 		if i == 0 {
 			o.isolated, o.isolatedSteps = isolatedConstitution(diene, du, bonds, pm)
+			o.src = &adductSource{diene: diene, dienophile: dienophile, di: c.di, ei: c.ei}
 		}
 		if detail == DetailRow {
 			pair.Orientations = append(pair.Orientations, o)

@@ -116,6 +116,7 @@ type Orientation struct {
 	// isolatedSteps says whether follow-up steps led to it from the primary adduct.
 	isolated      *molecule.Molecule
 	isolatedSteps bool
+	src           *adductSource // the partners and units the adduct was built from
 }
 
 // RateEstimate is a predicted rate from the fitted model of fmo/rate: log10 of the rate

@@ -85,9 +85,10 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 // unactivated partner. That part holds at most sideAdductCap entries (it is emptied when
 // full), so memory does not grow with the number of rows.
 type SideChannelCache struct {
-	mu      sync.Mutex
-	m       map[*Partner]*sideOnce
-	adducts map[adductKey]*sideOnce
+	mu       sync.Mutex
+	m        map[*Partner]*sideOnce
+	adducts  map[adductKey]*sideOnce
+	residues residueCache // each partner's half of its adducts (residue.go)
 }
 
 // adductKey names an adduct by its partners and the two bonds that join them: the
@@ -266,6 +267,10 @@ func sideChannels(diene, dienophile *Partner, pair *Pair, opts *Options, margin 
 			what = "isolated product of adduct " + o.Product
 		}
 		iso := o.isolated
+		if r, ok := residueSide(diene, o, what, opts, cache); ok {
+			check = func() sideResult { return r }
+			break
+		}
 		check = func() sideResult {
 			pm := iso.Clone()
 			pm.Name = what
@@ -278,6 +283,39 @@ func sideChannels(diene, dienophile *Partner, pair *Pair, opts *Options, margin 
 		add(check())
 	}
 	return out
+}
+
+// residueSide is the product_as_dienophile check of orientation o assembled from the two
+// partners' residues (residue.go), or false where that route does not apply.
+func residueSide(diene *Partner, o *Orientation, what string, opts *Options, cache *SideChannelCache) (sideResult, bool) {
+	src := o.src
+	if src == nil || o.isolatedSteps || !residueRouteOK(opts) {
+		return sideResult{}, false
+	}
+	var halves [2]*residue
+	if cache != nil {
+		halves = [2]*residue{cache.residues.get(src.diene, src.di, opts), cache.residues.get(src.dienophile, src.ei, opts)}
+	} else {
+		d, e := residueOf(src.diene, src.di, opts), residueOf(src.dienophile, src.ei, opts)
+		halves = [2]*residue{&d, &e}
+	}
+	for _, h := range halves {
+		if h.err != nil || h.joins {
+			return sideResult{}, false
+		}
+	}
+	adduct := &molecule.Molecule{Name: what, Atoms: o.isolated.Atoms, Bonds: o.isolated.Bonds}
+	r := sideResult{kind: SideProductDienophile, what: what + " as dienophile toward " + diene.Name}
+	g, site, score, ok, err := residueGap(diene, halves, adduct, len(src.diene.Mol.Atoms), opts)
+	switch {
+	case !ok:
+		r.skip = true
+	case err != nil:
+		r.failed = err.Error()
+	default:
+		r.gap, r.site, r.score = g, site, score
+	}
+	return r, true
 }
 
 // tieTol (|β|) is the rounding noise of a gap or score difference: two solves of one π
