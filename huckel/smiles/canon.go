@@ -488,6 +488,7 @@ type ranker struct {
 	order   []int
 	newRank []int
 	count   []int
+	start   []int // counting-sort offsets, 2n+1
 }
 
 func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
@@ -506,8 +507,8 @@ func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
 		// degree first, so the string starts at a terminal atom (CC(=O)..., O=C1...)
 		r.keys[i] = [7]int{m.Degree(i), AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, a.Map, small}
 	}
-	ints := make([]int, 3*n)
-	r.order, r.newRank, r.count = ints[:n], ints[n:2*n], ints[2*n:]
+	ints := make([]int, 5*n+1)
+	r.order, r.newRank, r.count, r.start = ints[:n], ints[n:2*n], ints[2*n:3*n], ints[3*n:]
 	sigBuf := make([]int, n+2*len(m.Bonds))
 	r.sig = make([][]int, n)
 	off := 0
@@ -559,28 +560,53 @@ func (r *ranker) classes(rank []int) int {
 // their relative order (a refinement never reorders existing classes).
 func (r *ranker) refine(rank []int) {
 	m := r.m
+	n := len(rank)
 	classes := r.classes(rank)
-	for {
-		for i := range m.Atoms {
-			s := append(r.sig[i][:0], rank[i])
-			for _, e := range m.Neighbors(i) {
-				s = append(s, rank[e.To]*2048+r.code[e.Bond])
-			}
-			slices.Sort(s[1:])
-			r.sig[i] = s
+	for classes < n {
+		// Atoms in rank order (a counting sort: ranks are dense), class by class. A new
+		// rank orders atoms by (rank, sorted neighbour codes), as one sort of the whole
+		// signatures would; only classes of two or more atoms need their codes compared.
+		start := r.start[:classes+1]
+		clear(start)
+		for _, x := range rank {
+			start[x+1]++
 		}
-		for i := range r.order {
-			r.order[i] = i
+		for x := 1; x <= classes; x++ {
+			start[x] += start[x-1]
 		}
-		slices.SortFunc(r.order, func(x, y int) int { return slices.Compare(r.sig[x], r.sig[y]) })
+		for i, x := range rank {
+			r.order[start[x]] = i
+			start[x]++
+		}
 		next := 0
-		for k, i := range r.order {
-			if k > 0 && slices.Compare(r.sig[r.order[k-1]], r.sig[i]) != 0 {
+		lo := 0
+		for x := 0; x < classes; x++ {
+			hi := start[x] // end of class x in r.order (start was advanced past it)
+			seg := r.order[lo:hi]
+			if len(seg) == 1 {
+				r.newRank[seg[0]] = next
 				next++
+				lo = hi
+				continue
 			}
-			r.newRank[i] = next
+			for _, i := range seg {
+				s := r.sig[i][:0]
+				for _, e := range m.Neighbors(i) {
+					s = append(s, rank[e.To]*2048+r.code[e.Bond])
+				}
+				slices.Sort(s)
+				r.sig[i] = s
+			}
+			slices.SortFunc(seg, func(a, b int) int { return slices.Compare(r.sig[a], r.sig[b]) })
+			for k, i := range seg {
+				if k > 0 && slices.Compare(r.sig[seg[k-1]], r.sig[i]) != 0 {
+					next++
+				}
+				r.newRank[i] = next
+			}
+			next++
+			lo = hi
 		}
-		next++
 		copy(rank, r.newRank)
 		if next == classes {
 			return
@@ -612,21 +638,25 @@ func (r *ranker) firstTiedCell(rank []int) []int {
 
 // individualise gives atom c a rank of its own just below the rest of its class.
 func (r *ranker) individualise(rank []int, c int) {
+	n := len(rank)
+	// ranks are dense in [0, n); doubled they are even, and c's 2r−1 (−1 for r = 0) sits
+	// just below its class: the new dense rank of a value is the number of values in use
+	// below it (slot v+1 of used holds value v)
+	used := r.start[:2*n]
+	clear(used)
 	for i := range rank {
 		rank[i] *= 2
 	}
 	rank[c]--
-	// densify, keeping the order
-	for i := range r.order {
-		r.order[i] = i
+	for _, x := range rank {
+		used[x+1] = 1
 	}
-	slices.SortFunc(r.order, func(x, y int) int { return rank[x] - rank[y] })
-	next := 0
-	for k, i := range r.order {
-		if k > 0 && rank[r.order[k-1]] != rank[i] {
-			next++
-		}
-		r.newRank[i] = next
+	sum := 0
+	for k, p := range used {
+		used[k] = sum
+		sum += p
 	}
-	copy(rank, r.newRank)
+	for i, x := range rank {
+		rank[i] = used[x+1]
+	}
 }
