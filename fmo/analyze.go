@@ -275,9 +275,11 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			regioPartner = i
 		}
 	}
+	regioSame := regioPartner >= 0 && keys.same(0, regioPartner) // both orientations give one adduct
 	otherSite := false
 	for i, c := range cands[1:] {
-		if (c.di != best.di || c.ei != best.ei) && !keys.same(i+1, 0) && (regioPartner < 0 || !keys.same(i+1, regioPartner)) {
+		// (when regioSame, differing from adduct 0 is differing from the regio partner)
+		if (c.di != best.di || c.ei != best.ei) && !keys.same(i+1, 0) && (regioPartner < 0 || regioSame || !keys.same(i+1, regioPartner)) {
 			pair.SiteMargin = best.s.score - c.s.score
 			otherSite = true
 			break
@@ -295,7 +297,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	default:
 		pair.RegioConfidence = "no preference"
 	}
-	if regioPartner >= 0 && keys.same(0, regioPartner) {
+	if regioSame {
 		pair.RegioConfidence = "no preference" // both orientations give the same adduct
 	}
 
@@ -363,7 +365,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		siteClass = siteClassOf(dienophile.Activation)
 	}
 	addConfidence(pair, regioClassOf(diene, diene.Units[best.di], dienophile, dienophile.Units[best.ei], pair.Demand), siteClass,
-		regioPartner >= 0 && keys.same(0, regioPartner), warn)
+		regioSame, warn)
 	return pair, nil
 }
 
