@@ -56,6 +56,12 @@ const (
 //
 // Configurations on atoms whose neighbours change are cleared.
 func followUp(m *molecule.Molecule, ring []int) ([]FollowUpStep, *molecule.Molecule) {
+	return followUpSteps(m, ring, true)
+}
+
+// followUpSteps is followUp; with names false the steps carry only their Kind (no product
+// or lost-molecule SMILES, whose canonical searches only the listed steps need).
+func followUpSteps(m *molecule.Molecule, ring []int, names bool) ([]FollowUpStep, *molecule.Molecule) {
 	steps := []FollowUpStep{}
 	if len(ring) != 6 {
 		return steps, m
@@ -93,7 +99,10 @@ func followUp(m *molecule.Molecule, ring []int) ([]FollowUpStep, *molecule.Molec
 				for i := range ring {
 					ring[i] = remap[ring[i]]
 				}
-				step := FollowUpStep{Kind: StepRetroDA, Lost: lost, LostName: name, Product: relativeStereo(cur), Basis: basis}
+				step := FollowUpStep{Kind: StepRetroDA, Lost: lost, LostName: name, Basis: basis}
+				if names {
+					step.Product = relativeStereo(cur)
+				}
 				if name == "N₂" && !aromaticRing(cur, ring) && countElement(cur, ring, "N") == 2 {
 					step.Note = noteDihydro
 				}
@@ -129,10 +138,13 @@ elim:
 					if !aromaticRing(trial, ring) {
 						continue
 					}
-					lostMol := subMolecule(cur, side)
-					lostMol.Atoms[slices.Index(side, e.To)].HCount++
-					lostMol.Atoms[slices.Index(side, e.To)].Chiral = 0
-					lost := smiles.Canonical(lostMol)
+					var lost, lostName string
+					if names {
+						lostMol := subMolecule(cur, side)
+						lostMol.Atoms[slices.Index(side, e.To)].HCount++
+						lostMol.Atoms[slices.Index(side, e.To)].Chiral = 0
+						lost, lostName = smiles.Canonical(lostMol), leavingName(lostMol, slices.Index(side, e.To))
+					}
 					trial.Atoms[v].HCount--
 					trial.Atoms[u].Chiral, trial.Atoms[v].Chiral = 0, 0
 					del := map[int]bool{}
@@ -145,8 +157,11 @@ elim:
 						ring[k] = remap[ring[k]]
 					}
 					cur = trial
-					steps = append(steps, FollowUpStep{Kind: StepElimination, Lost: lost, LostName: leavingName(lostMol, slices.Index(side, e.To)),
-						Product: relativeStereo(cur), Basis: basisElim})
+					step := FollowUpStep{Kind: StepElimination, Lost: lost, LostName: lostName, Basis: basisElim}
+					if names {
+						step.Product = relativeStereo(cur)
+					}
+					steps = append(steps, step)
 					applied = true
 					break
 				}

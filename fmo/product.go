@@ -40,10 +40,11 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	}
 	add(dp.Mol, ds, 0)
 	add(ep.Mol, es, off)
-	m.Reindex()
 	bonds = productBonds(dp.Units[di], ep.Units[ei], o)
-	m.AddBond(bonds[0][0], bonds[0][1]+off, 1)
-	m.AddBond(bonds[1][0], bonds[1][1]+off, 1)
+	// the two new bonds last, then one adjacency build (the lists AddBond would give)
+	m.Bonds = append(m.Bonds, molecule.Bond{A: bonds[0][0], B: bonds[0][1] + off, Order: 1},
+		molecule.Bond{A: bonds[1][0], B: bonds[1][1] + off, Order: 1})
+	m.Reindex()
 	return m, bonds
 }
 
@@ -168,10 +169,10 @@ func productForms(dp, ep *Partner, du, eu Unit, bonds [2][2]int, pm *molecule.Mo
 	if len(steps) == 0 {
 		return stereo, steps, primary
 	}
-	_, exoFinal := followUp(ex, ring)
+	_, exoFinal := followUpSteps(ex, ring, false)
 	iso := relativeStereo(endoFinal)
 	if xi := relativeStereo(exoFinal); xi != iso && !endoPref {
-		_, plain := followUp(pm, ring)
+		_, plain := followUpSteps(pm, ring, false)
 		iso = smiles.Canonical(plain)
 	}
 	return stereo, steps, iso
@@ -187,7 +188,7 @@ func isolatedConstitution(dp *Partner, du Unit, bonds [2][2]int, pm *molecule.Mo
 	}
 	off := len(dp.Mol.Atoms)
 	ring := []int{du.Atoms[0], du.Atoms[1], du.Atoms[2], du.Atoms[3], bonds[1][1] + off, bonds[0][1] + off}
-	st, plain := followUp(pm, ring)
+	st, plain := followUpSteps(pm, ring, false)
 	if len(st) == 0 {
 		return pm, false
 	}
