@@ -206,6 +206,17 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	// again; margins below still look at every candidate. At most MaxListedOrientations
 	// rows are listed (each needs its canonical SMILES and stereo forms); the count of the
 	// rest is stated in a warning.
+	// same(i, j): adducts i and j are one compound. The partners show it without building
+	// either adduct where their halves map onto each other (unitswap.go); the search
+	// bound on j's colours is the condition keys.same puts on an isomorphism (i's are equal
+	// when the two are isomorphic). Otherwise the product keys decide.
+	same := func(i, j int) bool {
+		ci, cj := &cands[i], &cands[j]
+		if i != j && sameAdduct(diene, dienophile, ci.di, ci.ei, ci.or, cj.di, cj.ei, cj.or) && searchBounded(keys.coloursOf(j)) {
+			return true
+		}
+		return keys.same(i, j)
+	}
 	var listed []int
 	unlisted := 0
 	n := len(cands)
@@ -216,9 +227,17 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		n = 1
 	}
 	for i := range cands[:n] {
+		// the partners' unit maps first (no invariant of adduct i needed), then the keys
 		dup := false
 		for _, j := range listed {
-			if keys.same(i, j) {
+			ci, cj := &cands[i], &cands[j]
+			if sameAdduct(diene, dienophile, ci.di, ci.ei, ci.or, cj.di, cj.ei, cj.or) && searchBounded(keys.coloursOf(j)) {
+				dup = true
+				break
+			}
+		}
+		for _, j := range listed {
+			if dup || keys.same(i, j) {
 				dup = true
 				break
 			}
@@ -275,11 +294,11 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			regioPartner = i
 		}
 	}
-	regioSame := regioPartner >= 0 && keys.same(0, regioPartner) // both orientations give one adduct
+	regioSame := regioPartner >= 0 && same(regioPartner, 0) // both orientations give one adduct
 	otherSite := false
 	for i, c := range cands[1:] {
 		// (when regioSame, differing from adduct 0 is differing from the regio partner)
-		if (c.di != best.di || c.ei != best.ei) && !keys.same(i+1, 0) && (regioPartner < 0 || regioSame || !keys.same(i+1, regioPartner)) {
+		if (c.di != best.di || c.ei != best.ei) && !same(i+1, 0) && (regioPartner < 0 || regioSame || !same(i+1, regioPartner)) {
 			pair.SiteMargin = best.s.score - c.s.score
 			otherSite = true
 			break

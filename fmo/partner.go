@@ -44,6 +44,8 @@ type Partner struct {
 	// localisation but never the conjugation loss, which was about half of their
 	// preparation (a second set of residue solves on the alkyl-free π system).
 	noConj bool
+	// unitMapsT memoises unitMaps per pair of units (unitswap.go).
+	unitMapsT *unitMapTable
 }
 
 // slot layout of unitData: for a diene a,b,c,d; for a dipole a,b,c,- ; for a 2π unit
@@ -131,6 +133,7 @@ func (p *Partner) prepare(opts *Options) error {
 	}
 	p.Units = units
 	p.sides = sides
+	p.unitMapsT = newUnitMapTable(len(units))
 	p.data = make([]unitData, len(units))
 	w := locWorkPool.Get()
 	defer w.release()

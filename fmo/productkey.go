@@ -87,6 +87,12 @@ func (p *productKeys) invariant(i int) uint64 {
 	return p.inv[i]
 }
 
+// coloursOf is adduct i's invariant colours (computing the invariant if needed).
+func (p *productKeys) coloursOf(i int) []uint64 {
+	p.invariant(i)
+	return p.colours[i]
+}
+
 // bondInv is bondInvariant of adduct i (built on demand), never 0.
 func (p *productKeys) bondInvariant(i int) uint64 {
 	if p.bondInv[i] == 0 {
