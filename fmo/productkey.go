@@ -319,11 +319,11 @@ func graphColours(m *molecule.Molecule) (uint64, []uint64) {
 		a := &m.Atoms[i]
 		c[i] = atomColour(a.Element, a.Isotope, a.Charge, a.HCount)
 	}
-	return refineColours(c, func(f func(a, b int, t uint64)) {
-		for _, b := range m.Bonds {
-			f(b.A, b.B, 0)
-		}
-	})
+	edges := make([]colourEdge, len(m.Bonds))
+	for i, b := range m.Bonds {
+		edges[i] = colourEdge{a: int32(b.A), b: int32(b.B)}
+	}
+	return refineColours(c, edges)
 }
 
 // bondInvariant is graphInvariant with every bond labelled by its smiles.BondTypes type:
@@ -335,11 +335,11 @@ func bondInvariant(m *molecule.Molecule) uint64 {
 		c[i] = atomColour(a.Element, a.Isotope, a.Charge, a.HCount)
 	}
 	types := smiles.BondTypes(m)
-	h, _ := refineColours(c, func(f func(a, b int, t uint64)) {
-		for bi, b := range m.Bonds {
-			f(b.A, b.B, uint64(types[bi]))
-		}
-	})
+	edges := make([]colourEdge, len(m.Bonds))
+	for bi, b := range m.Bonds {
+		edges[bi] = colourEdge{a: int32(b.A), b: int32(b.B), t: uint64(types[bi])}
+	}
+	h, _ := refineColours(c, edges)
 	return h
 }
 
@@ -372,21 +372,22 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 		c[off+i] = atomColour(a.Element, a.Isotope, es.charge[i], a.HCount)
 	}
 	nb := productBonds(dp.Units[di], ep.Units[ei], o)
-	return refineColours(c, func(f func(a, b int, t uint64)) {
-		for _, b := range dm.Bonds {
-			f(b.A, b.B, 0)
-		}
-		for _, b := range em.Bonds {
-			f(b.A+off, b.B+off, 0)
-		}
-		f(nb[0][0], nb[0][1]+off, 0)
-		f(nb[1][0], nb[1][1]+off, 0)
-	})
+	edges := make([]colourEdge, 0, len(dm.Bonds)+len(em.Bonds)+2)
+	for _, b := range dm.Bonds {
+		edges = append(edges, colourEdge{a: int32(b.A), b: int32(b.B)})
+	}
+	for _, b := range em.Bonds {
+		edges = append(edges, colourEdge{a: int32(b.A + off), b: int32(b.B + off)})
+	}
+	edges = append(edges, colourEdge{a: int32(nb[0][0]), b: int32(nb[0][1] + off)},
+		colourEdge{a: int32(nb[1][0]), b: int32(nb[1][1] + off)})
+	return refineColours(c, edges)
 }
 
 // refineColours runs colour refinement with commutative neighbour sums on the initial
-// colours in the first half of c (the second half is work space) over the bonds that bonds
-// visits (each with a label t, 0 for none, mixed into what it adds to both ends) until a round splits no class (at most one round per atom), then sums over atoms.
+// colours in the first half of c (the second half is work space) over edges (each with a
+// label t, 0 for none, mixed into what it adds to both ends) until a round splits no class
+// (at most one round per atom), then sums over atoms.
 // Refining to the stable partition rather than a fixed three rounds tells apart adducts
 // that differ far from any distinctive atom (regio-isomers on a large ring system), and
 // makes the colour classes small enough for searchBounded where the three-round classes
@@ -397,19 +398,28 @@ func adductColours(dp, ep *Partner, di, ei, o int) (uint64, []uint64) {
 // refinement starts from finer atom labels and also splits by neighbour classes to
 // stability, and a hash collision can only merge classes), which is what searchBounded
 // relies on.
-func refineColours(c []uint64, bonds func(f func(a, b int, t uint64))) (uint64, []uint64) {
+func refineColours(c []uint64, edges []colourEdge) (uint64, []uint64) {
 	n := len(c) / 2
 	cur, nxt := c[:n], c[n:]
+	// each edge's label, spread once rather than every round
+	var tbuf [128]uint64
+	ts := tbuf[:0]
+	if len(edges) > len(tbuf) {
+		ts = make([]uint64, 0, len(edges))
+	}
+	for _, e := range edges {
+		ts = append(ts, e.t*0xd6e8feb86659fd93)
+	}
 	classes := countClasses(cur)
 	for range max(n, 3) {
 		for i := range nxt {
 			nxt[i] = cur[i] * 0x9e3779b97f4a7c15
 		}
-		bonds(func(a, b int, t uint64) {
-			t *= 0xd6e8feb86659fd93
-			nxt[a] += mix64(cur[b] ^ t)
-			nxt[b] += mix64(cur[a] ^ t)
-		})
+		for k, e := range edges {
+			t := ts[k]
+			nxt[e.a] += mix64(cur[e.b] ^ t)
+			nxt[e.b] += mix64(cur[e.a] ^ t)
+		}
 		for i := range nxt {
 			nxt[i] = mix64(nxt[i])
 		}
@@ -427,23 +437,39 @@ func refineColours(c []uint64, bonds func(f func(a, b int, t uint64))) (uint64, 
 	return h, cur
 }
 
-// countClasses is the number of distinct values in c (an open-addressing set on the
-// stack for up to 256 atoms: a sort per refinement round was 5 % of a printed row).
+// colourEdge is a bond for refineColours: its two atoms and a label t (0 for none), mixed
+// into what it adds to both ends.
+type colourEdge struct {
+	a, b int32
+	t    uint64
+}
+
+// countClasses is the number of distinct values in c (an open-addressing set on the stack
+// for up to 128 atoms, sized to the molecule: a sort per refinement round was 5 % of a
+// printed row, and zeroing a table for 256 atoms every round of a 40-atom adduct most of
+// what was left).
 func countClasses(c []uint64) int {
-	size := 16
+	if len(c) <= 64 {
+		var buf [128]uint64
+		var used [128]bool
+		return countInto(c, buf[:], used[:])
+	}
+	size := 256
 	for size < 2*len(c) {
 		size *= 2
 	}
-	var buf [512]uint64
-	var used [512]bool
-	var tab []uint64
-	var occ []bool
-	if size <= len(buf) {
-		tab, occ = buf[:size], used[:size]
-	} else {
-		tab, occ = make([]uint64, size), make([]bool, size)
+	if size == 256 {
+		var buf [256]uint64
+		var used [256]bool
+		return countInto(c, buf[:], used[:])
 	}
-	mask := uint64(size - 1)
+	return countInto(c, make([]uint64, size), make([]bool, size))
+}
+
+// countInto counts the distinct values of c in the open-addressing table tab (occ marks the
+// used slots; both zeroed, of a power-of-two length at least 2·len(c)).
+func countInto(c, tab []uint64, occ []bool) int {
+	mask := uint64(len(tab) - 1)
 	k := 0
 	for _, v := range c {
 		for h := mix64(v) & mask; ; h = (h + 1) & mask {
