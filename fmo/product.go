@@ -1,6 +1,7 @@
 package fmo
 
 import (
+	"slices"
 	"strings"
 
 	"cyclopair/huckel/molecule"
@@ -118,14 +119,10 @@ func regioLabel(dp, ep *Partner, du, eu Unit, o int) string {
 
 // substituted returns the unit atoms that carry a substituent, one entry per substituent.
 func substituted(m *molecule.Molecule, unit []int) []int {
-	in := map[int]bool{}
-	for _, a := range unit {
-		in[a] = true
-	}
 	var out []int
 	for _, a := range unit {
 		for _, e := range m.Neighbors(a) {
-			if !in[e.To] && m.Atoms[e.To].Element != "H" {
+			if !slices.Contains(unit, e.To) && m.Atoms[e.To].Element != "H" {
 				out = append(out, a)
 			}
 		}

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"slices"
+	"strconv"
 	"strings"
 
 	"cyclopair/huckel"
@@ -85,11 +86,16 @@ func (u Unit) RingSize() int {
 // chemists count atoms in a SMILES), terminus first, e.g. "C1-C2-C3-C4" for butadiene.
 // Numeric fields (Atoms, Bonds) stay 0-based.
 func (u Unit) Describe(m *molecule.Molecule) string {
-	parts := make([]string, len(u.Atoms))
+	var buf [48]byte
+	b := buf[:0]
 	for i, a := range u.Atoms {
-		parts[i] = fmt.Sprintf("%s%d", m.Atoms[a].Element, a+1)
+		if i > 0 {
+			b = append(b, '-')
+		}
+		b = append(b, m.Atoms[a].Element...)
+		b = strconv.AppendInt(b, int64(a+1), 10)
 	}
-	return strings.Join(parts, "-")
+	return string(b)
 }
 
 // Sentinel errors of site perception; errors returned by Sites wrap one of them.
