@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"slices"
 	"strings"
+	"sync"
 
 	"cyclopair/huckel/molecule"
 )
@@ -149,14 +150,20 @@ func canonical(m *molecule.Molecule, ringSizes []int, stereo bool) (s string, ex
 // string of m's mirror image (see CanonicalStereoMirror).
 func canonicalSearch(m *molecule.Molecule, ringSizes []int, stereo, mirror bool) (s, ms string, exact bool) {
 	btype, inAlt := alternation(m)
-	r := newRanker(m, btype, ringSizes)
+	cw := canonWorks.Get().(*canonWork)
+	defer func() {
+		cw.r.m, cw.lw.old, cw.lw.w.m = nil, nil, nil // keep no molecule reachable from the pool
+		canonWorks.Put(cw)
+	}()
+	r := &cw.r
+	r.reset(m, btype, ringSizes)
 	rank := r.initial()
 	r.refine(rank)
 	var chiral []int8
 	if stereo {
 		chiral = stereoCentres(m, rank)
 	}
-	var lw leafWriter
+	lw := &cw.lw
 	writeRanked := func(m *molecule.Molecule, btype []int8, inAlt int, rank []int) string {
 		return lw.write(m, btype, inAlt, rank, chiral)
 	}
@@ -489,11 +496,22 @@ type ranker struct {
 	newRank []int
 	count   []int
 	start   []int // counting-sort offsets, 2n+1
+	// buffers kept between molecules (canonWork)
+	ints, sigBuf []int
 }
 
 func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
+	r := new(ranker)
+	r.reset(m, btype, ring)
+	return r
+}
+
+// reset prepares r for m, reusing its buffers.
+func (r *ranker) reset(m *molecule.Molecule, btype []int8, ring []int) {
 	n := len(m.Atoms)
-	r := &ranker{m: m, keys: make([][7]int, n), code: make([]int, len(m.Bonds))}
+	r.m = m
+	r.keys = growSlice(r.keys, n)
+	r.code = growSlice(r.code, len(m.Bonds))
 	for bi := range m.Bonds {
 		r.code[bi] = int(btype[bi]) + 8*min(ring[bi], 255)
 	}
@@ -507,18 +525,35 @@ func newRanker(m *molecule.Molecule, btype []int8, ring []int) *ranker {
 		// degree first, so the string starts at a terminal atom (CC(=O)..., O=C1...)
 		r.keys[i] = [7]int{m.Degree(i), AtomicNumber(a.Element), a.Isotope, a.Charge, a.HCount, a.Map, small}
 	}
-	ints := make([]int, 5*n+1)
+	r.ints = growSlice(r.ints, 5*n+1)
+	ints := r.ints
 	r.order, r.newRank, r.count, r.start = ints[:n], ints[n:2*n], ints[2*n:3*n], ints[3*n:]
-	sigBuf := make([]int, n+2*len(m.Bonds))
-	r.sig = make([][]int, n)
+	r.sigBuf = growSlice(r.sigBuf, n+2*len(m.Bonds))
+	r.sig = growSlice(r.sig, n)
 	off := 0
 	for i := range r.sig {
 		d := 1 + m.Degree(i)
-		r.sig[i] = sigBuf[off : off : off+d]
+		r.sig[i] = r.sigBuf[off : off : off+d]
 		off += d
 	}
-	return r
 }
+
+// growSlice returns b with length n, reallocated only when its capacity is short (the
+// contents are not cleared).
+func growSlice[T any](b []T, n int) []T {
+	if cap(b) < n {
+		return make([]T, n, n+n/2)
+	}
+	return b[:n]
+}
+
+// canonWork is the reusable work space of one canonical search.
+type canonWork struct {
+	r  ranker
+	lw leafWriter
+}
+
+var canonWorks = sync.Pool{New: func() any { return new(canonWork) }}
 
 // initial ranks atoms by their invariants (dense ranks from 0).
 func (r *ranker) initial() []int {
