@@ -94,7 +94,18 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		s          orientScore
 		di, ei, or int
 	}
-	var cands []cand
+	nd, ne := 0, 0
+	for i := range diene.data {
+		if diene.data[i].ok {
+			nd++
+		}
+	}
+	for i := range dienophile.data {
+		if dienophile.data[i].ok {
+			ne++
+		}
+	}
+	cands := make([]cand, 0, 2*nd*ne)
 	for di := range diene.Units {
 		dd := &diene.data[di]
 		if !dd.ok {
@@ -226,6 +237,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		// apart (the margins below compare the few they need).
 		n = 1
 	}
+	pair.Orientations = make([]Orientation, 0, min(n, MaxListedOrientations))
 	for i := range cands[:n] {
 		// the partners' unit maps first (no invariant of adduct i needed), then the keys
 		dup := false

@@ -66,7 +66,10 @@ func followUpSteps(m *molecule.Molecule, ring []int, names bool) ([]FollowUpStep
 	if len(ring) != 6 {
 		return steps, m
 	}
-	cur := m.Clone()
+	// cur is m until a rule changes it (then a clone: m is the caller's). m's neighbour
+	// lists are in bond order, as a clone's are (buildProduct and stereoAdduct index
+	// after adding every bond), so the rules see the same order either way.
+	cur := m
 	ring = slices.Clone(ring)
 	a, b, c, d := ring[0], ring[1], ring[2], ring[3]
 	inRing := func(v int) bool { return slices.Contains(ring, v) }
@@ -90,6 +93,7 @@ func followUpSteps(m *molecule.Molecule, ring []int, names bool) ([]FollowUpStep
 				for _, x := range extra {
 					del[x] = true
 				}
+				cur = cur.Clone()
 				cur.Bonds[cur.BondBetween(a, b)].Order = 2
 				cur.Bonds[bc].Order = 1
 				cur.Bonds[cur.BondBetween(c, d)].Order = 2
