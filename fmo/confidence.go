@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"slices"
 	"strings"
+	"sync"
 )
 
 // Honest confidence: every verdict of a Pair carries how often the method got verdicts of
@@ -166,64 +167,16 @@ var (
 // regioMoot is set when both regio-orientations give the same adduct (no regio question):
 // the regio figures are still given, without a caution.
 func addConfidence(p *Pair, regioClass, siteClass string, regioMoot bool, warn func(string)) {
-	t, ok := CheckSetConfidence(p.Method)
-	if !ok {
-		t = ConfidenceTable{Method: p.Method}
-	}
 	note := func(verdict, class, word string, words []string, moot bool) {
-		n := ConfidenceNote{Verdict: verdict, Class: class, Word: word}
-		var rec ClassRecord
-		for _, r := range t.Classes {
-			if r.Verdict == verdict && r.Class == class {
-				rec = r
-			}
+		k := confidenceKey{method: p.Method, verdict: verdict, class: class, word: word, moot: moot}
+		c, ok := confidenceNotes.Load(k)
+		if !ok {
+			c, _ = confidenceNotes.LoadOrStore(k, confidenceNote(p.Method, verdict, class, word, words, moot))
 		}
-		rec.Verdict, rec.Class = verdict, class
-		n.Hits, n.Cases, n.KnownMisses = rec.Hits, rec.Cases, slices.Clone(rec.KnownMisses)
-		var b strings.Builder
-		b.WriteString(verdict)
-		if class != verdict {
-			b.WriteString(" (" + class + ")")
-		}
-		if n.Cases == 0 {
-			fmt.Fprintf(&b, ": no case of this class in the check set (%s)", t.Method)
-		} else {
-			fmt.Fprintf(&b, ": right in %d of %d literature cases", n.Hits, n.Cases)
-		}
-		if word != "" {
-			for _, r := range t.Words {
-				if r.Verdict == verdict && r.Word == word {
-					n.WordHits, n.WordCases = r.Hits, r.Cases
-				}
-			}
-			if n.WordCases > 0 {
-				fmt.Fprintf(&b, "; %q right in %d of %d", word, n.WordHits, n.WordCases)
-			}
-			if ok, why := wordSupported(t, verdict, words, word); !ok {
-				b.WriteString("; " + why)
-			}
-		}
-		n.Text = b.String()
-		p.Confidence = append(p.Confidence, n)
-		if !moot && cautionFor(rec) {
-			msg := "caution, " + verdict
-			if class != verdict {
-				msg += " (" + class + ")"
-			}
-			msg += ": "
-			switch {
-			case rec.Cases == 0:
-				msg += "no literature case of this class in the check set: the verdict is untested"
-			case rec.Cases < confidenceMinCases:
-				msg += fmt.Sprintf("only %d literature case(s) of this class in the check set, too few to know the hit rate", rec.Cases)
-			default:
-				msg += fmt.Sprintf("the method is right in only %d of %d literature cases of this class (known misses %s)",
-					rec.Hits, rec.Cases, strings.Join(rec.KnownMisses, ", "))
-			}
-			if why := classCaution[class]; why != "" && rec.Cases > 0 && len(rec.KnownMisses) > 0 {
-				msg += ": " + why
-			}
-			warn(msg)
+		cn := c.(confidenceEntry)
+		p.Confidence = append(p.Confidence, cn.note)
+		if cn.caution != "" {
+			warn(cn.caution)
 		}
 	}
 	note(VerdictRegio, regioClass, p.RegioConfidence, regioWords, regioMoot)
@@ -234,6 +187,87 @@ func addConfidence(p *Pair, regioClass, siteClass string, regioMoot bool, warn f
 		note(VerdictEndo, ClassEndo, p.Endo, endoWords, false)
 	}
 	note(VerdictDemand, ClassDemand, "", nil, false)
+}
+
+// confidenceNotes memoises confidenceNote: a screen's rows fall into a few dozen
+// (verdict, class, word) combinations, each formatted once. The notes' KnownMisses slices
+// are shared between pairs (read-only).
+var confidenceNotes sync.Map // confidenceKey → confidenceEntry
+
+type confidenceKey struct {
+	method, verdict, class, word string
+	moot                         bool
+}
+
+type confidenceEntry struct {
+	note    ConfidenceNote
+	caution string // the caution warning, "" for none
+}
+
+// confidenceNote is one verdict's note from the generated table of method, and its caution
+// warning when the class is cautioned (not when moot).
+func confidenceNote(method, verdict, class, word string, words []string, moot bool) confidenceEntry {
+	t, ok := CheckSetConfidence(method)
+	if !ok {
+		t = ConfidenceTable{Method: method}
+	}
+	var out confidenceEntry
+	n := ConfidenceNote{Verdict: verdict, Class: class, Word: word}
+	var rec ClassRecord
+	for _, r := range t.Classes {
+		if r.Verdict == verdict && r.Class == class {
+			rec = r
+		}
+	}
+	rec.Verdict, rec.Class = verdict, class
+	n.Hits, n.Cases, n.KnownMisses = rec.Hits, rec.Cases, slices.Clone(rec.KnownMisses)
+	var b strings.Builder
+	b.WriteString(verdict)
+	if class != verdict {
+		b.WriteString(" (" + class + ")")
+	}
+	if n.Cases == 0 {
+		fmt.Fprintf(&b, ": no case of this class in the check set (%s)", t.Method)
+	} else {
+		fmt.Fprintf(&b, ": right in %d of %d literature cases", n.Hits, n.Cases)
+	}
+	if word != "" {
+		for _, r := range t.Words {
+			if r.Verdict == verdict && r.Word == word {
+				n.WordHits, n.WordCases = r.Hits, r.Cases
+			}
+		}
+		if n.WordCases > 0 {
+			fmt.Fprintf(&b, "; %q right in %d of %d", word, n.WordHits, n.WordCases)
+		}
+		if ok, why := wordSupported(t, verdict, words, word); !ok {
+			b.WriteString("; " + why)
+		}
+	}
+	n.Text = b.String()
+	out.note = n
+	if !moot && cautionFor(rec) {
+		msg := "caution, " + verdict
+		if class != verdict {
+			msg += " (" + class + ")"
+		}
+		msg += ": "
+		switch {
+		case rec.Cases == 0:
+			msg += "no literature case of this class in the check set: the verdict is untested"
+		case rec.Cases < confidenceMinCases:
+			msg += fmt.Sprintf("only %d literature case(s) of this class in the check set, too few to know the hit rate", rec.Cases)
+		default:
+			msg += fmt.Sprintf("the method is right in only %d of %d literature cases of this class (known misses %s)",
+				rec.Hits, rec.Cases, strings.Join(rec.KnownMisses, ", "))
+		}
+		if why := classCaution[class]; why != "" && rec.Cases > 0 && len(rec.KnownMisses) > 0 {
+			msg += ": " + why
+		}
+		out.caution = msg
+	}
+
+	return out
 }
 
 // regioClassOf decides the regio class of the preferred orientation (see the Class…
