@@ -271,10 +271,15 @@ func (w *locWork) ringsOf(pi *huckel.PiSystem) [][6]int {
 	return benzenoidRings(pi)
 }
 
-var locWorkPool = newFreeList(func() *locWork { return new(locWork) })
+var locWorkPool = newFreeList(func() *locWork {
+	w := new(locWork)
+	w.energy.Memo = true // a partner's residues share every fragment the unit does not touch
+	return w
+})
 
-// huckelSolvers holds Hückel solver workspaces for prepare.
-var huckelSolvers = newFreeList(func() *huckel.Solver { return new(huckel.Solver) })
+// huckelSolvers holds Hückel solver workspaces for prepare (with the eigen memo: a screen's
+// partners and adducts repeat fragments).
+var huckelSolvers = newFreeList(func() *huckel.Solver { return &huckel.Solver{Memo: true} })
 
 // freeList keeps up to GOMAXPROCS+2 idle workspaces across garbage collections: a
 // sync.Pool empties at every collection, which would throw away the solvers' eigen memos

@@ -32,6 +32,9 @@ import (
 // The zero value is ready to use; buffers grow and are reused, so repeated calls allocate
 // nothing once warm. An EnergySolver is not safe for concurrent use.
 type EnergySolver struct {
+	// Memo: as Solver.Memo, for the eigenvalues.
+	Memo bool
+
 	a, d, e, tau, work, x []float64
 	loc, fragE            []int
 	occ                   []energyLevel
@@ -157,7 +160,7 @@ func solveEnergy(ps *PiSystem) (float64, error) {
 // values leaves in s.d the eigenvalues of the m×m matrix in s.a, ascending, as eigenvalues
 // computes them, looking them up in s.memo first (the same numbers, bit for bit).
 func (s *EnergySolver) values(m int) bool {
-	if m < eigmemo.MinOrder {
+	if !s.Memo || m < eigmemo.MinOrder {
 		return s.eigenvalues(m)
 	}
 	h := eigmemo.Hash(s.a[:m*m])

@@ -108,6 +108,13 @@ func Solve(ps *PiSystem) (*Orbitals, error) {
 // Orbitals value is reused too). It gives the same results as Solve. The zero value is ready
 // to use. A Solver is not safe for concurrent use: give each worker goroutine its own.
 type Solver struct {
+	// Memo makes the solver remember its recent fragment eigenproblems by their exact
+	// matrix and reuse the results, which are then the numbers a new solve would give, bit
+	// for bit (up to 2 MiB per solver): worth it where fragments recur (the residues of a
+	// partner's localisation energies, the adducts of a screen), not for a stream of
+	// unrelated molecules.
+	Memo bool
+
 	useMat bool // diagonalise through mat.EigenSym (the path of Solve)
 
 	a, w, work []float64
@@ -536,7 +543,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 // eigenMemo is eigen looking the result up in s.memo first: the eigenvalues in s.w and
 // the vectors in s.a are then the numbers eigen would compute, bit for bit (eigmemo).
 func (s *Solver) eigenMemo(m int) error {
-	if s.useMat || m < eigmemo.MinOrder {
+	if !s.Memo || s.useMat || m < eigmemo.MinOrder {
 		return s.eigen(m)
 	}
 	mm := m * m

@@ -519,7 +519,7 @@ func TestTwoCentreClosedForm(t *testing.T) {
 // Solver gives, bit for bit: random systems with repeated fragments, solved twice.
 func TestSolverMemoBitIdentical(t *testing.T) {
 	rnd := rand.New(rand.NewPCG(7, 2026))
-	var warm huckel.Solver
+	warm := huckel.Solver{Memo: true}
 	var got, want huckel.Orbitals
 	for trial := range 300 {
 		var cs []huckel.Centre
