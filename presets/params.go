@@ -24,21 +24,17 @@ var paramSets = &builtinSets[*huckel.Params]{
 	name:  func(p *huckel.Params) string { return p.Name },
 	// A set with a base: key is stored merged onto that base, which must be a built-in set
 	// without a base of its own.
-	finish: func(raw, sets map[string]*huckel.Params) error {
-		for name, p := range raw {
-			if p.Base == "" {
-				sets[name] = p
-				continue
-			}
-			base, ok := raw[p.Base]
-			if !ok || base.Base != "" {
-				return fmt.Errorf("presets/params/%s.yaml: base %q is not a built-in base set", name, p.Base)
-			}
-			merged := base.Merge(p)
-			merged.Base = p.Base
-			sets[name] = merged
+	finish: func(name string, p *huckel.Params, raw func(string) (*huckel.Params, error)) (*huckel.Params, error) {
+		if p.Base == "" {
+			return p, nil
 		}
-		return nil
+		base, err := raw(p.Base)
+		if err != nil || base.Base != "" {
+			return nil, fmt.Errorf("presets/params/%s.yaml: base %q is not a built-in base set", name, p.Base)
+		}
+		merged := base.Merge(p)
+		merged.Base = p.Base
+		return merged, nil
 	},
 }
 

@@ -101,3 +101,20 @@ func must(h float64, ok bool) float64 {
 	}
 	return h
 }
+
+// Every built-in PPP set loads by the name of its file (sets are parsed one by one on first
+// use, so a broken file would otherwise show only when asked for).
+func TestPPPSetsLoad(t *testing.T) {
+	names := PPPNames()
+	if len(names) == 0 {
+		t.Fatal("no built-in PPP sets")
+	}
+	for _, n := range names {
+		if _, err := PPPParams(n); err != nil {
+			t.Errorf("%s: %v", n, err)
+		}
+	}
+	if _, err := Params("no-such-set"); err == nil || !strings.Contains(err.Error(), DefaultParams) {
+		t.Errorf("unknown set: error %v, want one listing the known sets", err)
+	}
+}
