@@ -277,9 +277,8 @@ var locWorkPool = newFreeList(func() *locWork {
 	return w
 })
 
-// huckelSolvers holds Hückel solver workspaces for prepare (with the eigen memo: a screen's
-// partners and adducts repeat fragments).
-var huckelSolvers = newFreeList(func() *huckel.Solver { return &huckel.Solver{Memo: true} })
+// huckelSolvers holds Hückel solver workspaces for prepare.
+var huckelSolvers = newFreeList(func() *huckel.Solver { return new(huckel.Solver) })
 
 // freeList keeps up to GOMAXPROCS+2 idle workspaces across garbage collections: a
 // sync.Pool empties at every collection, which would throw away the solvers' eigen memos

@@ -32,7 +32,11 @@ import (
 // The zero value is ready to use; buffers grow and are reused, so repeated calls allocate
 // nothing once warm. An EnergySolver is not safe for concurrent use.
 type EnergySolver struct {
-	// Memo: as Solver.Memo, for the eigenvalues.
+	// Memo makes the solver remember the eigenvalues of its recent fragments by their exact
+	// matrix and reuse them, which are then the numbers a new solve would give, bit for bit
+	// (huckel/internal/eigmemo, up to 2 MiB per solver): worth it where fragments recur (a
+	// partner's localisation residues share every fragment the unit does not touch, and a
+	// screen's partners share substituent groups), not for unrelated molecules.
 	Memo bool
 
 	a, d, e, tau, work, x []float64

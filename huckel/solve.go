@@ -6,7 +6,6 @@ import (
 	"math"
 	"slices"
 
-	"cyclopair/huckel/internal/eigmemo"
 	"cyclopair/huckel/internal/grow"
 
 	"gonum.org/v1/gonum/blas"
@@ -108,13 +107,6 @@ func Solve(ps *PiSystem) (*Orbitals, error) {
 // Orbitals value is reused too). It gives the same results as Solve. The zero value is ready
 // to use. A Solver is not safe for concurrent use: give each worker goroutine its own.
 type Solver struct {
-	// Memo makes the solver remember its recent fragment eigenproblems by their exact
-	// matrix and reuse the results, which are then the numbers a new solve would give, bit
-	// for bit (up to 2 MiB per solver): worth it where fragments recur (the residues of a
-	// partner's localisation energies, the adducts of a screen), not for a stream of
-	// unrelated molecules.
-	Memo bool
-
 	useMat bool // diagonalise through mat.EigenSym (the path of Solve)
 
 	a, w, work []float64
@@ -125,8 +117,6 @@ type Solver struct {
 	proj, tmp  []float64  // degenerate-set basis construction
 	fragE      []int      // electrons per fragment
 	levelX     []float64  // per-fragment scratch: eigenvalues in descending order
-	key, val   []float64  // memo scratch: the matrix being solved, its stored result
-	memo       eigmemo.Memo
 }
 
 // Solve fills into with the solution of ps, reusing into's slices. On error into is left
@@ -427,7 +417,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 			}
 			s.a[i*m+j] += b.K
 		}
-		if err := s.eigenMemo(m); err != nil {
+		if err := s.eigen(m); err != nil {
 			return err
 		}
 		// s.w ascending, column c of s.a (row-major m×m) is vector c.
@@ -540,28 +530,6 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 
 // eigen diagonalises the m×m upper triangle in s.a in place: eigenvalues ascending in s.w,
 // eigenvectors in the columns of s.a.
-// eigenMemo is eigen looking the result up in s.memo first: the eigenvalues in s.w and
-// the vectors in s.a are then the numbers eigen would compute, bit for bit (eigmemo).
-func (s *Solver) eigenMemo(m int) error {
-	if !s.Memo || s.useMat || m < eigmemo.MinOrder {
-		return s.eigen(m)
-	}
-	mm := m * m
-	h := eigmemo.Hash(s.a[:mm])
-	if r, ok := s.memo.Get(h, s.a[:mm]); ok {
-		copy(s.w[:m], r[:m])
-		copy(s.a[:mm], r[m:])
-		return nil
-	}
-	s.key = append(s.key[:0], s.a[:mm]...)
-	if err := s.eigen(m); err != nil {
-		return err
-	}
-	s.val = append(append(s.val[:0], s.w[:m]...), s.a[:mm]...)
-	s.memo.Put(h, s.key, s.val)
-	return nil
-}
-
 func (s *Solver) eigen(m int) error {
 	if s.useMat {
 		sym := mat.NewSymDense(m, append([]float64(nil), s.a[:m*m]...))
