@@ -306,7 +306,7 @@ func runScreen(ctx context.Context, s *streams, o *screenOptions, data []byte) e
 	space := prep.Space()
 	lo, hi := cfg.Shard.Range(space.Len())
 	if cfg.Top == 0 && hi-lo > 100_000 {
-		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (about 0.3 ms of CPU each; 160,000 rows take some 50 s of CPU); --top K prints only the best K\n", hi-lo)
+		fmt.Fprintf(s.err, "cyclopair: note: %d pairs and no --top: every passing pair gets the full analysis (about 0.1 ms of CPU each; 160,000 rows take some 15–20 s of CPU); --top K prints only the best K\n", hi-lo)
 	}
 	prog := newProgress(s.rawErr, s.errIsTerminal, "screen", hi-lo)
 	var rowProg *progress // full analyses of the selected rows (ranked screens)
