@@ -27,26 +27,39 @@ func buildProduct(dp, ep *Partner, di, ei, o int) (m *molecule.Molecule, bonds [
 	m = &molecule.Molecule{Name: "adduct",
 		Atoms: make([]molecule.Atom, 0, len(dp.Mol.Atoms)+len(ep.Mol.Atoms)),
 		Bonds: make([]molecule.Bond, 0, len(dp.Mol.Bonds)+len(ep.Mol.Bonds)+2)}
-	add := func(src *molecule.Molecule, sd *side, offset int) {
-		for i, a := range src.Atoms {
-			a.Charge = sd.charge[i]
-			a.Map = 0
-			a.Aromatic = false
-			a.Pos = -1
-			m.Atoms = append(m.Atoms, a)
-		}
-		for bi, b := range src.Bonds {
-			m.Bonds = append(m.Bonds, molecule.Bond{A: b.A + offset, B: b.B + offset, Order: sd.orders[bi]})
-		}
-	}
-	add(dp.Mol, ds, 0)
-	add(ep.Mol, es, off)
+	appendHalf(m, dp.Mol, ds, 0)
+	appendHalf(m, ep.Mol, es, off)
 	bonds = productBonds(dp.Units[di], ep.Units[ei], o)
 	// the two new bonds last, then one adjacency build (the lists AddBond would give)
 	m.Bonds = append(m.Bonds, molecule.Bond{A: bonds[0][0], B: bonds[0][1] + off, Order: 1},
 		molecule.Bond{A: bonds[1][0], B: bonds[1][1] + off, Order: 1})
 	m.Reindex()
 	return m, bonds
+}
+
+// appendHalf appends src after reaction (side sd: product bond orders and charges) to m,
+// its atoms numbered from offset, atom maps, aromatic flags and positions cleared: one
+// partner's half of an adduct.
+func appendHalf(m *molecule.Molecule, src *molecule.Molecule, sd *side, offset int) {
+	for i, a := range src.Atoms {
+		a.Charge = sd.charge[i]
+		a.Map = 0
+		a.Aromatic = false
+		a.Pos = -1
+		m.Atoms = append(m.Atoms, a)
+	}
+	for bi, b := range src.Bonds {
+		m.Bonds = append(m.Bonds, molecule.Bond{A: b.A + offset, B: b.B + offset, Order: sd.orders[bi]})
+	}
+}
+
+// half is partner p's half of its adducts through unit u, as a molecule of its own
+// (indexed; the termini lack their new bonds).
+func half(p *Partner, u int) *molecule.Molecule {
+	m := &molecule.Molecule{Atoms: make([]molecule.Atom, 0, len(p.Mol.Atoms)), Bonds: make([]molecule.Bond, 0, len(p.Mol.Bonds))}
+	appendHalf(m, p.Mol, p.sides[u], 0)
+	m.Reindex()
+	return m
 }
 
 // productBonds are the two new σ bonds of buildProduct, [diene atom, dienophile atom] in

@@ -3,7 +3,6 @@ package fmo
 import (
 	"errors"
 	"fmt"
-	"sync"
 
 	"cyclopair/huckel/molecule"
 )
@@ -62,22 +61,9 @@ func residueRouteOK(opts *Options) bool {
 
 // residueOf prepares partner p's half of its adducts through unit ui.
 func residueOf(p *Partner, ui int, opts *Options) residue {
-	sd := p.sides[ui]
 	u := p.Units[ui]
-	src := p.Mol
-	m := &molecule.Molecule{Name: p.Name + " after reaction",
-		Atoms: make([]molecule.Atom, 0, len(src.Atoms)),
-		Bonds: make([]molecule.Bond, 0, len(src.Bonds))}
-	for i, a := range src.Atoms { // as buildProduct's add
-		a.Charge = sd.charge[i]
-		a.Map = 0
-		a.Aromatic = false
-		a.Pos = -1
-		m.Atoms = append(m.Atoms, a)
-	}
-	for bi, b := range src.Bonds {
-		m.Bonds = append(m.Bonds, molecule.Bond{A: b.A, B: b.B, Order: sd.orders[bi]})
-	}
+	m := half(p, ui)
+	m.Name = p.Name + " after reaction"
 	var t0, t1 int
 	if p.Role == RoleDiene {
 		t0, t1 = u.Termini()
@@ -86,7 +72,6 @@ func residueOf(p *Partner, ui int, opts *Options) residue {
 	}
 	m.Atoms[t0].HCount++ // the new σ bond, to a hydrogen
 	m.Atoms[t1].HCount++
-	m.Reindex()
 	sp := &Partner{Name: m.Name, Role: RoleDienophile, Mol: m, Activation: "none", Active: m, noConj: true}
 	err := sp.prepare(opts)
 	var r residue
@@ -161,37 +146,16 @@ func residueGap(diene *Partner, halves [2]*residue, adduct *molecule.Molecule, o
 	return g, siteName(diene, diene.Units[bd], &Partner{Mol: adduct}, []int{x, y}), best.score, true, nil
 }
 
-// residueCache memoises residueOf per partner and unit for SideChannelCache.
-type residueCache struct {
-	mu sync.Mutex
-	m  map[residueKey]*residueOnce
-}
-
 type residueKey struct {
 	p  *Partner
 	ui int
 }
 
-type residueOnce struct {
-	once sync.Once
-	r    residue
-}
-
-// residueCap bounds residueCache (emptied when full): a residue is a few hundred bytes.
+// residueCap bounds the residues of a SideChannelCache (emptied when full): a residue is a
+// few hundred bytes.
 const residueCap = 1 << 16
 
-func (c *residueCache) get(p *Partner, ui int, opts *Options) *residue {
-	k := residueKey{p, ui}
-	c.mu.Lock()
-	if c.m == nil || len(c.m) >= residueCap {
-		c.m = make(map[residueKey]*residueOnce)
-	}
-	e := c.m[k]
-	if e == nil {
-		e = &residueOnce{}
-		c.m[k] = e
-	}
-	c.mu.Unlock()
-	e.once.Do(func() { e.r = residueOf(p, ui, opts) })
-	return &e.r
+// residue is residueOf, once per partner and unit.
+func (c *SideChannelCache) residue(p *Partner, ui int, opts *Options) *residue {
+	return c.residues.get(residueKey{p, ui}, residueCap, func() residue { return residueOf(p, ui, opts) })
 }

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"sync"
 
 	"cyclopair/huckel/molecule"
 	"cyclopair/huckel/smiles"
@@ -85,10 +84,9 @@ func SideChannelsWithin(diene, dienophile *Partner, pair *Pair, opts *Options, m
 // unactivated partner. That part holds at most sideAdductCap entries (it is emptied when
 // full), so memory does not grow with the number of rows.
 type SideChannelCache struct {
-	mu       sync.Mutex
-	m        map[*Partner]*sideOnce
-	adducts  map[adductKey]*sideOnce
-	residues residueCache // each partner's half of its adducts (residue.go)
+	dimers   onceMap[*Partner, sideResult]
+	adducts  onceMap[adductKey, sideResult]
+	residues onceMap[residueKey, residue] // each partner's half of its adducts (residue.go)
 }
 
 // adductKey names an adduct by its partners and the two bonds that join them: the
@@ -104,23 +102,7 @@ type adductKey struct {
 const sideAdductCap = 4096
 
 func (c *SideChannelCache) adduct(k adductKey, f func() sideResult) sideResult {
-	c.mu.Lock()
-	if c.adducts == nil || len(c.adducts) >= sideAdductCap {
-		c.adducts = make(map[adductKey]*sideOnce)
-	}
-	e := c.adducts[k]
-	if e == nil {
-		e = &sideOnce{}
-		c.adducts[k] = e
-	}
-	c.mu.Unlock()
-	e.once.Do(func() { e.r = f() })
-	return e.r
-}
-
-type sideOnce struct {
-	once sync.Once
-	r    sideResult
+	return *c.adducts.get(k, sideAdductCap, f)
 }
 
 // SideChannels is the package-level SideChannels with the dimerisation looked up in (and
@@ -130,18 +112,7 @@ func (c *SideChannelCache) SideChannels(diene, dienophile *Partner, pair *Pair, 
 }
 
 func (c *SideChannelCache) dimerisation(diene *Partner, opts *Options) sideResult {
-	c.mu.Lock()
-	if c.m == nil {
-		c.m = make(map[*Partner]*sideOnce)
-	}
-	e := c.m[diene]
-	if e == nil {
-		e = &sideOnce{}
-		c.m[diene] = e
-	}
-	c.mu.Unlock()
-	e.once.Do(func() { e.r = dimerisation(diene, opts) })
-	return e.r
+	return *c.dimers.get(diene, 0, func() sideResult { return dimerisation(diene, opts) })
 }
 
 // sideResult is one side reaction analysed on its own, before it is compared with a pair.
@@ -294,7 +265,7 @@ func residueSide(diene *Partner, o *Orientation, what string, opts *Options, cac
 	}
 	var halves [2]*residue
 	if cache != nil {
-		halves = [2]*residue{cache.residues.get(src.diene, src.di, opts), cache.residues.get(src.dienophile, src.ei, opts)}
+		halves = [2]*residue{cache.residue(src.diene, src.di, opts), cache.residue(src.dienophile, src.ei, opts)}
 	} else {
 		d, e := residueOf(src.diene, src.di, opts), residueOf(src.dienophile, src.ei, opts)
 		halves = [2]*residue{&d, &e}

@@ -2,8 +2,6 @@ package fmo
 
 import (
 	"sync"
-
-	"cyclopair/huckel/molecule"
 )
 
 // Are two candidate adducts of one pair the same compound? An adduct is the diene's half
@@ -70,20 +68,6 @@ func sameAdduct(d, e *Partner, di, ei, or, dj, ej, oj int) bool {
 		}
 	}
 	return false
-}
-
-// half is partner p's half of its adducts through unit u, as buildProduct adds it.
-func half(p *Partner, u int) *molecule.Molecule {
-	sd := p.sides[u]
-	m := &molecule.Molecule{Atoms: make([]molecule.Atom, len(p.Mol.Atoms)), Bonds: make([]molecule.Bond, len(p.Mol.Bonds))}
-	for i, a := range p.Mol.Atoms {
-		m.Atoms[i] = molecule.Atom{Element: a.Element, Isotope: a.Isotope, Charge: sd.charge[i], HCount: a.HCount}
-	}
-	for bi, b := range p.Mol.Bonds {
-		m.Bonds[bi] = molecule.Bond{A: b.A, B: b.B, Order: sd.orders[bi]}
-	}
-	m.Reindex()
-	return m
 }
 
 func unitMaps(p *Partner, u, v int) uint8 {

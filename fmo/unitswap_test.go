@@ -14,37 +14,33 @@ func TestSameAdductSound(t *testing.T) {
 		"N#CC(C#N)=C(C#N)C#N", "COC(=O)/C=C/C(=O)OC", "O=Cc1ccccc1", "COC(=O)C#CC(=O)OC", "C=CC=C", "O=C1C(Cl)=CC(=O)C=C1"}
 	o := testOptions(t)
 	fired, checked := 0, 0
-	for _, ds := range dienes {
-		d := mustPartner(t, ds, RoleDiene, o)
-		for _, es := range dienophiles {
-			e := mustPartner(t, es, RoleDienophile, o)
-			var ids [][3]int
-			for di := range d.Units {
-				for ei := range e.Units {
-					ids = append(ids, [3]int{di, ei, 0}, [3]int{di, ei, 1})
+	eachPair(t, dienes, dienophiles, o, func(ds, es string, d, e *Partner) {
+		var ids [][3]int
+		for di := range d.Units {
+			for ei := range e.Units {
+				ids = append(ids, [3]int{di, ei, 0}, [3]int{di, ei, 1})
+			}
+		}
+		key := make([]string, len(ids))
+		for k, id := range ids {
+			pm, _ := buildProduct(d, e, id[0], id[1], id[2])
+			key[k] = productKey(pm)
+		}
+		for i, a := range ids {
+			for j, b := range ids {
+				if !sameAdduct(d, e, a[0], a[1], a[2], b[0], b[1], b[2]) {
+					continue
 				}
-			}
-			key := make([]string, len(ids))
-			for k, id := range ids {
-				pm, _ := buildProduct(d, e, id[0], id[1], id[2])
-				key[k] = productKey(pm)
-			}
-			for i, a := range ids {
-				for j, b := range ids {
-					if !sameAdduct(d, e, a[0], a[1], a[2], b[0], b[1], b[2]) {
-						continue
-					}
-					checked++
-					if i != j {
-						fired++
-					}
-					if key[i] != key[j] {
-						t.Errorf("%s + %s: candidates %v and %v called one adduct, canonical SMILES %s and %s", ds, es, a, b, key[i], key[j])
-					}
+				checked++
+				if i != j {
+					fired++
+				}
+				if key[i] != key[j] {
+					t.Errorf("%s + %s: candidates %v and %v called one adduct, canonical SMILES %s and %s", ds, es, a, b, key[i], key[j])
 				}
 			}
 		}
-	}
+	})
 	if fired < 200 {
 		t.Errorf("the unit maps proved only %d pairs of distinct candidates equal (%d checked)", fired, checked)
 	}
