@@ -221,13 +221,11 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	// either adduct where their halves map onto each other (unitswap.go); the search
 	// bound on j's colours is the condition keys.same puts on an isomorphism (i's are equal
 	// when the two are isomorphic). Otherwise the product keys decide.
-	same := func(i, j int) bool {
+	byMaps := func(i, j int) bool {
 		ci, cj := &cands[i], &cands[j]
-		if i != j && sameAdduct(diene, dienophile, ci.di, ci.ei, ci.or, cj.di, cj.ei, cj.or) && searchBounded(keys.coloursOf(j)) {
-			return true
-		}
-		return keys.same(i, j)
+		return i != j && sameAdduct(diene, dienophile, ci.di, ci.ei, ci.or, cj.di, cj.ei, cj.or) && searchBounded(keys.coloursOf(j))
 	}
+	same := func(i, j int) bool { return byMaps(i, j) || keys.same(i, j) }
 	var listed []int
 	unlisted := 0
 	n := len(cands)
@@ -239,22 +237,10 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 	}
 	pair.Orientations = make([]Orientation, 0, min(n, MaxListedOrientations))
 	for i := range cands[:n] {
-		// the partners' unit maps first (no invariant of adduct i needed), then the keys
-		dup := false
-		for _, j := range listed {
-			ci, cj := &cands[i], &cands[j]
-			if sameAdduct(diene, dienophile, ci.di, ci.ei, ci.or, cj.di, cj.ei, cj.or) && searchBounded(keys.coloursOf(j)) {
-				dup = true
-				break
-			}
-		}
-		for _, j := range listed {
-			if dup || keys.same(i, j) {
-				dup = true
-				break
-			}
-		}
-		if dup {
+		// the partners' unit maps against every listed adduct first (no invariant of
+		// adduct i needed), then the keys
+		if slices.ContainsFunc(listed, func(j int) bool { return byMaps(i, j) }) ||
+			slices.ContainsFunc(listed, func(j int) bool { return keys.same(i, j) }) {
 			continue
 		}
 		if len(listed) == MaxListedOrientations {
@@ -277,7 +263,6 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 		o.Product = product
 		du, eu := diene.Units[c.di], dienophile.Units[c.ei]
 		pm, bonds := keys.mol(i), o.Bonds // the adduct canonical() was computed from
-		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
 		if i == 0 {
 			o.isolated, o.isolatedSteps = isolatedConstitution(diene, du, bonds, pm)
 			o.src = &adductSource{diene: diene, dienophile: dienophile, di: c.di, ei: c.ei}
@@ -286,6 +271,7 @@ func AnalyzeDetail(diene, dienophile *Partner, opts *Options, detail Detail) (*P
 			pair.Orientations = append(pair.Orientations, o)
 			continue
 		}
+		endoPref := du.Kind != UnitDipole && endoDistinct(dienophile, eu) && c.s.frontier > 0 && c.s.endo/c.s.frontier >= opts.EndoWeak
 		o.StereoProducts, o.FollowUp, o.IsolatedProduct = productForms(diene, dienophile, du, eu, bonds, pm, product, endoPref)
 		pair.Orientations = append(pair.Orientations, o)
 	}
