@@ -61,15 +61,9 @@ func residueRouteOK(opts *Options) bool {
 
 // residueOf prepares partner p's half of its adducts through unit ui.
 func residueOf(p *Partner, ui int, opts *Options) residue {
-	u := p.Units[ui]
 	m := half(p, ui)
 	m.Name = p.Name + " after reaction"
-	var t0, t1 int
-	if p.Role == RoleDiene {
-		t0, t1 = u.Termini()
-	} else {
-		t0, t1 = u.Atoms[0], u.Atoms[1]
-	}
+	t0, t1 := p.Units[ui].Termini() // the atoms that form the new bonds
 	m.Atoms[t0].HCount++ // the new σ bond, to a hydrogen
 	m.Atoms[t1].HCount++
 	sp := &Partner{Name: m.Name, Role: RoleDienophile, Mol: m, Activation: "none", Active: m, noConj: true}
