@@ -30,10 +30,47 @@ func (n num) MarshalJSON() ([]byte, error) {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return []byte("null"), nil
 	}
-	return strconv.AppendFloat(nil, round6(v), 'f', -1, 64), nil
+	return appendRound6(nil, v), nil
 }
 
-func fmtNum(v float64) string { return strconv.FormatFloat(round6(v), 'f', -1, 64) }
+func fmtNum(v float64) string { return string(appendRound6(nil, v)) }
+
+// appendRound6 appends strconv.AppendFloat(b, round6(v), 'f', -1, 64) for finite v: the
+// shortest decimal that reads back as round6(v). round6(v) is the double nearest to k/10⁶,
+// k = round(v·10⁶); below 10⁹ doubles are closer than 10⁻⁶, so that decimal is k/10⁶ itself
+// with its trailing zeros dropped (a shorter one would be another multiple of 10⁻⁶ reading
+// back as the same double), which integer arithmetic writes without the shortest-digits
+// search. Larger magnitudes take strconv. TestAppendRound6 compares both on random and
+// edge values.
+func appendRound6(b []byte, v float64) []byte {
+	k := math.Round(v * 1e6)
+	if !(math.Abs(k) < 1e15) {
+		return strconv.AppendFloat(b, round6(v), 'f', -1, 64)
+	}
+	n := int64(k)
+	if n == 0 {
+		return append(b, '0') // round6 drops the sign of −0
+	}
+	if n < 0 {
+		b = append(b, '-')
+		n = -n
+	}
+	b = strconv.AppendInt(b, n/1e6, 10)
+	if f := n % 1e6; f != 0 {
+		var d [7]byte
+		d[0] = '.'
+		for i := 6; i >= 1; i-- {
+			d[i] = byte('0' + f%10)
+			f /= 10
+		}
+		end := 7
+		for d[end-1] == '0' {
+			end--
+		}
+		b = append(b, d[:end]...)
+	}
+	return b
+}
 
 // JSON Lines record (contract in DEVELOPERS.md: smiles, homo, lumo, levels, centres,
 // pi_energy, electrons; the other keys are additions).

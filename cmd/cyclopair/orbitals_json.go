@@ -17,7 +17,7 @@ func appendNum(b []byte, v num) []byte {
 	if math.IsNaN(f) || math.IsInf(f, 0) {
 		return append(b, "null"...)
 	}
-	return strconv.AppendFloat(b, round6(f), 'f', -1, 64)
+	return appendRound6(b, f)
 }
 
 const hexDigits = "0123456789abcdef"

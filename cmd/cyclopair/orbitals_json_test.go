@@ -3,6 +3,8 @@ package main
 import (
 	"encoding/json"
 	"math"
+	"math/rand/v2"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -94,6 +96,25 @@ func TestOrbitalsBatchWarningsStayWithTheirMolecule(t *testing.T) {
 		warned := !strings.Contains(l, `"warnings":[]`)
 		if cbd != warned {
 			t.Errorf("JSON line %d: cyclobutadiene %v, warnings shown %v: %.200s", i+1, cbd, warned, l)
+		}
+	}
+}
+
+// TestAppendRound6: the integer writer gives strconv's shortest 'f' digits of round6(v) on
+// random values over twelve orders of magnitude, both signs, values on the rounding
+// boundary of the sixth decimal, and the edges of its range.
+func TestAppendRound6(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(6, 2026))
+	vals := []float64{0, math.Copysign(0, -1), 1e-7, -1e-7, 4e-7, 5e-7, -5e-7, 1.5e-6, 0.1, 0.3, 1.0000005,
+		-2.4999995, 123456.7890125, 999999999.999999, -999999999.9999995, 1e9 - 1e-6, 1e9, 2e14, 9.99e8, 1e15, -3e16}
+	for range 200000 {
+		v := (rnd.Float64()*2 - 1) * math.Pow(10, float64(rnd.IntN(12)-4))
+		vals = append(vals, v, math.Round(v*1e6)/1e6+5e-7, math.Round(v*2e6)/2e6)
+	}
+	for _, v := range vals {
+		want := strconv.AppendFloat(nil, round6(v), 'f', -1, 64)
+		if got := appendRound6(nil, v); string(got) != string(want) {
+			t.Fatalf("appendRound6(%v) = %s, strconv gives %s", v, got, want)
 		}
 	}
 }
