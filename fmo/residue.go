@@ -63,8 +63,9 @@ func residueRouteOK(opts *Options) bool {
 func residueOf(p *Partner, ui int, opts *Options) residue {
 	m := half(p, ui)
 	m.Name = p.Name + " after reaction"
-	t0, t1 := p.Units[ui].Termini() // the atoms that form the new bonds
-	m.Atoms[t0].HCount++ // the new σ bond, to a hydrogen
+	// each new σ bond of the termini (the atoms that form them) becomes a hydrogen
+	t0, t1 := p.Units[ui].Termini()
+	m.Atoms[t0].HCount++
 	m.Atoms[t1].HCount++
 	sp := &Partner{Name: m.Name, Role: RoleDienophile, Mol: m, Activation: "none", Active: m, noConj: true}
 	err := sp.prepare(opts)
