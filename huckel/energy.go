@@ -87,20 +87,7 @@ func (s *EnergySolver) PiEnergy(ps *PiSystem) (float64, error) {
 			return solveEnergy(ps)
 		}
 		s.a = grow.Slice(s.a, m*m)
-		clear(s.a)
-		for li, c := range frag {
-			s.a[li*m+li] = ps.Centres[c].H
-		}
-		for _, b := range ps.Bonds {
-			if ps.Centres[b.I].Fragment != f {
-				continue
-			}
-			i, j := s.loc[b.I], s.loc[b.J]
-			if i > j {
-				i, j = j, i
-			}
-			s.a[i*m+j] += b.K
-		}
+		fragmentMatrix(s.a, ps, f, frag, s.loc, nil)
 		if !s.values(m) {
 			return solveEnergy(ps)
 		}

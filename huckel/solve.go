@@ -403,20 +403,7 @@ func (s *Solver) solveOnce(ps *PiSystem, h []float64, into *Orbitals) error {
 		electrons += s.fragE[f]
 		s.a = grow.Slice(s.a, m*m)
 		s.w = grow.Slice(s.w, m)
-		clear(s.a)
-		for li, c := range frag {
-			s.a[li*m+li] = h[c]
-		}
-		for _, b := range ps.Bonds {
-			if ps.Centres[b.I].Fragment != f {
-				continue
-			}
-			i, j := s.loc[b.I], s.loc[b.J]
-			if i > j {
-				i, j = j, i
-			}
-			s.a[i*m+j] += b.K
-		}
+		fragmentMatrix(s.a, ps, f, frag, s.loc, h)
 		if err := s.eigen(m); err != nil {
 			return err
 		}
@@ -577,6 +564,33 @@ func (s *Solver) eigen(m int) error {
 		return fmt.Errorf("huckel: %w on a %d×%d matrix", ErrEigen, m, m)
 	}
 	return nil
+}
+
+// fragmentMatrix fills a (m×m for the m centres of frag, row-major) with the Hückel matrix
+// of fragment f: the Coulomb term of each centre on the diagonal (h[c], or the centre's H
+// when h is nil) and each bond's k added above it (loc: centre -> index in its fragment).
+// Solve and EnergySolver both build their matrices here, so one system gives them one
+// matrix, bit for bit.
+func fragmentMatrix(a []float64, ps *PiSystem, f int, frag, loc []int, h []float64) {
+	m := len(frag)
+	clear(a[:m*m])
+	for li, c := range frag {
+		if h != nil {
+			a[li*m+li] = h[c]
+		} else {
+			a[li*m+li] = ps.Centres[c].H
+		}
+	}
+	for _, b := range ps.Bonds {
+		if ps.Centres[b.I].Fragment != f {
+			continue
+		}
+		i, j := loc[b.I], loc[b.J]
+		if i > j {
+			i, j = j, i
+		}
+		a[i*m+j] += b.K
+	}
 }
 
 // fixDegenerate replaces columns c0..c0+d-1 of the m×m eigenvector matrix s.a with the
