@@ -166,15 +166,21 @@ func (l *layouter) components() [][]int {
 		slices.Sort(flat[o:])
 	}
 	l.compFlat, l.compOff = flat, off
-	l.comps = l.comps[:0]
+	l.comps = splitFlat(l.comps[:0], flat, off)
+	return l.comps
+}
+
+// splitFlat appends to dst the lists stored back to back in flat, list k starting at
+// off[k] (each capped at its end, so appending to one cannot overwrite the next).
+func splitFlat(dst [][]int, flat, off []int) [][]int {
 	for k, o := range off {
 		e := len(flat)
 		if k+1 < len(off) {
 			e = off[k+1]
 		}
-		l.comps = append(l.comps, flat[o:e:e])
+		dst = append(dst, flat[o:e:e])
 	}
-	return l.comps
+	return dst
 }
 
 // layoutComponent places every atom of one connected component.

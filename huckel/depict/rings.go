@@ -352,13 +352,7 @@ func (g *graph) sssr(w *ringScratch) [][]int {
 		flat = appendCanonicalRing(flat, candAtoms[c.off:c.off+c.size])
 	}
 	w.basis, w.pivots, w.flat, w.ringOff = basis, pivots, flat, ringOff
-	for k, o := range ringOff {
-		e := len(flat)
-		if k+1 < len(ringOff) {
-			e = ringOff[k+1]
-		}
-		w.rings = append(w.rings, flat[o:e:e])
-	}
+	w.rings = splitFlat(w.rings, flat, ringOff)
 	return w.rings
 }
 

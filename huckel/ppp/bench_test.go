@@ -9,7 +9,6 @@ import (
 	"cyclopair/huckel"
 	"cyclopair/huckel/ppp"
 	"cyclopair/huckel/smiles"
-	"cyclopair/presets"
 )
 
 // The substrates of huckel's BenchmarkPipeline (about 10, 20 and 30 π centres with the
@@ -114,14 +113,7 @@ func BenchmarkSolve(b *testing.B) {
 // eachBenchMolecule runs f as a sub-benchmark "centres=N" for every benchMolecules entry,
 // with the default Hückel and PPP parameter sets and the molecule's perceived π system.
 func eachBenchMolecule(b *testing.B, f func(b *testing.B, smi string, ps *huckel.PiSystem, hp *huckel.Params, pp *ppp.Params)) {
-	hp, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		b.Fatal(err)
-	}
-	pp, err := presets.PPPParams(presets.DefaultPPP)
-	if err != nil {
-		b.Fatal(err)
-	}
+	hp, pp := params(b)
 	for _, smi := range benchMolecules {
 		m, err := smiles.Parse(smi)
 		if err != nil {

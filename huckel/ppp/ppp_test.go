@@ -649,14 +649,7 @@ func TestSolveAtAllocs(t *testing.T) {
 // textbook open shell of Hückel and SCF alike, from memory: a warning) followed by a closed-shell
 // one (butadiene) leaves the second with the warnings of a fresh solve (none).
 func TestSolveReusedOrbitalsWarnings(t *testing.T) {
-	hp, err := presets.Params(presets.DefaultParams)
-	if err != nil {
-		t.Fatal(err)
-	}
-	pp, err := presets.PPPParams(presets.DefaultPPP)
-	if err != nil {
-		t.Fatal(err)
-	}
+	hp, pp := params(t)
 	s := ppp.NewSolver(pp)
 	var reused huckel.Orbitals
 	warned := false
